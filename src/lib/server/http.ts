@@ -1,0 +1,88 @@
+import type { z } from 'zod';
+
+/** Default cap for JSON request bodies, in bytes. */
+export const DEFAULT_BODY_LIMIT = 64 * 1024;
+
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+    readonly body: Record<string, unknown> = {},
+  ) {
+    super(message);
+  }
+}
+
+export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
+  return new Response(JSON.stringify(data), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', ...headers },
+  });
+}
+
+/** Reads a JSON body of at most `limit` bytes; throws HttpError 413 / 400 / 415. */
+export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Promise<unknown> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!type.includes('application/json')) {
+    throw new HttpError(415, 'Send the body as JSON (content-type: application/json).');
+  }
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > limit) throw new HttpError(413, `Request body is larger than ${limit} bytes.`);
+  const reader = request.body?.getReader();
+  if (!reader) throw new HttpError(400, 'Request body is empty.');
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limit) {
+      await reader.cancel();
+      throw new HttpError(413, `Request body is larger than ${limit} bytes.`);
+    }
+    chunks.push(value);
+  }
+  const text = new TextDecoder().decode(concat(chunks, size));
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new HttpError(400, 'Request body is not valid JSON.');
+  }
+}
+
+function concat(chunks: Uint8Array[], size: number): Uint8Array {
+  const out = new Uint8Array(size);
+  let offset = 0;
+  for (const c of chunks) {
+    out.set(c, offset);
+    offset += c.byteLength;
+  }
+  return out;
+}
+
+/** Validates with a zod schema; on failure throws 422 with one message per field. */
+export function validate<S extends z.ZodType>(schema: S, data: unknown): z.infer<S> {
+  const result = schema.safeParse(data);
+  if (result.success) return result.data;
+  const fields: Record<string, string> = {};
+  for (const issue of result.error.issues) {
+    const key = issue.path.join('.') || '_';
+    fields[key] ??= issue.message;
+  }
+  const first = result.error.issues[0];
+  const where = first?.path.length ? `${first.path.join('.')}: ` : '';
+  throw new HttpError(422, `${where}${first?.message ?? 'Invalid input'}`, { fields });
+}
+
+/** Wraps a route handler so thrown HttpErrors become JSON responses `{ error, ...body }`. */
+export function route<C>(handler: (context: C) => Promise<Response> | Response) {
+  return async (context: C): Promise<Response> => {
+    try {
+      return await handler(context);
+    } catch (err) {
+      if (err instanceof HttpError) return json({ error: err.message, ...err.body }, err.status);
+      console.error(err);
+      return json({ error: 'Internal error' }, 500);
+    }
+  };
+}
