@@ -1,0 +1,25 @@
+import { mkdirSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { createClient, type Client } from '@libsql/client';
+import { drizzle } from 'drizzle-orm/libsql';
+import * as schema from './schema';
+
+/** Default database: a SQLite file relative to the working directory. */
+export const DEFAULT_DATABASE_URL = 'file:./data/baudbook.db';
+
+function openClient(url: string): Client {
+  if (url.startsWith('file:')) {
+    const path = url.slice('file:'.length);
+    if (path && path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
+  }
+  // `timeout` is SQLite's busy timeout in ms: concurrent writers wait instead of failing with SQLITE_BUSY.
+  return createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
+}
+
+export const databaseUrl = process.env.DATABASE_URL || DEFAULT_DATABASE_URL;
+export const client = openClient(databaseUrl);
+export const db = drizzle(client, { schema });
+export type Db = typeof db;
+/** A transaction handle, accepted wherever `db` is. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type DbOrTx = Db | Tx;

@@ -1,0 +1,19 @@
+import { resolve } from 'node:path';
+import { migrate } from 'drizzle-orm/libsql/migrator';
+import { client, databaseUrl, db } from './client';
+
+/** Folder of generated migrations; relative to the working directory unless MIGRATIONS_DIR is set. */
+const migrationsFolder = resolve(process.env.MIGRATIONS_DIR ?? 'drizzle');
+
+let ready: Promise<void> | null = null;
+
+/** Applies pending migrations once per process; WAL for a file database (libSQL turns foreign keys on for every connection). */
+export function ensureDatabase(): Promise<void> {
+  ready ??= (async () => {
+    if (databaseUrl.startsWith('file:')) {
+      await client.execute('PRAGMA journal_mode = WAL');
+    }
+    await migrate(db, { migrationsFolder });
+  })();
+  return ready;
+}

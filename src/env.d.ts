@@ -1,0 +1,13 @@
+/// <reference types="astro/client" />
+
+declare namespace App {
+  interface Locals {
+    /** Signed-in user, or null. */
+    user: { id: string; name: string; email: string } | null;
+    sessionId: string | null;
+    /** Every team the user belongs to, with the role held there. */
+    teams: { id: string; name: string; role: import('./lib/permissions').Role }[];
+    /** The active team (chosen with the team switcher), or null when the user has none. */
+    team: { id: string; name: string; role: import('./lib/permissions').Role } | null;
+  }
+}

@@ -1,0 +1,123 @@
+/** Byte helpers shared by the notations; table-driven so rendering stays fast on large inputs. */
+
+const HEX_DIGITS = '0123456789ABCDEF';
+
+/** `HEX_PAIR[b]` is the two-digit uppercase hex of byte b. */
+export const HEX_PAIR: readonly string[] = Array.from(
+  { length: 256 },
+  (_, b) => HEX_DIGITS[b >> 4]! + HEX_DIGITS[b & 15]!,
+);
+
+/** Value of a hex digit character code, or -1. Accepts both cases. */
+export function hexValue(code: number): number {
+  if (code >= 48 && code <= 57) return code - 48;
+  if (code >= 65 && code <= 70) return code - 55;
+  if (code >= 97 && code <= 102) return code - 87;
+  return -1;
+}
+
+/** True for printable ASCII, 0x20 (space) to 0x7E (~). */
+export function isPrintable(byte: number): boolean {
+  return byte >= 0x20 && byte <= 0x7e;
+}
+
+/** Joins one string per byte using a 256-entry table, in chunks to keep memory flat on MiB inputs. */
+export function renderWithTable(bytes: Uint8Array, table: readonly string[], separator = ''): string {
+  const chunk = 8192;
+  if (bytes.length <= chunk) {
+    const parts = new Array<string>(bytes.length);
+    for (let i = 0; i < bytes.length; i++) parts[i] = table[bytes[i]!]!;
+    return parts.join(separator);
+  }
+  const pieces: string[] = [];
+  const parts = new Array<string>(chunk);
+  for (let at = 0; at < bytes.length; at += chunk) {
+    const n = Math.min(chunk, bytes.length - at);
+    if (n < chunk) parts.length = n;
+    for (let i = 0; i < n; i++) parts[i] = table[bytes[at + i]!]!;
+    pieces.push(parts.join(separator));
+  }
+  return pieces.join(separator);
+}
+
+/** Uppercase hex, one pair per byte, space-separated: `0D 0A`. */
+export function toHex(bytes: Uint8Array, separator = ' '): string {
+  return renderWithTable(bytes, HEX_PAIR, separator);
+}
+
+/** Byte values of a string whose characters are all 0x00-0xFF (Latin-1); -1 marks the first wider character. */
+export function latin1Bytes(text: string): Uint8Array | number {
+  const out = new Uint8Array(text.length);
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c > 0xff) return i;
+    out[i] = c;
+  }
+  return out;
+}
+
+/** The characters for bytes 0x00-0xFF (Latin-1), chunked so large arrays do not overflow the call stack. */
+export function bytesToLatin1(bytes: Uint8Array): string {
+  let out = '';
+  for (let at = 0; at < bytes.length; at += 8192) {
+    out += String.fromCharCode.apply(null, bytes.subarray(at, at + 8192) as unknown as number[]);
+  }
+  return out;
+}
+
+/** Index of `needle` in `hay` at or after `from`, limited to before `end`; -1 if absent. */
+export function indexOfBytes(hay: Uint8Array, needle: Uint8Array, from = 0, end = hay.length): number {
+  if (needle.length === 0) return -1;
+  const first = needle[0]!;
+  const last = end - needle.length;
+  outer: for (let i = from; i <= last; i++) {
+    if (hay[i] !== first) continue;
+    for (let j = 1; j < needle.length; j++) if (hay[i + j] !== needle[j]) continue outer;
+    return i;
+  }
+  return -1;
+}
+
+/** True when `a` holds exactly the bytes of `b` starting at `at`. */
+export function bytesAt(a: Uint8Array, b: Uint8Array, at: number): boolean {
+  if (at < 0 || at + b.length > a.length) return false;
+  for (let i = 0; i < b.length; i++) if (a[at + i] !== b[i]) return false;
+  return true;
+}
+
+/** A growable byte buffer for assembling frames without intermediate arrays. */
+export class ByteWriter {
+  private buf: Uint8Array;
+  length = 0;
+  constructor(capacity = 64) {
+    this.buf = new Uint8Array(capacity);
+  }
+  private reserve(n: number): void {
+    if (this.length + n <= this.buf.length) return;
+    let size = this.buf.length * 2;
+    while (size < this.length + n) size *= 2;
+    const next = new Uint8Array(size);
+    next.set(this.buf.subarray(0, this.length));
+    this.buf = next;
+  }
+  push(byte: number): void {
+    this.reserve(1);
+    this.buf[this.length++] = byte;
+  }
+  pushBytes(bytes: Uint8Array): void {
+    this.reserve(bytes.length);
+    this.buf.set(bytes, this.length);
+    this.length += bytes.length;
+  }
+  /** Appends the low byte of each character code (callers pass ASCII). */
+  pushAscii(text: string): void {
+    this.reserve(text.length);
+    for (let i = 0; i < text.length; i++) this.buf[this.length++] = text.charCodeAt(i) & 0xff;
+  }
+  view(): Uint8Array {
+    return this.buf.subarray(0, this.length);
+  }
+  toBytes(): Uint8Array {
+    return this.buf.slice(0, this.length);
+  }
+}

@@ -1,0 +1,32 @@
+import type { MiddlewareHandler } from 'astro';
+import { auth } from '../auth';
+import { listTeamsOf } from '../teams';
+import { secureCookies } from '../config';
+
+export const TEAM_COOKIE = 'bb_team';
+
+/** Fills locals with the signed-in user, their teams and the active team; nothing else. */
+export const fillLocals: MiddlewareHandler = async (context, next) => {
+  const { locals, request, url } = context;
+  locals.user = null;
+  locals.sessionId = null;
+  locals.teams = [];
+  locals.team = null;
+  if (url.pathname.startsWith('/_astro/') || url.pathname.startsWith('/api/auth/') || url.pathname.startsWith('/api/tools/')) {
+    return next();
+  }
+  const session = await auth.api.getSession({ headers: request.headers });
+  if (session) {
+    locals.user = { id: session.user.id, name: session.user.name, email: session.user.email };
+    locals.sessionId = session.session.id;
+    locals.teams = await listTeamsOf(session.user.id);
+    const wanted = context.cookies.get(TEAM_COOKIE)?.value;
+    locals.team = locals.teams.find((t) => t.id === wanted) ?? locals.teams[0] ?? null;
+  }
+  return next();
+};
+
+/** Remembers the active team for the team switcher (validated against membership on every request). */
+export function setActiveTeam(cookies: import('astro').AstroCookies, teamId: string): void {
+  cookies.set(TEAM_COOKIE, teamId, { path: '/', httpOnly: true, sameSite: 'lax', secure: secureCookies, maxAge: 31_536_000 });
+}
