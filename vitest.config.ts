@@ -8,5 +8,6 @@ export default getViteConfig({
     testTimeout: 20_000,
     hookTimeout: 30_000,
     pool: 'forks',
+    globalSetup: ['tests/helpers/global-setup.ts'],
   },
 });

@@ -14,7 +14,7 @@ export async function listTeamsOf(userId: string) {
     .from(membership)
     .innerJoin(team, eq(team.id, membership.teamId))
     .where(eq(membership.userId, userId))
-    .orderBy(asc(team.name));
+    .orderBy(asc(membership.createdAt));
 }
 
 export async function createTeam(userId: string, name: string) {

@@ -1,0 +1,150 @@
+/** Checks that the devices sharing one serial link agree and that an RS-485 bus is built correctly. */
+import { overallState, type Severity } from './findings';
+import { type PortInterface, type PortSettings, portShorthand } from './port-settings';
+
+export interface LinkMember {
+  id: string;
+  label: string;
+  role: 'master' | 'slave' | 'peer';
+  settings: PortSettings;
+  /** Receiver load in RS-485 unit loads (default 1; 1/8-load receivers count 0.125). */
+  unitLoads?: number;
+  /** Physically at one end of the cable. */
+  isEnd?: boolean;
+}
+
+export interface Link {
+  kind: 'point-to-point' | 'rs485-bus';
+  cableLengthM?: number;
+}
+
+export const LINK_CODES = [
+  'baud-mismatch', 'data-bits-mismatch', 'parity-mismatch', 'stop-bits-mismatch', 'handshake-mismatch', 'protocol-mismatch',
+  'interface-mismatch', 'address-missing', 'address-duplicate', 'address-out-of-range', 'no-direction-control',
+  'termination-missing', 'termination-in-middle', 'termination-count', 'bias-missing', 'too-many-unit-loads',
+  'cable-too-long', 'multiple-masters', 'no-master', 'too-many-members',
+] as const;
+export type LinkCode = (typeof LINK_CODES)[number];
+
+export interface LinkFinding {
+  severity: Severity;
+  code: LinkCode;
+  /** The member whose setting should change; absent for findings about the whole link. */
+  memberId?: string;
+  message: string;
+}
+
+export interface LinkReport {
+  state: 'ok' | 'warning' | 'error';
+  findings: LinkFinding[];
+}
+
+/** TIA-485-A: one driver drives at most 32 unit loads. */
+export const MAX_UNIT_LOADS = 32;
+/** Rule of thumb for RS-485 cable: length (m) × bit rate (bit/s) ≤ 10^8. */
+export const LENGTH_RATE_LIMIT = 1e8;
+
+type Family = 'rs232' | 'ttl' | 'diff-4w' | 'diff-2w';
+function family(i: PortInterface): Family | undefined {
+  if (i === 'rs232' || i === 'ttl') return i;
+  if (i === 'rs422' || i === 'rs485-4w') return 'diff-4w';
+  if (i === 'rs485-2w') return 'diff-2w';
+  return undefined; // a USB or TCP port: the line side is the converter's, not known here
+}
+const FAMILY_TEXT: Record<Family, string> = { rs232: 'RS-232', ttl: 'TTL serial', 'diff-4w': 'RS-422 / 4-wire RS-485', 'diff-2w': '2-wire RS-485' };
+
+export function checkLink(members: readonly LinkMember[], link: Link): LinkReport {
+  const findings: LinkFinding[] = [];
+  const add = (severity: Severity, code: LinkCode, message: string, memberId?: string) =>
+    findings.push(memberId === undefined ? { severity, code, message } : { severity, code, memberId, message });
+  const bus = link.kind === 'rs485-bus';
+  const masters = members.filter((m) => m.role === 'master');
+  if (bus && masters.length > 1) for (const m of masters.slice(1)) add('error', 'multiple-masters', `${m.label} is a second master; a serial bus has one master. Make it a slave or move it to its own line.`, m.id);
+  if (bus && masters.length === 0 && members.length > 0) add('warning', 'no-master', 'No member is the master; mark the device that sends the requests as master.');
+  if (!bus && members.length > 2) add('error', 'too-many-members', `A point-to-point link joins two devices, not ${members.length}; use an RS-485 bus or separate ports.`);
+
+  const ref = masters[0] ?? members[0];
+  if (ref) {
+    const r = ref.settings;
+    for (const m of members) {
+      if (m === ref) continue;
+      const s = m.settings;
+      const fix = (what: string, want: string | number) => `${m.label}: set ${what} to ${want} to match ${ref.label} (${portShorthand(r)}).`;
+      if (s.baud !== r.baud) add('error', 'baud-mismatch', fix('the baud rate', r.baud), m.id);
+      if (s.dataBits !== r.dataBits) add('error', 'data-bits-mismatch', fix('data bits', r.dataBits), m.id);
+      if (s.parity !== r.parity) add('error', 'parity-mismatch', fix('parity', r.parity), m.id);
+      if (s.stopBits !== r.stopBits) add('error', 'stop-bits-mismatch', fix('stop bits', r.stopBits), m.id);
+      if (s.handshake !== r.handshake) add('error', 'handshake-mismatch', fix('handshaking', r.handshake), m.id);
+      if (s.protocol !== r.protocol) add('error', 'protocol-mismatch', fix('the protocol', r.protocol), m.id);
+      const a = family(r.interface);
+      const b = family(s.interface);
+      if (!bus && a && b && a !== b) {
+        add('error', 'interface-mismatch', `${m.label} is ${FAMILY_TEXT[b]} but ${ref.label} is ${FAMILY_TEXT[a]}; put a ${FAMILY_TEXT[a]} to ${FAMILY_TEXT[b]} converter between them.`, m.id);
+      }
+    }
+  }
+
+  if (bus) {
+    const busFamily = members.map((m) => family(m.settings.interface)).find((f) => f === 'diff-2w' || f === 'diff-4w') ?? 'diff-2w';
+    for (const m of members) {
+      const f = family(m.settings.interface);
+      if (f && f !== busFamily) {
+        add('error', 'interface-mismatch', `${m.label} is ${FAMILY_TEXT[f]} but the bus is ${FAMILY_TEXT[busFamily]}; connect it through a ${FAMILY_TEXT[f]} to ${FAMILY_TEXT[busFamily]} converter.`, m.id);
+      }
+    }
+  }
+
+  const seen = new Map<number, LinkMember>();
+  for (const m of members) {
+    if (m.role === 'master') continue;
+    const addr = m.settings.nodeAddress;
+    const modbus = m.settings.protocol === 'modbus-rtu' || m.settings.protocol === 'modbus-ascii';
+    if (addr === null) {
+      if (bus || modbus) add('warning', 'address-missing', `${m.label} has no node address; give every device on the bus its own address.`, m.id);
+      continue;
+    }
+    const first = seen.get(addr);
+    if (first) add('error', 'address-duplicate', `${m.label} has address ${addr}, the same as ${first.label}; give it an unused address.`, m.id);
+    else seen.set(addr, m);
+    if (modbus) {
+      if (addr === 0) add('error', 'address-out-of-range', `${m.label} has address 0, the Modbus broadcast address; set an address from 1 to 247.`, m.id);
+      else if (addr > 247) add('error', 'address-out-of-range', `${m.label} has address ${addr}; Modbus device addresses are 1 to 247 (248-255 are reserved). Set one in that range.`, m.id);
+    }
+  }
+
+  for (const m of members) {
+    if (m.settings.interface === 'rs485-2w' && m.settings.rs485Direction === 'none') {
+      add('error', 'no-direction-control', `${m.label} is on 2-wire RS-485 with no direction control; set RS-485 direction to automatic or RTS so its transmitter turns off after sending.`, m.id);
+    }
+  }
+
+  if (bus) {
+    const terminated = members.filter((m) => m.settings.termination);
+    if (members.some((m) => m.isEnd !== undefined)) {
+      for (const m of members) {
+        if (m.isEnd && !m.settings.termination) add('warning', 'termination-missing', `${m.label} is at a cable end; switch its termination on (typically 120 Ω).`, m.id);
+        if (!m.isEnd && m.settings.termination) add('warning', 'termination-in-middle', `${m.label} is not at a cable end; switch its termination off. Only the two ends are terminated.`, m.id);
+      }
+    } else if (terminated.length > 2) {
+      add('error', 'termination-count', `${terminated.length} devices have termination on; only the two devices at the cable ends should. Switch it off on the others.`);
+    } else if (terminated.length < 2 && members.length >= 2) {
+      add('warning', 'termination-count', `${terminated.length} of the two cable ends are terminated; switch termination on at the device at each end of the cable.`);
+    }
+    if (members.length >= 2 && !members.some((m) => m.settings.bias)) {
+      add('warning', 'bias-missing', 'No device biases the bus; switch bias on at one device (usually the master) so the idle line reads as a defined level.');
+    }
+    const loads = members.reduce((sum, m) => sum + (m.unitLoads ?? 1), 0);
+    if (loads > MAX_UNIT_LOADS) {
+      add('error', 'too-many-unit-loads', `The bus carries ${loads} unit loads; one driver handles ${MAX_UNIT_LOADS}. Use fractional-load devices or add a repeater.`);
+    }
+  }
+
+  if (link.cableLengthM !== undefined && ref) {
+    const product = link.cableLengthM * ref.settings.baud;
+    if (product > LENGTH_RATE_LIMIT) {
+      const maxM = Math.floor(LENGTH_RATE_LIMIT / ref.settings.baud);
+      add('warning', 'cable-too-long', `${link.cableLengthM} m at ${ref.settings.baud} bit/s is beyond the usual limit (length × rate ≤ 10^8); keep the cable under about ${maxM} m or lower the baud rate.`);
+    }
+  }
+  return { state: overallState(findings), findings };
+}

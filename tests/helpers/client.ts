@@ -1,0 +1,119 @@
+/** HTTP client for integration tests: keeps the session cookie and sends Origin + JSON like a browser. */
+import { inject } from 'vitest';
+import { createClient } from '@libsql/client';
+import type { Role } from '../../src/lib/permissions';
+
+let ipCounter = 10;
+let userCounter = 0;
+
+export const PASSWORD = 'correct-horse-battery';
+
+export interface Reply<T = any> {
+  status: number;
+  body: T;
+  headers: Headers;
+}
+
+export class TestClient {
+  cookies = new Map<string, string>();
+  /** Each client looks like its own address, so sign-in rate limits do not collide across tests. */
+  readonly ip = `10.0.${Math.floor(ipCounter / 250)}.${(ipCounter++ % 250) + 1}`;
+  user: { id: string; email: string; name: string } | null = null;
+
+  constructor(readonly baseUrl: string = inject('baseUrl')) {}
+
+  async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
+    const res = await fetch(this.baseUrl + path, {
+      method,
+      redirect: 'manual',
+      headers: {
+        origin: this.baseUrl,
+        'x-forwarded-for': this.ip,
+        ...(body === undefined ? {} : { 'content-type': 'application/json' }),
+        ...(this.cookies.size ? { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } : {}),
+        ...headers,
+      },
+      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+    });
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const i = pair!.indexOf('=');
+      const name = pair!.slice(0, i);
+      const value = pair!.slice(i + 1);
+      if (/max-age=0/i.test(line) || value === '') this.cookies.delete(name);
+      else this.cookies.set(name, value);
+    }
+    const text = await res.text();
+    let parsed: any = text;
+    try {
+      parsed = text ? JSON.parse(text) : null;
+    } catch {
+      // not JSON (e.g. an HTML page)
+    }
+    return { status: res.status, body: parsed, headers: res.headers };
+  }
+
+  get = <T = any>(path: string) => this.request<T>('GET', path);
+  post = <T = any>(path: string, body: unknown = {}) => this.request<T>('POST', path, body);
+  patch = <T = any>(path: string, body: unknown) => this.request<T>('PATCH', path, body);
+  put = <T = any>(path: string, body: unknown) => this.request<T>('PUT', path, body);
+  del = <T = any>(path: string, body?: unknown) => this.request<T>('DELETE', path, body);
+
+  async signUp(label = 'user'): Promise<this> {
+    const email = `${label}-${Date.now().toString(36)}-${userCounter++}@example.test`;
+    const name = `${label} ${userCounter}`;
+    const res = await this.post('/api/auth/sign-up/email', { email, name, password: PASSWORD });
+    if (res.status !== 200) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+    this.user = { id: res.body.user.id, email, name };
+    return this;
+  }
+}
+
+export function testDb() {
+  return createClient({ url: inject('databaseUrl') });
+}
+
+/** The newest outbox message sent to `to`, and the first link in it. */
+export async function lastMailTo(to: string): Promise<{ subject: string; text: string; link: string | null }> {
+  const db = testDb();
+  try {
+    const rs = await db.execute({ sql: 'SELECT subject, text FROM outbox_message WHERE "to" = ? ORDER BY created_at DESC LIMIT 1', args: [to] });
+    const row = rs.rows[0];
+    if (!row) throw new Error(`no mail to ${to}`);
+    const text = String(row.text);
+    return { subject: String(row.subject), text, link: text.match(/https?:\/\/\S+/)?.[0] ?? null };
+  } finally {
+    db.close();
+  }
+}
+
+export interface TeamFixture {
+  teamId: string;
+  teamName: string;
+  members: Record<Role, TestClient>;
+}
+
+/** A team with one signed-in member per role, joined through real invitations. */
+export async function createTeamWithRoles(label = 'team'): Promise<TeamFixture> {
+  const owner = await new TestClient().signUp(`${label}-owner`);
+  const teamName = `${label} ${Date.now().toString(36)}`;
+  const created = await owner.post('/api/teams', { name: teamName });
+  if (created.status !== 201) throw new Error(`team create failed: ${created.status} ${JSON.stringify(created.body)}`);
+  const members = { owner } as Record<Role, TestClient>;
+  for (const role of ['admin', 'engineer', 'technician', 'viewer'] as const) {
+    members[role] = await joinTeam(owner, role, `${label}-${role}`);
+  }
+  return { teamId: created.body.id, teamName, members };
+}
+
+/** Invites a fresh user with `role` and accepts the invitation from the e-mailed link. */
+export async function joinTeam(inviter: TestClient, role: Role, label: string): Promise<TestClient> {
+  const member = await new TestClient().signUp(label);
+  const inv = await inviter.post('/api/invitations', { email: member.user!.email, role });
+  if (inv.status !== 201) throw new Error(`invite failed: ${inv.status} ${JSON.stringify(inv.body)}`);
+  const mail = await lastMailTo(member.user!.email);
+  const token = new URL(mail.link!).searchParams.get('token');
+  const accepted = await member.post('/api/invitations/accept', { token });
+  if (accepted.status !== 200) throw new Error(`accept failed: ${accepted.status} ${JSON.stringify(accepted.body)}`);
+  return member;
+}

@@ -1,0 +1,78 @@
+/** Starts the built server (dist/) on a free port with a fresh database, for integration and browser tests. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export interface RunningServer {
+  baseUrl: string;
+  databaseUrl: string;
+  dir: string;
+  stop(): Promise<void>;
+}
+
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address();
+      const port = typeof address === 'object' && address ? address.port : 0;
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+export async function startServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
+  if (!existsSync('dist/server/entry.mjs')) {
+    throw new Error('dist/server/entry.mjs is missing: run `npm run build` first (npm test does this).');
+  }
+  const dir = mkdtempSync(join(tmpdir(), 'baudbook-test-'));
+  const port = await freePort();
+  const databaseUrl = `file:${join(dir, 'test.db')}`;
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const child: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
+    env: {
+      ...process.env,
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      BASE_URL: baseUrl,
+      DATABASE_URL: databaseUrl,
+      BETTER_AUTH_SECRET: 'test-secret-not-for-production-0123456789abcdef',
+      TRUST_PROXY: '1',
+      SEED_DEMO: '0',
+      UPLOAD_DIR: join(dir, 'uploads'),
+      ...extraEnv,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let output = '';
+  child.stdout?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => (output += d));
+  const deadline = Date.now() + 20_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`Server exited early:\n${output}`);
+    try {
+      const res = await fetch(`${baseUrl}/api/health`);
+      if (res.ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) {
+      child.kill();
+      throw new Error(`Server did not become ready:\n${output}`);
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    baseUrl,
+    databaseUrl,
+    dir,
+    async stop() {
+      child.kill('SIGTERM');
+      await new Promise((r) => setTimeout(r, 200));
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}

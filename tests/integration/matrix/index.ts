@@ -1,0 +1,11 @@
+/** Case lists contributed by each area of the app; add yours here. */
+import type { PublicRoute, RouteCase } from './types';
+
+export const extraCases: RouteCase[] = [];
+
+export const extraPublicRoutes: PublicRoute[] = [
+  { method: 'POST', route: '/api/tools/convert', reason: 'public tools API, rate limited' },
+  { method: 'POST', route: '/api/tools/checksum', reason: 'public tools API, rate limited' },
+  { method: 'POST', route: '/api/tools/timing', reason: 'public tools API, rate limited' },
+  { method: 'POST', route: '/api/tools/frame', reason: 'public tools API, rate limited' },
+];
