@@ -1,0 +1,47 @@
+/** Public API of the frame engine: pure functions over Uint8Array, safe in the browser and on the server. */
+export type { ParseError, Result } from './result';
+export { toHex, bytesToLatin1, latin1Bytes } from './bytes';
+
+export {
+  NOTATIONS, type Notation, type RenderedNotations, parseNotation, renderNotation, renderAllNotations,
+  parseEscaped, renderEscaped, parseIec, renderIec, renderIecLiteral, parseMnemonic, renderMnemonic,
+  parseHex, renderHex, parseDecimal, renderDecimal,
+} from './notations';
+export { CONTROL_NAMES } from './notations/mnemonic';
+export { type RegisterWords, type WordByteOrder, packRegisterWords, unpackRegisterWords, parseRegisterWords } from './notations/register-words';
+
+export {
+  type ChecksumAlgorithm, type ChecksumKind, type ChecksumValue, type ChecksumEncoding, type ChecksumPlacement, type ByteOrder,
+  type CrcModel, type CrcParams, CHECKSUM_ALGORITHMS, CRC_MODELS, createCrc, findChecksumAlgorithm, listChecksumAlgorithms,
+  computeChecksum, formatChecksumValue, checksumLength, placeChecksum, nmeaChecksum, lrc8, xor8, sum8,
+} from './checksum';
+
+export {
+  TEMPLATE_VERSION, templateSchema, segmentSchema, scaleSchema, literalSegmentSchema, terminatorSegmentSchema,
+  integerFieldSchema, decimalFieldSchema, textFieldSchema, choiceFieldSchema, checksumSegmentSchema,
+  type Template, type TemplateInput, type Segment, type SegmentType, type FieldSegment, type IntegerField, type DecimalField,
+  type TextField, type ChoiceField, type ChecksumSegment, type Scale, type FieldValues,
+  isField, loadTemplate, serializeTemplate, moveSegment,
+} from './template';
+export { hexBytesSchema } from './schema-common';
+export { roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
+
+export { type AssembledFrame, type SegmentSpan, assembleFrame } from './assemble';
+export { checkFrame } from './check-frame';
+export { type FramePreview, previewFrame } from './preview';
+export { FINDING_CODES, type Finding, type FindingCode, type Severity, isClean, overallState } from './findings';
+export { BYTE_SETS, type ByteSet, frameRulesSchema, type FrameRules, type FrameRulesInput, defaultFrameRules } from './frame-rules';
+
+export {
+  INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, STANDARD_BAUD_RATES, type PortInterface, type Parity, type StopBits,
+  lineSettingsSchema, type LineSettings, portSettingsSchema, type PortSettings, type PortSettingsInput,
+  defaultPortSettings, portShorthand, portSettingsText,
+} from './port-settings';
+
+export {
+  MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, pollCycle, bitSequence,
+  type LineTiming, type PolledDevice, type BitCell, type BitKind,
+} from './timing';
+
+export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';
+export { type DecodedReply, type DecodedField, type ChecksumVerdict, decodeReply } from './decode-reply';
