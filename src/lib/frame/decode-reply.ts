@@ -127,15 +127,13 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
       else if (s.type === 'choice') {
         const match = [...s.options].sort((x, y) => y.send.length - x.send.length).find((o) => bytesToLatin1(bytes.subarray(pos, pos + o.send.length)) === o.send);
         end = pos + (match ? match.send.length : 0);
-      } else if (tail !== undefined) end = Math.max(pos, bytes.length - tail);
-      else if (next && (next.type === 'literal' || next.type === 'terminator')) {
+      } else if (next && (next.type === 'literal' || next.type === 'terminator')) {
         const at = indexOfBytes(bytes, segmentBytes(next), pos);
         end = at < 0 ? bytes.length : at;
-      } else if (s.type === 'text') end = bytes.length;
-      else {
+      } else if (s.type !== 'text') {
         end = pos;
         while (end < bytes.length && NUMERIC_CHAR.test(String.fromCharCode(bytes[end]!))) end++;
-      }
+      } else end = tail !== undefined ? Math.max(pos, bytes.length - tail) : bytes.length;
       if (end > bytes.length) {
         tooShort(s);
         end = bytes.length;
