@@ -1,0 +1,117 @@
+import { describe, expect, test } from 'vitest';
+import { POST as checksum } from '~/pages/api/tools/checksum';
+import { POST as convert } from '~/pages/api/tools/convert';
+import { POST as frame } from '~/pages/api/tools/frame';
+import { POST as timing } from '~/pages/api/tools/timing';
+
+type Handler = typeof convert;
+async function call(handler: Handler, body: unknown, init: { contentType?: string; raw?: string } = {}) {
+  const request = new Request('http://localhost/api/tools/x', {
+    method: 'POST',
+    headers: { 'content-type': init.contentType ?? 'application/json' },
+    body: init.raw ?? JSON.stringify(body),
+  });
+  const res = await handler({ request } as any);
+  return { status: res.status, body: (await res.json()) as any };
+}
+
+describe('POST /api/tools/convert', () => {
+  test('200 with bytes and every notation', async () => {
+    // common practice: CR LF line end; IEC 61131-3 Annex B $hh escapes for the PLC string
+    const r = await call(convert, { from: 'escaped', text: 'GO\\r\\n' });
+    expect(r).toEqual({
+      status: 200,
+      body: { bytes: '47 4F 0D 0A', byteCount: 4, notations: { escaped: 'GO\\r\\n', iec: 'GO$0D$0A', iecLiteral: "'GO$0D$0A'", mnemonic: 'GO<CR><LF>', hex: '47 4F 0D 0A', decimal: '71 79 13 10' } },
+    });
+  });
+  test('0x00 0x7F 0x80 0xFF from decimal, and empty text', async () => {
+    expect((await call(convert, { from: 'decimal', text: '0 127 128 255' })).body).toMatchObject({ bytes: '00 7F 80 FF', byteCount: 4 });
+    expect((await call(convert, { from: 'hex', text: '' })).body).toMatchObject({ bytes: '', byteCount: 0 });
+  });
+  test('422 with position for malformed text', async () => {
+    expect(await call(convert, { from: 'escaped', text: 'ABC\\x4G' })).toEqual({ status: 422, body: { error: '\\x needs two hex digits', position: 3 } });
+  });
+  test('422 for an unknown notation, 400 for bad JSON, 415 for other content types', async () => {
+    const bad = await call(convert, { from: 'octal', text: '1' });
+    expect(bad.status).toBe(422);
+    expect(bad.body.fields).toHaveProperty('from');
+    expect((await call(convert, null, { raw: '{nope' })).status).toBe(400);
+    expect((await call(convert, null, { raw: 'x', contentType: 'text/plain' })).status).toBe(415);
+  });
+  test('413 above 64 KiB', async () => {
+    expect((await call(convert, { from: 'hex', text: 'A'.repeat(70 * 1024) })).status).toBe(413);
+  });
+});
+
+describe('POST /api/tools/checksum', () => {
+  test('CRC-16/MODBUS check value by alias, with wire orders', async () => {
+    // CRC RevEng catalogue: CRC-16/MODBUS check 0x4B37 over "123456789"
+    expect(await call(checksum, { algorithm: 'modbus', bytes: '31 32 33 34 35 36 37 38 39' })).toEqual({
+      status: 200,
+      body: { algorithm: 'CRC-16/MODBUS', value: '0x4B37', width: 16, highByteFirst: '4B 37', lowByteFirst: '37 4B' },
+    });
+  });
+  test('CRC-16/CCITT resolves to KERMIT; CRC-32; LRC', async () => {
+    // CRC RevEng catalogue: CRC-16/CCITT is an alias of CRC-16/KERMIT (check 0x2189); CRC-32 check 0xCBF43926
+    expect((await call(checksum, { algorithm: 'CRC-16/CCITT', bytes: '313233343536373839' })).body).toMatchObject({ algorithm: 'CRC-16/KERMIT', value: '0x2189' });
+    expect((await call(checksum, { algorithm: 'crc-32', bytes: '0x31,0x32,0x33,0x34,0x35,0x36,0x37,0x38,0x39' })).body).toMatchObject({ value: '0xCBF43926', width: 32 });
+    // Modbus guide V1.02, 6.2.1: LRC = two's complement of the 8-bit sum; 01 03 00 9B sums to 0x9F
+    expect((await call(checksum, { algorithm: 'LRC', bytes: '01 03 00 9B' })).body).toMatchObject({ algorithm: 'LRC', value: '0x61', width: 8 });
+  });
+  test('422 for malformed hex (with position) and unknown algorithm', async () => {
+    expect(await call(checksum, { algorithm: 'XOR-8', bytes: '01 0Z' })).toMatchObject({ status: 422, body: { position: 4 } });
+    const unknown = await call(checksum, { algorithm: 'CRC-7/NOPE', bytes: '01' });
+    expect(unknown.status).toBe(422);
+    expect(unknown.body.algorithms).toContain('CRC-16/KERMIT');
+  });
+});
+
+describe('POST /api/tools/timing', () => {
+  test('9600 8-N-1, 10 bytes', async () => {
+    // published UART timing example: 9600 baud, 10-bit chars → 1.04167 ms per char, 1.5 chars = 1.5625 ms
+    const r = await call(timing, { baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, byteCount: 10 });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ port: '9600 8-N-1', bitsPerChar: 10, charTimeMs: 1.041667, frameTimeMs: 10.416667, interCharTimeoutMs: 1.5625, interFrameGapMs: 3.645833 });
+  });
+  test('fixed intervals above 19200', async () => {
+    // Modbus over Serial Line guide V1.02, 2.5.1.1: 750 µs and 1.750 ms above 19200 bit/s
+    expect((await call(timing, { baud: 38400, dataBits: 8, parity: 'even', stopBits: 1, byteCount: 8 })).body).toMatchObject({ bitsPerChar: 11, interCharTimeoutMs: 0.75, interFrameGapMs: 1.75 });
+  });
+  test('422 for invalid settings', async () => {
+    const r = await call(timing, { baud: 9600, dataBits: 9, parity: 'none', stopBits: 1, byteCount: 1 });
+    expect(r.status).toBe(422);
+    expect(r.body.fields).toHaveProperty('dataBits');
+    expect((await call(timing, { baud: 9600, dataBits: 8, parity: 'none', stopBits: 3, byteCount: 1 })).status).toBe(422);
+  });
+});
+
+describe('POST /api/tools/frame', () => {
+  const template = {
+    version: 1,
+    segments: [
+      { type: 'literal', id: 'cmd', bytes: '54 55 52 4E 20' }, // "TURN " (invented syntax)
+      { type: 'integer', id: 'a', name: 'angle', label: 'Angle', unit: '°', scale: { factor: 100 }, sign: 'always' },
+      { type: 'terminator', id: 'end', bytes: '0D' },
+    ],
+  };
+  test('200: bytes, notations, segments, findings', async () => {
+    // common practice: 36,000 steps/rev → 45° = 4,500 steps; CR terminator written $0D in a PLC string
+    const r = await call(frame, { template, values: { angle: 45 } });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ ok: true, bytes: '54 55 52 4E 20 2B 34 35 30 30 0D', byteCount: 11, findings: [] });
+    expect(r.body.notations.iecLiteral).toBe("'TURN +4500$0D'");
+    expect(r.body.segments[1]).toEqual({ index: 1, id: 'a', type: 'integer', start: 5, end: 10, name: 'angle', value: 45, raw: 4500 });
+  });
+  test('findings from the port settings and frame rules', async () => {
+    const r = await call(frame, { template, values: {}, settings: { dataBits: 7, frameRules: { terminator: '0A' } } });
+    expect(r.status).toBe(200);
+    expect(r.body.ok).toBe(false);
+    expect(r.body.findings.map((f: { code: string }) => f.code)).toEqual(['field-missing', 'missing-terminator']);
+  });
+  test('422 for an invalid template', async () => {
+    const r = await call(frame, { template: { version: 1, segments: [{ type: 'literal', id: 'x', bytes: '0G' }] }, values: {} });
+    expect(r.status).toBe(422);
+    expect(r.body.error).toContain('segments.0.bytes');
+    expect((await call(frame, { template: { version: 7, segments: [] } })).status).toBe(422);
+  });
+});
