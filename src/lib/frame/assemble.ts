@@ -32,6 +32,8 @@ export interface AssembledFrame {
 }
 
 const literalCache = new WeakMap<object, Uint8Array>();
+// Reused across calls (assembly is synchronous); the result is copied out with toBytes().
+const scratch = new ByteWriter(512);
 
 /** Bytes of a literal or terminator segment, decoded once per segment object. */
 export function segmentBytes(segment: { bytes: string }): Uint8Array {
@@ -56,7 +58,8 @@ export function checksumRange(segment: ChecksumSegment, spans: readonly SegmentS
  * nothing sent for a field that has no usable value) so a preview can show it.
  */
 export function assembleFrame(template: Template, values: FieldValues = {}): AssembledFrame {
-  const out = new ByteWriter(128);
+  const out = scratch;
+  out.reset();
   const segments: SegmentSpan[] = [];
   const findings: Finding[] = [];
   const list: readonly Segment[] = template.segments;

@@ -21,29 +21,65 @@ export function isPrintable(byte: number): boolean {
   return byte >= 0x20 && byte <= 0x7e;
 }
 
-/** Joins one string per byte using a 256-entry table, in chunks to keep memory flat on MiB inputs. */
-export function renderWithTable(bytes: Uint8Array, table: readonly string[], separator = ''): string {
-  const chunk = 8192;
-  if (bytes.length <= chunk) {
-    const parts = new Array<string>(bytes.length);
-    for (let i = 0; i < bytes.length; i++) parts[i] = table[bytes[i]!]!;
-    return parts.join(separator);
+/** A 256-entry table of ASCII strings (one per byte value), pre-encoded for `renderWithTable`. */
+export interface RenderTable {
+  strings: readonly string[];
+  /** Character codes, STRIDE per byte value. */
+  codes: Uint8Array;
+  lengths: Uint8Array;
+  maxLength: number;
+}
+
+const STRIDE = 8;
+
+export function createRenderTable(strings: readonly string[]): RenderTable {
+  const codes = new Uint8Array(256 * STRIDE);
+  const lengths = new Uint8Array(256);
+  let maxLength = 0;
+  for (let b = 0; b < 256; b++) {
+    const t = strings[b]!;
+    lengths[b] = t.length;
+    maxLength = Math.max(maxLength, t.length);
+    for (let j = 0; j < t.length; j++) codes[b * STRIDE + j] = t.charCodeAt(j);
   }
-  const pieces: string[] = [];
-  const parts = new Array<string>(chunk);
-  for (let at = 0; at < bytes.length; at += chunk) {
-    const n = Math.min(chunk, bytes.length - at);
-    if (n < chunk) parts.length = n;
-    for (let i = 0; i < n; i++) parts[i] = table[bytes[at + i]!]!;
-    pieces.push(parts.join(separator));
+  return { strings, codes, lengths, maxLength };
+}
+
+/** Uppercase hex pairs as a render table. */
+export const HEX_TABLE = createRenderTable(HEX_PAIR);
+
+const decoder = new TextDecoder();
+let scratch = new Uint8Array(4096);
+
+/**
+ * Joins the table string of each byte, with an optional one-character separator. The characters go
+ * into one reused byte buffer that is decoded once: no per-byte string concatenation.
+ */
+export function renderWithTable(bytes: Uint8Array, table: RenderTable, separator = ''): string {
+  const n = bytes.length;
+  if (n === 0) return '';
+  const sep = separator.length ? separator.charCodeAt(0) : -1;
+  const need = n * (table.maxLength + 1);
+  if (scratch.length < need) scratch = new Uint8Array(Math.max(need, scratch.length * 2));
+  const out = scratch;
+  const { codes, lengths } = table;
+  let at = 0;
+  for (let i = 0; i < n; i++) {
+    if (sep >= 0 && i > 0) out[at++] = sep;
+    const b = bytes[i]!;
+    const len = lengths[b]!;
+    const o = b * STRIDE;
+    out[at++] = codes[o]!;
+    for (let j = 1; j < len; j++) out[at++] = codes[o + j]!;
   }
-  return pieces.join(separator);
+  return decoder.decode(out.subarray(0, at));
 }
 
 /** Uppercase hex, one pair per byte, space-separated: `0D 0A`. */
 export function toHex(bytes: Uint8Array, separator = ' '): string {
-  return renderWithTable(bytes, HEX_PAIR, separator);
+  return renderWithTable(bytes, HEX_TABLE, separator);
 }
+
 
 /** Byte values of a string whose characters are all 0x00-0xFF (Latin-1); -1 marks the first wider character. */
 export function latin1Bytes(text: string): Uint8Array | number {
@@ -58,11 +94,16 @@ export function latin1Bytes(text: string): Uint8Array | number {
 
 /** The characters for bytes 0x00-0xFF (Latin-1), chunked so large arrays do not overflow the call stack. */
 export function bytesToLatin1(bytes: Uint8Array): string {
-  let out = '';
-  for (let at = 0; at < bytes.length; at += 8192) {
-    out += String.fromCharCode.apply(null, bytes.subarray(at, at + 8192) as unknown as number[]);
+  return codesToString(bytes);
+}
+
+function codesToString(codes: Uint8Array): string {
+  if (codes.length <= 8192) return String.fromCharCode.apply(null, codes as unknown as number[]);
+  const parts: string[] = [];
+  for (let at = 0; at < codes.length; at += 8192) {
+    parts.push(String.fromCharCode.apply(null, codes.subarray(at, at + 8192) as unknown as number[]));
   }
-  return out;
+  return parts.join('');
 }
 
 /** Index of `needle` in `hay` at or after `from`, limited to before `end`; -1 if absent. */
@@ -91,6 +132,10 @@ export class ByteWriter {
   length = 0;
   constructor(capacity = 64) {
     this.buf = new Uint8Array(capacity);
+  }
+  /** Empties the buffer, keeping its memory for the next frame. */
+  reset(): void {
+    this.length = 0;
   }
   private reserve(n: number): void {
     if (this.length + n <= this.buf.length) return;

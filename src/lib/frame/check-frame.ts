@@ -11,6 +11,7 @@ const MAX_PER_CODE = 8;
 const FORBIDDEN = 1;
 const OUTSIDE_SET = 2;
 const WRONG_CASE = 4;
+const FLAGS = [FORBIDDEN, OUTSIDE_SET, WRONG_CASE] as const;
 
 interface Compiled {
   table: Uint8Array;
@@ -49,11 +50,12 @@ export function checkFrame(
   port?: { dataBits: number },
 ): Finding[] {
   const findings: Finding[] = [];
-  const counts = new Map<FindingCode, number>();
+  let counts: Partial<Record<FindingCode, number>> | undefined;
   const add = (severity: Severity, code: FindingCode, message: string, range?: [number, number]) => {
-    const n = counts.get(code) ?? 0;
+    counts ??= {};
+    const n = counts[code] ?? 0;
     if (n >= MAX_PER_CODE) return;
-    counts.set(code, n + 1);
+    counts[code] = n + 1;
     findings.push(range ? { severity, code, message, range } : { severity, code, message });
   };
   const len = bytes.length;
@@ -88,7 +90,10 @@ export function checkFrame(
   }
 
   const table = c.table;
-  for (const flag of [FORBIDDEN, OUTSIDE_SET, WRONG_CASE]) {
+  let any = 0;
+  for (let i = payloadStart; i < payloadEnd; i++) any |= table[bytes[i]!]!;
+  for (const flag of FLAGS) {
+    if ((any & flag) === 0) continue;
     let run = -1;
     for (let i = payloadStart; i <= payloadEnd; i++) {
       const hit = i < payloadEnd && (table[bytes[i]!]! & flag) !== 0;

@@ -1,5 +1,5 @@
 /** Turns one field value into the characters sent, with findings about the value. */
-import { formatNumber, roundDecimals, roundHalfAway, scaleToRaw } from './field-format';
+import { differs, formatNumber, roundDecimals, roundHalfAway, scaleToRaw } from './field-format';
 import type { Finding } from './findings';
 import type { ChoiceField, DecimalField, FieldSegment, FieldValues, IntegerField, TextField } from './template';
 
@@ -52,7 +52,7 @@ function encodeNumber(field: IntegerField | DecimalField, input: string | number
     }
   } else {
     raw = roundDecimals(exact, field.decimals);
-    if (raw !== exact) {
+    if (differs(raw, exact)) {
       findings.push({ severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${exact} has more than ${field.decimals} decimals; ${raw} will be sent.` });
     }
   }

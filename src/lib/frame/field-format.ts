@@ -6,30 +6,54 @@ export function roundHalfAway(x: number): number {
   return x < 0 ? -Math.round(-x) : Math.round(x);
 }
 
-/** Unrounded raw value: value × factor + offset. */
+/** Within this relative distance two numbers are the same value; absorbs binary noise such as 4499.999999999999. */
+const EPSILON = 1e-9;
+
+/** True when a and b differ by more than binary noise. */
+export function differs(a: number, b: number): boolean {
+  return Math.abs(a - b) > EPSILON * Math.max(1, Math.abs(a), Math.abs(b));
+}
+
+/** x, or the nearest whole number when x is that number plus binary noise. */
+function snap(x: number): number {
+  const r = Math.round(x);
+  return differs(x, r) ? x : r;
+}
+
+/** Unrounded raw value: value × factor + offset (snapped to a whole number within binary noise). */
 export function scaleToRaw(value: number, scale: Scale | undefined): number {
   if (!scale) return value;
-  // toPrecision(15) drops binary noise such as 45 × (36000/360) = 4499.999999999999.
-  return Number((value * scale.factor + scale.offset).toPrecision(15));
+  return snap(value * scale.factor + scale.offset);
 }
 
 /** Engineering value of a raw value: (raw − offset) ÷ factor. */
 export function rawToEngineering(raw: number, scale: Scale | undefined): number {
   if (!scale) return raw;
-  return Number(((raw - scale.offset) / scale.factor).toPrecision(15));
+  return snap((raw - scale.offset) / scale.factor);
 }
 
 /** Rounds to `decimals` places, half away from zero, without binary surprises (1.005 → 1.01). */
 export function roundDecimals(x: number, decimals: number): number {
   const f = 10 ** decimals;
-  return roundHalfAway(Number((x * f).toPrecision(15))) / f;
+  const y = x * f;
+  // nudge by binary noise so 1.005 × 100 = 100.49999999999999 rounds like 100.5
+  return roundHalfAway(y + Math.sign(y) * EPSILON * Math.abs(y)) / f;
+}
+
+/** Non-negative x with exactly `decimals` decimals; integer arithmetic where it is exact, toFixed beyond. */
+function fixedDigits(x: number, decimals: number): string {
+  if (decimals === 0 && Number.isSafeInteger(x)) return String(x);
+  const scaled = Math.round(x * 10 ** decimals);
+  if (!Number.isSafeInteger(scaled)) return x.toFixed(decimals);
+  const s = String(scaled).padStart(decimals + 1, '0');
+  return decimals === 0 ? s : s.slice(0, s.length - decimals) + '.' + s.slice(s.length - decimals);
 }
 
 /** Text of a raw number: digits with fixed decimals, sign and padding applied to `width`. */
 export function formatNumber(raw: number, field: IntegerField | DecimalField): string {
   const decimals = field.type === 'decimal' ? field.decimals : 0;
   const negative = raw < 0 && roundDecimals(-raw, decimals) !== 0;
-  const digits = Math.abs(raw).toFixed(decimals);
+  const digits = fixedDigits(Math.abs(raw), decimals);
   const sign = negative ? '-' : field.sign === 'always' ? '+' : '';
   const width = field.width ?? 0;
   const fill = width - sign.length - digits.length;

@@ -30,7 +30,7 @@ for (const a of CHECKSUM_ALGORITHMS) for (const n of [a.name, ...a.aliases]) BY_
 
 /** Case-insensitive lookup over names and aliases; `CRC-16/CCITT` finds CRC-16/KERMIT as the catalogue says. */
 export function findChecksumAlgorithm(name: string): ChecksumAlgorithm | undefined {
-  return BY_NAME.get(name.trim().toUpperCase());
+  return BY_NAME.get(name) ?? BY_NAME.get(name.trim().toUpperCase());
 }
 
 /** Plain data for UI pickers. */
@@ -81,21 +81,27 @@ export function checksumLength(width: number, encoding: ChecksumEncoding): numbe
  */
 export function placeChecksum(value: number, width: number, placement: ChecksumPlacement): Uint8Array {
   const n = width / 8;
-  const ordered: number[] = [];
-  for (let i = n - 1; i >= 0; i--) ordered.push(Math.floor(value / 2 ** (8 * i)) & 0xff);
-  if (placement.byteOrder === 'low-first') ordered.reverse();
-  if (placement.encoding === 'binary') return Uint8Array.from(ordered);
-  let text: string;
+  const ordered = new Uint8Array(n);
+  const low = placement.byteOrder === 'low-first';
+  for (let i = 0; i < n; i++) ordered[low ? i : n - 1 - i] = Math.floor(value / 2 ** (8 * i)) & 0xff;
+  if (placement.encoding === 'binary') return ordered;
   if (placement.encoding === 'ascii-hex') {
-    text = ordered.map((b) => HEX_PAIR[b]!).join('');
-    if (placement.case === 'lower') text = text.toLowerCase();
-  } else {
-    text = String(value).padStart(checksumLength(width, 'ascii-decimal'), '0');
+    const digits = placement.case === 'lower' ? HEX_LOWER : HEX_UPPER;
+    const out = new Uint8Array(2 * n);
+    for (let i = 0; i < n; i++) {
+      out[2 * i] = digits[ordered[i]! >> 4]!;
+      out[2 * i + 1] = digits[ordered[i]! & 15]!;
+    }
+    return out;
   }
+  const text = String(value).padStart(checksumLength(width, 'ascii-decimal'), '0');
   const out = new Uint8Array(text.length);
   for (let i = 0; i < text.length; i++) out[i] = text.charCodeAt(i);
   return out;
 }
+
+const HEX_UPPER = Uint8Array.from('0123456789ABCDEF', (c) => c.charCodeAt(0));
+const HEX_LOWER = Uint8Array.from('0123456789abcdef', (c) => c.charCodeAt(0));
 
 /**
  * NMEA 0183 sentence checksum: XOR of the characters between `$` (or `!`) and `*`, as two uppercase

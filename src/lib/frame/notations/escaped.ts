@@ -14,10 +14,10 @@
  * followed by an octal digit `0`-`7`, which renders as `\000` so neither this parser nor a C compiler
  * merges the digit into the escape. Every other byte renders as `\xHH`, uppercase.
  */
-import { HEX_PAIR, hexValue } from '../bytes';
+import { HEX_PAIR, createRenderTable, hexValue, renderWithTable } from '../bytes';
 import { type Result, failure, success } from '../result';
 
-const RENDER: string[] = Array.from({ length: 256 }, (_, b) => {
+const RENDER = createRenderTable(Array.from({ length: 256 }, (_, b) => {
   if (b === 0x5c) return '\\\\';
   if (b >= 0x20 && b <= 0x7e) return String.fromCharCode(b);
   if (b === 0x0d) return '\\r';
@@ -25,7 +25,7 @@ const RENDER: string[] = Array.from({ length: 256 }, (_, b) => {
   if (b === 0x09) return '\\t';
   if (b === 0x00) return '\\0';
   return '\\x' + HEX_PAIR[b];
-});
+}));
 
 const SIMPLE: Record<string, number> = {
   r: 0x0d, n: 0x0a, t: 0x09, '\\': 0x5c, a: 0x07, b: 0x08, f: 0x0c, v: 0x0b, "'": 0x27, '"': 0x22, '?': 0x3f,
@@ -79,22 +79,17 @@ export function parseEscaped(text: string): Result<Uint8Array> {
 
 /** Escaped notation of bytes; `parseEscaped(renderEscaped(b))` returns b. */
 export function renderEscaped(bytes: Uint8Array): string {
-  const parts: string[] = [];
-  let chunk = '';
-  for (let i = 0; i < bytes.length; i++) {
-    const b = bytes[i]!;
-    if (b === 0) {
-      const next = bytes[i + 1];
-      chunk += next !== undefined && next >= 0x30 && next <= 0x37 ? '\\000' : '\\0';
-    } else {
-      chunk += RENDER[b];
-    }
-    if (chunk.length > 4096) {
-      parts.push(chunk);
-      chunk = '';
-    }
+  // Only NUL before an octal digit needs context; render the runs between such NULs from the table.
+  let parts: string[] | undefined;
+  let from = 0;
+  for (let i = bytes.indexOf(0); i >= 0; i = bytes.indexOf(0, i + 1)) {
+    const next = bytes[i + 1];
+    if (next === undefined || next < 0x30 || next > 0x37) continue;
+    (parts ??= []).push(renderWithTable(bytes.subarray(from, i), RENDER), '\\000');
+    from = i + 1;
   }
-  parts.push(chunk);
+  if (!parts) return renderWithTable(bytes, RENDER);
+  parts.push(renderWithTable(bytes.subarray(from), RENDER));
   return parts.join('');
 }
 

@@ -11,16 +11,16 @@
  * Rendering: printable ASCII as itself, `$` as `$$`, `'` as `$'`, every other byte (CR, LF, controls,
  * 0x7F-0xFF) as `$hh` in uppercase hex, so a carriage return shows as `$0D`. `renderIecLiteral` adds the quotes.
  */
-import { HEX_PAIR, hexValue, renderWithTable } from '../bytes';
+import { HEX_PAIR, createRenderTable, hexValue, renderWithTable } from '../bytes';
 import { type Result, failure, success } from '../result';
 import { notPrintable } from './escaped';
 
-const RENDER: string[] = Array.from({ length: 256 }, (_, b) => {
+const RENDER = createRenderTable(Array.from({ length: 256 }, (_, b) => {
   if (b === 0x24) return '$$';
   if (b === 0x27) return "$'";
   if (b >= 0x20 && b <= 0x7e) return String.fromCharCode(b);
   return '$' + HEX_PAIR[b];
-});
+}));
 
 const NAMED: Record<string, number> = { $: 0x24, "'": 0x27, L: 0x0a, N: 0x0a, P: 0x0c, R: 0x0d, T: 0x09 };
 

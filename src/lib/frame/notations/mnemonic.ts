@@ -9,7 +9,7 @@
  * Rendering: 0x00-0x1F and 0x7F by name, `<` as `<x3C>`, other printable ASCII as itself,
  * 0x80-0xFF as `<xHH>` in uppercase hex.
  */
-import { HEX_PAIR, hexValue, renderWithTable } from '../bytes';
+import { HEX_PAIR, createRenderTable, hexValue, renderWithTable } from '../bytes';
 import { type Result, failure, success } from '../result';
 import { notPrintable } from './escaped';
 
@@ -23,13 +23,13 @@ const BY_NAME = new Map<string, number>(CONTROL_NAMES.map((name, i) => [name, i]
 BY_NAME.set('DEL', 0x7f);
 BY_NAME.set('SP', 0x20);
 
-const RENDER: string[] = Array.from({ length: 256 }, (_, b) => {
+const RENDER = createRenderTable(Array.from({ length: 256 }, (_, b) => {
   if (b < 0x20) return `<${CONTROL_NAMES[b]}>`;
   if (b === 0x7f) return '<DEL>';
   if (b === 0x3c) return '<x3C>';
   if (b < 0x7f) return String.fromCharCode(b);
   return `<x${HEX_PAIR[b]}>`;
-});
+}));
 
 export function parseMnemonic(text: string): Result<Uint8Array> {
   const out = new Uint8Array(text.length);

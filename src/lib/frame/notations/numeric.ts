@@ -10,7 +10,7 @@
  * Decimal input: numbers 0-255 separated by spaces, tabs, line breaks, commas or semicolons.
  * Decimal rendering: numbers separated by one space.
  */
-import { HEX_PAIR, hexValue, renderWithTable } from '../bytes';
+import { HEX_TABLE, createRenderTable, hexValue, renderWithTable } from '../bytes';
 import { type Result, failure, success } from '../result';
 
 function isHexSeparator(c: number): boolean {
@@ -53,10 +53,10 @@ export function parseHex(text: string): Result<Uint8Array> {
 }
 
 export function renderHex(bytes: Uint8Array): string {
-  return renderWithTable(bytes, HEX_PAIR, ' ');
+  return renderWithTable(bytes, HEX_TABLE, ' ');
 }
 
-const DECIMAL: string[] = Array.from({ length: 256 }, (_, b) => String(b));
+const DECIMAL = createRenderTable(Array.from({ length: 256 }, (_, b) => String(b)));
 
 function isDecimalSeparator(c: number): boolean {
   return c === 0x20 || c === 0x09 || c === 0x0a || c === 0x0d || c === 0x2c || c === 0x3b;
