@@ -76,11 +76,11 @@ test('frame engine benchmark', () => {
   rows.push(['(a) 64-byte frame: assemble + CRC-16 + all notations + checks', `${Math.round(fps).toLocaleString('en-US')} frames/s`, '>= 100,000 frames/s', fps >= 100_000]);
 
   const raw = new Uint8Array(1024 * 1024);
-  let seed = 12345;
+  let lcg = 12345;
   for (let i = 0; i < raw.length; i++) {
-    seed = (seed * 1103515245 + 12345) >>> 0;
+    lcg = (lcg * 1103515245 + 12345) >>> 0;
     // mostly printable text with some control and high bytes, like a capture log
-    raw[i] = seed % 10 === 0 ? (seed >>> 8) & 0xff : 0x20 + ((seed >>> 8) % 95);
+    raw[i] = lcg % 10 === 0 ? (lcg >>> 8) & 0xff : 0x20 + ((lcg >>> 8) % 95);
   }
   const text = renderEscaped(raw).slice(0, 1024 * 1024).replace(/\\[^\\]{0,3}$/, '');
   const escapedMs = medianMs(() => {
