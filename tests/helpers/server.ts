@@ -24,15 +24,18 @@ export async function freePort(): Promise<number> {
   });
 }
 
+/** Built server entry; DIST_DIR lets parallel work trees build elsewhere (default dist). */
+const entry = join(process.env.DIST_DIR ?? 'dist', 'server/entry.mjs');
+
 export async function startServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
-  if (!existsSync('dist/server/entry.mjs')) {
-    throw new Error('dist/server/entry.mjs is missing: run `npm run build` first (npm test does this).');
+  if (!existsSync(entry)) {
+    throw new Error(`${entry} is missing: run \`npm run build\` first (npm test does this).`);
   }
   const dir = mkdtempSync(join(tmpdir(), 'baudbook-test-'));
   const port = await freePort();
   const databaseUrl = `file:${join(dir, 'test.db')}`;
   const baseUrl = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
+  const child: ChildProcess = spawn(process.execPath, [entry], {
     env: {
       ...process.env,
       HOST: '127.0.0.1',

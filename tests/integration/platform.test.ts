@@ -14,6 +14,13 @@ describe('security headers and sessions', () => {
     }
   });
 
+  it("allows only the page's own hashed scripts", async () => {
+    const res = await new TestClient().get('/sign-in');
+    const scriptSrc = res.headers.get('content-security-policy')!.split('; ').find((d) => d.startsWith('script-src'))!;
+    expect(scriptSrc).toMatch(/^script-src 'self'( 'sha256-[A-Za-z0-9+/=]+')+$/);
+    expect(scriptSrc).not.toContain('unsafe-inline');
+  });
+
   it('redirects a page to sign-in without a session and answers 401 on the API', async () => {
     const c = new TestClient();
     const page = await c.get('/team');

@@ -6,12 +6,12 @@ import { takeQuota } from '../quota';
 import { json } from '../http';
 
 /**
- * Astro hydrates islands with inline module scripts, so script-src needs 'unsafe-inline';
- * everything else is same-origin only and the app cannot be framed.
+ * Same-origin only, never framed. Pages get script-src from Astro's CSP support, which hashes every
+ * script it emits (islands' hydration included); responses without it get a script-src of 'self'.
+ * Styles allow 'unsafe-inline' because islands set inline style attributes.
  */
-const CSP = [
+const BASE_CSP = [
   "default-src 'self'",
-  "script-src 'self' 'unsafe-inline'",
   "style-src 'self' 'unsafe-inline'",
   "img-src 'self' data: blob:",
   "font-src 'self'",
@@ -20,7 +20,16 @@ const CSP = [
   "base-uri 'self'",
   "form-action 'self'",
   "frame-ancestors 'none'",
-].join('; ');
+];
+
+/** Keeps the script-src Astro computed for the page (its hashes) and sets every other directive ourselves. */
+export function contentSecurityPolicy(fromAstro: string | null): string {
+  const scriptSrc = fromAstro
+    ?.split(';')
+    .map((d) => d.trim())
+    .find((d) => d.startsWith('script-src '));
+  return [...BASE_CSP, scriptSrc ?? "script-src 'self'"].join('; ');
+}
 
 export const securityHeaders: MiddlewareHandler = async (_context, next) => {
   const response = await next();
@@ -29,7 +38,7 @@ export const securityHeaders: MiddlewareHandler = async (_context, next) => {
     headers.set('X-Content-Type-Options', 'nosniff');
     headers.set('Referrer-Policy', 'strict-origin-when-cross-origin');
     headers.set('X-Frame-Options', 'DENY');
-    headers.set('Content-Security-Policy', CSP);
+    headers.set('Content-Security-Policy', contentSecurityPolicy(headers.get('Content-Security-Policy')));
     headers.set('Permissions-Policy', 'camera=(self), microphone=(), geolocation=()');
     if (secureCookies) headers.set('Strict-Transport-Security', 'max-age=15552000');
     return response;
