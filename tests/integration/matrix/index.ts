@@ -1,7 +1,8 @@
 /** Case lists contributed by each area of the app; add yours here. */
 import type { PublicRoute, RouteCase } from './types';
+import { vaultCases } from './vault-cases';
 
-export const extraCases: RouteCase[] = [];
+export const extraCases: RouteCase[] = [...vaultCases];
 
 export const extraPublicRoutes: PublicRoute[] = [
   { method: 'POST', route: '/api/tools/convert', reason: 'public tools API, rate limited' },

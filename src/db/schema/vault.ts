@@ -1,0 +1,211 @@
+/**
+ * The settings vault: site → machine → device → port, links joining ports, device profiles,
+ * and one revision table for the history of all of them.
+ *
+ * Every record carries `version` (optimistic concurrency: updates are `WHERE id=? AND version=?`)
+ * and the trash columns: `deletedAt` set means "in the trash"; `trashId` is the id of the record
+ * the user deleted, so a site and everything moved with it are restored or purged together.
+ */
+import { sql } from 'drizzle-orm';
+import { sqliteTable, text, integer, real, index, primaryKey, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { team } from './teams';
+import { user } from './auth';
+import type { PortSettings } from '../../lib/frame/port-settings';
+
+export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
+export const LINK_KINDS = ['point-to-point', 'rs485-bus'] as const;
+export const MEMBER_ROLES = ['master', 'slave', 'peer'] as const;
+export const ENTITY_TYPES = ['site', 'machine', 'device', 'port', 'link', 'profile'] as const;
+export type DeviceRole = (typeof DEVICE_ROLES)[number];
+export type EntityType = (typeof ENTITY_TYPES)[number];
+
+/** One row of a connector's pin-out. */
+export interface WiringRow {
+  pin: string;
+  signal: string;
+  colour: string;
+}
+
+/** A default port kept in a device profile. */
+export interface ProfilePort {
+  name: string;
+  settings: PortSettings;
+  wiring: WiringRow[];
+  notes: string;
+}
+
+const teamId = () =>
+  text('team_id')
+    .notNull()
+    .references(() => team.id, { onDelete: 'cascade' });
+
+const bookkeeping = () => ({
+  version: integer('version').notNull().default(1),
+  createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
+  updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
+  updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
+  deletedAt: integer('deleted_at', { mode: 'timestamp_ms' }),
+  deletedBy: text('deleted_by').references(() => user.id, { onDelete: 'set null' }),
+  trashId: text('trash_id'),
+});
+
+export const site = sqliteTable(
+  'site',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    name: text('name').notNull(),
+    customer: text('customer').notNull().default(''),
+    address: text('address').notNull().default(''),
+    notes: text('notes').notNull().default(''),
+    ...bookkeeping(),
+  },
+  (t) => [index('site_team_idx').on(t.teamId, t.deletedAt, t.name)],
+);
+
+export const machine = sqliteTable(
+  'machine',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    siteId: text('site_id')
+      .notNull()
+      .references(() => site.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    /** The customer's own line, cell or asset number. */
+    code: text('code').notNull().default(''),
+    notes: text('notes').notNull().default(''),
+    ...bookkeeping(),
+  },
+  (t) => [index('machine_site_idx').on(t.siteId, t.deletedAt, t.name), index('machine_team_idx').on(t.teamId, t.deletedAt, t.name)],
+);
+
+export const deviceProfile = sqliteTable(
+  'device_profile',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    name: text('name').notNull(),
+    role: text('role', { enum: DEVICE_ROLES }).notNull().default('other'),
+    maker: text('maker').notNull().default(''),
+    model: text('model').notNull().default(''),
+    notes: text('notes').notNull().default(''),
+    ports: text('ports', { mode: 'json' }).$type<ProfilePort[]>().notNull(),
+    ...bookkeeping(),
+  },
+  (t) => [index('profile_team_idx').on(t.teamId, t.deletedAt, t.name)],
+);
+
+export const device = sqliteTable(
+  'device',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    machineId: text('machine_id')
+      .notNull()
+      .references(() => machine.id, { onDelete: 'cascade' }),
+    profileId: text('profile_id').references(() => deviceProfile.id, { onDelete: 'set null' }),
+    tag: text('tag').notNull(),
+    name: text('name').notNull().default(''),
+    role: text('role', { enum: DEVICE_ROLES }).notNull().default('other'),
+    maker: text('maker').notNull().default(''),
+    model: text('model').notNull().default(''),
+    serialNumber: text('serial_number').notNull().default(''),
+    firmware: text('firmware').notNull().default(''),
+    location: text('location').notNull().default(''),
+    notes: text('notes').notNull().default(''),
+    ...bookkeeping(),
+  },
+  (t) => [
+    index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag),
+    index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt),
+    index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag),
+  ],
+);
+
+export const port = sqliteTable(
+  'port',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    deviceId: text('device_id')
+      .notNull()
+      .references(() => device.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    position: integer('position').notNull().default(0),
+    settings: text('settings', { mode: 'json' }).$type<PortSettings>().notNull(),
+    wiring: text('wiring', { mode: 'json' }).$type<WiringRow[]>().notNull(),
+    notes: text('notes').notNull().default(''),
+    ...bookkeeping(),
+  },
+  (t) => [
+    index('port_device_idx').on(t.deviceId, t.deletedAt, t.position),
+    // Two live ports of one device never share a name (the trash may hold an old one).
+    uniqueIndex('port_device_name_uq').on(t.deviceId, t.name).where(sql`deleted_at IS NULL`),
+  ],
+);
+
+export const link = sqliteTable(
+  'link',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    machineId: text('machine_id')
+      .notNull()
+      .references(() => machine.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    kind: text('kind', { enum: LINK_KINDS }).notNull(),
+    cableType: text('cable_type').notNull().default(''),
+    cableLengthM: real('cable_length_m'),
+    notes: text('notes').notNull().default(''),
+    ...bookkeeping(),
+  },
+  (t) => [index('link_machine_idx').on(t.machineId, t.deletedAt, t.name), index('link_team_idx').on(t.teamId, t.deletedAt, t.name)],
+);
+
+export const linkMember = sqliteTable(
+  'link_member',
+  {
+    linkId: text('link_id')
+      .notNull()
+      .references(() => link.id, { onDelete: 'cascade' }),
+    portId: text('port_id')
+      .notNull()
+      .references(() => port.id, { onDelete: 'cascade' }),
+    teamId: teamId(),
+    role: text('role', { enum: MEMBER_ROLES }).notNull(),
+    position: integer('position').notNull().default(0),
+    /** Physically at one end of the cable (for the termination check); null when not recorded. */
+    isEnd: integer('is_end', { mode: 'boolean' }),
+    /** RS-485 receiver load in unit loads; null means 1. */
+    unitLoads: real('unit_loads'),
+  },
+  (t) => [primaryKey({ columns: [t.linkId, t.portId] }), index('link_member_port_idx').on(t.portId)],
+);
+
+/** One row per change: who, when, which fields went from what to what, and the record as it stood after. */
+export const revision = sqliteTable(
+  'revision',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    entityType: text('entity_type', { enum: ENTITY_TYPES }).notNull(),
+    entityId: text('entity_id').notNull(),
+    /** The record's version after this change. */
+    version: integer('version').notNull(),
+    action: text('action', { enum: ['create', 'update', 'delete', 'restore', 'revert', 'copy'] }).notNull(),
+    userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
+    userName: text('user_name').notNull().default(''),
+    summary: text('summary').notNull().default(''),
+    changes: text('changes', { mode: 'json' }).$type<FieldChange[]>().notNull(),
+    snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
+  },
+  (t) => [index('revision_entity_idx').on(t.teamId, t.entityId, t.version), index('revision_team_idx').on(t.teamId, t.createdAt)],
+);
+
+export interface FieldChange {
+  field: string;
+  from: unknown;
+  to: unknown;
+}

@@ -1,0 +1,85 @@
+/** Link members: which ports a link joins, with their roles; loaded for many links in one query. */
+import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
+import { db, type DbOrTx } from '../../../db/client';
+import { device, linkMember, port } from '../../../db/schema';
+import type { PortSettings } from '../../frame/port-settings';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import type { LinkMemberInput } from '../../schemas/vault';
+
+export interface StoredMember {
+  portId: string;
+  role: 'master' | 'slave' | 'peer';
+  isEnd: boolean | null;
+  unitLoads: number | null;
+}
+
+export interface MemberView extends StoredMember {
+  portName: string;
+  deviceId: string;
+  deviceTag: string;
+  deviceName: string;
+  settings: PortSettings;
+  /** The port or its device is in the trash: shown, but left out of the link check. */
+  inTrash: boolean;
+}
+
+export async function loadMembers(q: DbOrTx, linkIds: string[]): Promise<Map<string, MemberView[]>> {
+  const out = new Map<string, MemberView[]>();
+  if (linkIds.length === 0) return out;
+  const rows = await q
+    .select({
+      linkId: linkMember.linkId, portId: linkMember.portId, role: linkMember.role, isEnd: linkMember.isEnd, unitLoads: linkMember.unitLoads,
+      portName: port.name, settings: port.settings, portDeleted: port.deletedAt,
+      deviceId: device.id, deviceTag: device.tag, deviceName: device.name, deviceDeleted: device.deletedAt,
+    })
+    .from(linkMember)
+    .innerJoin(port, eq(port.id, linkMember.portId))
+    .innerJoin(device, eq(device.id, port.deviceId))
+    .where(inArray(linkMember.linkId, linkIds))
+    .orderBy(asc(linkMember.linkId), asc(linkMember.position));
+  for (const r of rows) {
+    const list = out.get(r.linkId) ?? [];
+    list.push({
+      portId: r.portId, role: r.role, isEnd: r.isEnd, unitLoads: r.unitLoads, portName: r.portName, deviceId: r.deviceId,
+      deviceTag: r.deviceTag, deviceName: r.deviceName, settings: r.settings, inTrash: !!(r.portDeleted || r.deviceDeleted),
+    });
+    out.set(r.linkId, list);
+  }
+  return out;
+}
+
+export function storedMembers(members: MemberView[] | StoredMember[]): StoredMember[] {
+  return members.map((m) => ({ portId: m.portId, role: m.role, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null }));
+}
+
+/** 404-style field errors for ports that are not live ports of the caller's team. */
+export async function assertMemberPorts(q: DbOrTx, ctx: TeamContext, members: LinkMemberInput[]): Promise<void> {
+  if (members.length === 0) return;
+  const ids = members.map((m) => m.portId);
+  const found = await q
+    .select({ id: port.id })
+    .from(port)
+    .innerJoin(device, eq(device.id, port.deviceId))
+    .where(and(inArray(port.id, ids), eq(port.teamId, ctx.team.id), isNull(port.deletedAt), isNull(device.deletedAt)));
+  const ok = new Set(found.map((f) => f.id));
+  const fields: Record<string, string> = {};
+  members.forEach((m, i) => {
+    if (!ok.has(m.portId)) fields[`members.${i}.portId`] = 'No port with that id in this team.';
+  });
+  const keys = Object.keys(fields);
+  if (keys.length) throw new HttpError(404, `${keys[0]}: no port with that id in this team`, { fields });
+}
+
+export async function replaceMembers(q: DbOrTx, ctx: TeamContext, linkId: string, members: StoredMember[] | LinkMemberInput[]): Promise<void> {
+  await q.delete(linkMember).where(eq(linkMember.linkId, linkId));
+  if (members.length === 0) return;
+  await q.insert(linkMember).values(
+    members.map((m, i) => ({ linkId, portId: m.portId, teamId: ctx.team.id, role: m.role, position: i, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null })),
+  );
+}
+
+export function hydrateLink<T extends { id: string }>(q: DbOrTx, row: T): Promise<T & { members: StoredMember[] }> {
+  return loadMembers(q, [row.id]).then((m) => ({ ...row, members: storedMembers(m.get(row.id) ?? []) }));
+}
+

@@ -1,0 +1,19 @@
+/** Small parsers shared by the vault's API routes. */
+import { z } from 'zod';
+import { ENTITY_TYPES } from '../../../db/schema';
+import { HttpError, validate } from '../http';
+
+/** `?version=N` on DELETE: optional, but when sent it must be the current version. */
+export function versionParam(url: URL): number | undefined {
+  const raw = url.searchParams.get('version');
+  if (raw === null) return undefined;
+  return validate(z.strictObject({ version: z.coerce.number().int().positive('version is a positive whole number.') }), { version: raw }).version;
+}
+
+export function entityTypeParam(value: string | undefined) {
+  const parsed = z.enum(ENTITY_TYPES).safeParse(value);
+  if (!parsed.success) throw new HttpError(404, `Unknown record type "${value}"; use one of ${ENTITY_TYPES.join(', ')}.`);
+  return parsed.data;
+}
+
+export const idFilter = z.string().min(1).max(64).optional();

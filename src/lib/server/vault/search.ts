@@ -1,0 +1,54 @@
+/** Team-wide device search over the FTS5 index `device_search` (kept current by triggers). */
+import { sql } from 'drizzle-orm';
+import { db } from '../../../db/client';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import type { Page } from './records';
+
+export const SEARCH_FIELDS = ['tag', 'name', 'maker', 'model', 'serialNumber', 'siteName', 'machineName'] as const;
+
+/**
+ * An FTS5 query from what the user typed: every run of letters/digits must match the start of
+ * a word in some field (`DRV-20` finds `DRV-201`). Null when nothing searchable was typed.
+ */
+export function ftsQuery(text: string): string | null {
+  const tokens = text.toLowerCase().match(/[\p{L}\p{N}]+/gu)?.slice(0, 8) ?? [];
+  if (tokens.length === 0) return null;
+  return tokens.map((t) => `"${t}"*`).join(' ');
+}
+
+export interface SearchHit {
+  id: string; tag: string; name: string; role: string; maker: string; model: string; serialNumber: string;
+  machineId: string; machineName: string; siteId: string; siteName: string;
+  /** Fields in which the search words were found. */
+  matched: string[];
+}
+
+export async function searchDevices(ctx: TeamContext, q: string, page: number, pageSize: number): Promise<Page<SearchHit> & { q: string }> {
+  const match = ftsQuery(q);
+  if (!match) throw new HttpError(422, 'q: type at least one letter or digit', { fields: { q: 'Type at least one letter or digit.' } });
+  const offset = (page - 1) * pageSize;
+  // Ranked by FTS5's bm25; the team filter is on the index row, so other teams' devices are never joined.
+  const [rows, totals] = await Promise.all([
+    db.all<Record<string, string>>(sql`
+      SELECT d.id, d.tag, d.name, d.role, d.maker, d.model, d.serial_number AS serialNumber,
+             f.machine_name AS machineName, f.site_name AS siteName, d.machine_id AS machineId, m.site_id AS siteId
+      FROM device_search f
+      JOIN device d ON d.id = f.device_id
+      JOIN machine m ON m.id = d.machine_id
+      WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id}
+      ORDER BY f.rank, d.tag
+      LIMIT ${pageSize} OFFSET ${offset}`),
+    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM device_search f WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id}`),
+  ]);
+  const words = match.match(/"([^"]+)"/g)!.map((w) => w.slice(1, -1));
+  const items = rows.map((r) => ({ ...(r as unknown as Omit<SearchHit, 'matched'>), matched: matchedFields(r, words) }));
+  return { items, page, pageSize, total: Number(totals[0]?.n ?? 0), sort: 'rank', dir: 'asc', q };
+}
+
+function matchedFields(row: Record<string, string>, words: string[]): string[] {
+  return SEARCH_FIELDS.filter((f) => {
+    const tokens = String(row[f] ?? '').toLowerCase().match(/[\p{L}\p{N}]+/gu) ?? [];
+    return words.some((w) => tokens.some((t) => t.startsWith(w)));
+  });
+}

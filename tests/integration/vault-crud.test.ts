@@ -1,0 +1,216 @@
+/** Every vault record type: create, read, update, delete — valid, invalid (nothing written) and stale (409). */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { createTeamWithRoles, testDb, type TeamFixture, type TestClient } from '../helpers/client';
+import { expectOk, makeDevice, makeMachine, makeSite, rs485, uid } from './vault-fixtures';
+
+let team: TeamFixture;
+let eng: TestClient;
+let parents: { siteId: string; machineId: string; deviceId: string; portId: string };
+
+beforeAll(async () => {
+  team = await createTeamWithRoles('vault-crud');
+  eng = team.members.engineer;
+  const d = await makeDevice(eng);
+  parents = { siteId: d.siteId, machineId: d.machineId, deviceId: d.id, portId: d.ports[0].id };
+}, 60_000);
+
+async function rowCount(table: string): Promise<number> {
+  const db = testDb();
+  try {
+    const rs = await db.execute({ sql: `SELECT count(*) AS n FROM ${table} WHERE team_id = ?`, args: [team.teamId] });
+    return Number(rs.rows[0]!.n);
+  } finally {
+    db.close();
+  }
+}
+
+interface Kind {
+  path: string;
+  table: string;
+  valid: () => Record<string, unknown>;
+  /** Each invalid body and the field its message must name. */
+  invalid: () => [Record<string, unknown>, string][];
+  patch: Record<string, unknown>;
+  badPatch: [Record<string, unknown>, string];
+}
+
+const kinds: Record<string, Kind> = {
+  site: {
+    path: '/api/sites', table: 'site',
+    valid: () => ({ name: `Creamery ${uid()}`, customer: 'Invented Dairy', address: '1 Churn Lane' }),
+    invalid: () => [[{ name: '' }, 'name'], [{ name: 'x', colour: 'red' }, '_'], [{ name: 'x'.repeat(121) }, 'name']],
+    patch: { customer: 'Renamed customer' },
+    badPatch: [{ notes: 5 }, 'notes'],
+  },
+  machine: {
+    path: '/api/machines', table: 'machine',
+    valid: () => ({ siteId: parents.siteId, name: `Filler ${uid()}`, code: 'L2' }),
+    invalid: () => [[{ siteId: parents.siteId }, 'name'], [{ name: 'x' }, 'siteId'], [{ siteId: parents.siteId, name: 'x', speed: 3 }, '_']],
+    patch: { code: 'L3' },
+    badPatch: [{ code: 'x'.repeat(61) }, 'code'],
+  },
+  device: {
+    path: '/api/devices', table: 'device',
+    valid: () => ({ machineId: parents.machineId, tag: `SCL-${uid()}`, role: 'scale', ports: [{ name: 'COM1', settings: { baud: 4800 } }] }),
+    invalid: () => [
+      [{ machineId: parents.machineId, tag: 'X', role: 'toaster' }, 'role'],
+      [{ machineId: parents.machineId, tag: 'X', ports: [{ name: 'A', settings: { baud: -1 } }] }, 'ports.0.settings.baud'],
+      [{ machineId: parents.machineId, tag: 'X', ports: [{ name: 'A', settings: { dataBits: 9 } }] }, 'ports.0.settings.dataBits'],
+      [{ machineId: parents.machineId, tag: 'X', ports: [{ name: 'A', settings: { stopBits: 3 } }] }, 'ports.0.settings.stopBits'],
+      [{ machineId: parents.machineId, tag: 'X', ports: [{ name: 'A', settings: { parity: 'maybe' } }] }, 'ports.0.settings.parity'],
+      [{ machineId: parents.machineId, tag: 'X', ports: [{ name: 'A', settings: { frameRules: { sparkle: 1 } } }] }, 'ports.0.settings.frameRules'],
+      [{ machineId: parents.machineId, tag: '' }, 'tag'],
+    ],
+    patch: { firmware: '2.4.1', location: 'Cabinet 2, rail B' },
+    badPatch: [{ role: 'toaster' }, 'role'],
+  },
+  port: {
+    path: '/api/ports', table: 'port',
+    valid: () => ({ deviceId: parents.deviceId, name: `Aux ${uid()}`, settings: rs485({ nodeAddress: 7 }), wiring: [{ pin: '1', signal: 'D+', colour: 'white' }] }),
+    invalid: () => [
+      [{ deviceId: parents.deviceId, name: 'T', settings: { interface: 'tcp' } }, 'settings.tcpHost'],
+      [{ deviceId: parents.deviceId, name: 'T', settings: { nodeAddress: 70000 } }, 'settings.nodeAddress'],
+      [{ deviceId: parents.deviceId, name: 'T', wiring: [{ pin: '1', signal: 'TX', colour: 'red', gauge: 22 }] }, 'wiring.0'],
+      [{ deviceId: parents.deviceId, name: 'T', settings: { retries: 101 } }, 'settings.retries'],
+    ],
+    patch: { notes: 'Checked on site' },
+    badPatch: [{ settings: { baud: 0 } }, 'settings.baud'],
+  },
+  link: {
+    path: '/api/links', table: 'link',
+    valid: () => ({ machineId: parents.machineId, name: `Bus ${uid()}`, kind: 'rs485-bus', cableType: 'shielded twisted pair', cableLengthM: 40, members: [{ portId: parents.portId, role: 'master' }] }),
+    invalid: () => [
+      [{ machineId: parents.machineId, name: 'L', kind: 'mesh' }, 'kind'],
+      [{ machineId: parents.machineId, name: 'L', kind: 'rs485-bus', cableLengthM: -2 }, 'cableLengthM'],
+      [{ machineId: parents.machineId, name: 'L', kind: 'rs485-bus', members: [{ portId: parents.portId, role: 'boss' }] }, 'members.0.role'],
+      [{ machineId: parents.machineId, name: 'L', kind: 'rs485-bus', members: [{ portId: parents.portId, role: 'master' }, { portId: parents.portId, role: 'slave' }] }, 'members'],
+    ],
+    patch: { cableLengthM: 55 },
+    badPatch: [{ kind: 'mesh' }, 'kind'],
+  },
+  profile: {
+    path: '/api/profiles', table: 'device_profile',
+    valid: () => ({ name: `Checkweigher ${uid()}`, role: 'scale', maker: 'Tallowby', ports: [{ name: 'COM', settings: { baud: 2400, parity: 'even', dataBits: 7 } }] }),
+    invalid: () => [[{ name: 'P', ports: [{ name: 'C', settings: { baud: 1.5 } }] }, 'ports.0.settings.baud'], [{ name: '' }, 'name']],
+    patch: { model: 'TS-10' },
+    badPatch: [{ ports: 'none' }, 'ports'],
+  },
+};
+
+describe.each(Object.entries(kinds))('%s', (_name, k) => {
+  let created: any;
+
+  it('creates with valid input (201) and lists it', async () => {
+    created = expectOk(await eng.post(k.path, k.valid()), 201);
+    expect(created.version).toBe(1);
+    const got = expectOk(await eng.get(`${k.path}/${created.id}`));
+    expect(got.id).toBe(created.id);
+  });
+
+  it('refuses invalid input with a message per field and writes nothing', async () => {
+    for (const [body, field] of k.invalid()) {
+      const before = await rowCount(k.table);
+      const res = await eng.post(k.path, body);
+      expect(res.status, JSON.stringify(res.body)).toBe(422);
+      expect(Object.keys(res.body.fields), JSON.stringify(res.body)).toContain(field);
+      expect(typeof res.body.fields[field]).toBe('string');
+      expect(await rowCount(k.table)).toBe(before);
+    }
+  });
+
+  it('updates with the current version and bumps it', async () => {
+    const res = expectOk(await eng.patch(`${k.path}/${created.id}`, { version: created.version, ...k.patch }));
+    expect(res.version).toBe(created.version + 1);
+    for (const [f, v] of Object.entries(k.patch)) expect(res[f]).toEqual(v);
+    created = res;
+  });
+
+  it('refuses an invalid update (422) and leaves the record as it was', async () => {
+    const res = await eng.patch(`${k.path}/${created.id}`, { version: created.version, ...k.badPatch[0] });
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(Object.keys(res.body.fields)).toContain(k.badPatch[1]);
+    const unknown = await eng.patch(`${k.path}/${created.id}`, { version: created.version, bogus: 1 });
+    expect(unknown.status).toBe(422);
+    const missingVersion = await eng.patch(`${k.path}/${created.id}`, k.patch);
+    expect(missingVersion.status).toBe(422);
+    expect(missingVersion.body.fields.version).toBeTruthy();
+    const after = expectOk(await eng.get(`${k.path}/${created.id}`));
+    expect(after.version).toBe(created.version);
+  });
+
+  it('answers a stale version with 409 and the current record', async () => {
+    const res = await eng.patch(`${k.path}/${created.id}`, { version: created.version - 1, notes: 'late edit' });
+    expect(res.status).toBe(409);
+    expect(res.body.current.id).toBe(created.id);
+    expect(res.body.current.version).toBe(created.version);
+    const after = expectOk(await eng.get(`${k.path}/${created.id}`));
+    expect(after.notes).not.toBe('late edit');
+  });
+
+  it('forbids a viewer to change it (403) and hides it from another team (404)', async () => {
+    expect((await team.members.viewer.patch(`${k.path}/${created.id}`, { version: created.version, ...k.patch })).status).toBe(403);
+    expect((await team.members.technician.del(`${k.path}/${created.id}`)).status).toBe(403);
+    const outsider = (await createOtherTeam()).members.owner;
+    expect((await outsider.get(`${k.path}/${created.id}`)).status).toBe(404);
+    expect((await outsider.patch(`${k.path}/${created.id}`, { version: created.version, ...k.patch })).status).toBe(404);
+  });
+
+  it('deletes to the trash: 409 on a stale version, then gone from reads', async () => {
+    const stale = await eng.del(`${k.path}/${created.id}?version=${created.version - 1}`);
+    expect(stale.status).toBe(409);
+    expect(stale.body.current.version).toBe(created.version);
+    expectOk(await eng.del(`${k.path}/${created.id}?version=${created.version}`));
+    expect((await eng.get(`${k.path}/${created.id}`)).status).toBe(404);
+    const trash = expectOk(await eng.get(`/api/trash?pageSize=200`));
+    expect(trash.items.map((i: { id: string }) => i.id)).toContain(created.id);
+  });
+});
+
+let other: TeamFixture | null = null;
+async function createOtherTeam() {
+  other ??= await createTeamWithRoles('vault-crud-other');
+  return other;
+}
+
+describe('lists', () => {
+  it('pages, sorts and filters on the server', async () => {
+    const m = await makeMachine(eng);
+    for (const tag of ['B-2', 'A-1', 'C-3']) expectOk(await eng.post('/api/devices', { machineId: m.id, tag, role: tag === 'C-3' ? 'printer' : 'drive' }), 201);
+    const page1 = expectOk(await eng.get(`/api/devices?machineId=${m.id}&sort=tag&dir=desc&pageSize=2`));
+    expect(page1.total).toBe(3);
+    expect(page1.items.map((d: { tag: string }) => d.tag)).toEqual(['C-3', 'B-2']);
+    const page2 = expectOk(await eng.get(`/api/devices?machineId=${m.id}&sort=tag&dir=desc&pageSize=2&page=2`));
+    expect(page2.items.map((d: { tag: string }) => d.tag)).toEqual(['A-1']);
+    const printers = expectOk(await eng.get(`/api/devices?machineId=${m.id}&role=printer`));
+    expect(printers.items.map((d: { tag: string }) => d.tag)).toEqual(['C-3']);
+    const bySite = expectOk(await eng.get(`/api/devices?siteId=${m.siteId}&sort=tag`));
+    expect(bySite.total).toBe(3);
+  });
+
+  it('refuses unknown sort fields, page sizes over 200 and unknown parameters', async () => {
+    for (const q of ['sort=password', 'pageSize=201', 'page=0', 'dir=up', 'colour=red']) {
+      const res = await eng.get(`/api/devices?${q}`);
+      expect(res.status, q).toBe(422);
+      expect(Object.keys(res.body.fields).length).toBeGreaterThan(0);
+    }
+    expect((await eng.get('/api/ports')).status).toBe(422);
+  });
+
+  it('shows the shorthand and the text block of each port', async () => {
+    const d = await makeDevice(eng);
+    expect(d.ports[0].shorthand).toBe('9600 8-E-1');
+    expect(d.ports[0].text).toContain('Parity: even');
+    const list = expectOk(await eng.get(`/api/devices?machineId=${d.machineId}`));
+    expect(list.items[0].ports.map((p: { shorthand: string }) => p.shorthand)).toEqual(['9600 8-E-1', '19200 8-N-1']);
+  });
+
+  it('lists sites and machines with their counts', async () => {
+    const s = await makeSite(eng);
+    const m = expectOk(await eng.post('/api/machines', { siteId: s.id, name: 'Palletiser' }), 201);
+    await makeDevice(eng, m.id);
+    const sites = expectOk(await eng.get(`/api/sites?q=${encodeURIComponent(s.name)}`));
+    expect(sites.items[0]).toMatchObject({ id: s.id, machineCount: 1, deviceCount: 1 });
+    const machines = expectOk(await eng.get(`/api/machines?siteId=${s.id}`));
+    expect(machines.items[0]).toMatchObject({ id: m.id, deviceCount: 1, siteName: s.name });
+  });
+});
