@@ -163,3 +163,22 @@ describe('password reset', () => {
     expect((await new TestClient().post('/api/auth/sign-in/email', { email, password: 'brand-new-password' })).status).toBe(200);
   });
 });
+
+describe('public tools API limits', () => {
+  it('needs no session, caps bodies and answers 429 past the per-address budget', async () => {
+    const c = new TestClient();
+    const ok = await c.post('/api/tools/convert', { from: 'hex', text: '0D 0A' });
+    expect(ok.status).toBe(200);
+    expect(ok.body.bytes).toBe('0D 0A');
+    expect((await c.post('/api/tools/convert', { from: 'escaped', text: 'x'.repeat(70_000) })).status).toBe(413);
+    const statuses: number[] = [];
+    for (let i = 0; i < 125; i++) statuses.push((await c.post('/api/tools/convert', { from: 'hex', text: '41' })).status);
+    const limited = statuses.indexOf(429);
+    // 120 a minute by default; two requests above already counted.
+    expect(limited).toBeGreaterThanOrEqual(117);
+    const last = await c.post('/api/tools/convert', { from: 'hex', text: '41' });
+    expect(last.status).toBe(429);
+    expect(Number(last.headers.get('retry-after'))).toBeGreaterThan(0);
+    expect((await new TestClient().post('/api/tools/convert', { from: 'hex', text: '41' })).status).toBe(200);
+  });
+});
