@@ -1,3 +1,4 @@
 export * from './auth';
 export * from './teams';
 export * from './vault';
+export * from './commands';
