@@ -2,3 +2,4 @@ export * from './auth';
 export * from './teams';
 export * from './vault';
 export * from './commands';
+export * from './field';

@@ -1,0 +1,121 @@
+/**
+ * Field work and sharing: the append-only field log (entries and their annotations), files attached
+ * to devices and machines, read-only share links, and the import map that keeps imports idempotent.
+ */
+import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
+import { team } from './teams';
+import { user } from './auth';
+import { device } from './vault';
+
+export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
+export const ATTACHMENT_KINDS = ['manual', 'photo', 'config'] as const;
+export const ATTACHMENT_OWNERS = ['device', 'machine'] as const;
+export const SHARE_SCOPES = ['machine', 'site'] as const;
+export type FieldLogKind = (typeof FIELD_LOG_KINDS)[number];
+export type AttachmentKind = (typeof ATTACHMENT_KINDS)[number];
+
+const teamId = () =>
+  text('team_id')
+    .notNull()
+    .references(() => team.id, { onDelete: 'cascade' });
+const createdAt = () => integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date());
+
+/** One thing a technician did or saw at the device. Never updated or deleted by the app. */
+export const fieldLogEntry = sqliteTable(
+  'field_log_entry',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    deviceId: text('device_id')
+      .notNull()
+      .references(() => device.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: FIELD_LOG_KINDS }).notNull(),
+    note: text('note').notNull().default(''),
+    /** Replacement: serial number of the unit fitted. */
+    newSerialNumber: text('new_serial_number').notNull().default(''),
+    /** Replacement: the device's record version whose settings were loaded into the new unit. */
+    appliedVersion: integer('applied_version'),
+    /** Found different: what the technician found set on site. */
+    foundSettings: text('found_settings').notNull().default(''),
+    /** The device's record version when the entry was written. */
+    deviceVersion: integer('device_version').notNull(),
+    userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
+    userName: text('user_name').notNull().default(''),
+    createdAt: createdAt(),
+  },
+  (t) => [index('field_log_device_idx').on(t.teamId, t.deviceId, t.createdAt)],
+);
+
+/** Later remarks on an entry; also append-only. */
+export const fieldLogAnnotation = sqliteTable(
+  'field_log_annotation',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    entryId: text('entry_id')
+      .notNull()
+      .references(() => fieldLogEntry.id, { onDelete: 'cascade' }),
+    note: text('note').notNull(),
+    userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
+    userName: text('user_name').notNull().default(''),
+    createdAt: createdAt(),
+  },
+  (t) => [index('field_annotation_entry_idx').on(t.entryId, t.createdAt)],
+);
+
+/** A stored file: its bytes live in the storage backend under `storageKey`. */
+export const attachment = sqliteTable(
+  'attachment',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    ownerType: text('owner_type', { enum: ATTACHMENT_OWNERS }).notNull(),
+    ownerId: text('owner_id').notNull(),
+    /** Photos sent with a field-log entry belong to it (and cannot be removed on their own). */
+    entryId: text('entry_id').references(() => fieldLogEntry.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ATTACHMENT_KINDS }).notNull(),
+    fileName: text('file_name').notNull(),
+    contentType: text('content_type').notNull(),
+    size: integer('size').notNull(),
+    sha256: text('sha256').notNull(),
+    storageKey: text('storage_key').notNull(),
+    userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
+    userName: text('user_name').notNull().default(''),
+    createdAt: createdAt(),
+  },
+  (t) => [index('attachment_owner_idx').on(t.teamId, t.ownerType, t.ownerId, t.createdAt), index('attachment_entry_idx').on(t.entryId)],
+);
+
+/** A read-only link for people without an account; only the SHA-256 of its token is kept. */
+export const shareLink = sqliteTable(
+  'share_link',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    scopeType: text('scope_type', { enum: SHARE_SCOPES }).notNull(),
+    scopeId: text('scope_id').notNull(),
+    label: text('label').notNull().default(''),
+    tokenHash: text('token_hash').notNull().unique(),
+    createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name').notNull().default(''),
+    createdAt: createdAt(),
+    expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+    revokedAt: integer('revoked_at', { mode: 'timestamp_ms' }),
+    accessCount: integer('access_count').notNull().default(0),
+    lastAccessAt: integer('last_access_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [index('share_team_idx').on(t.teamId, t.createdAt)],
+);
+
+/** Which record an imported record became in this team, so importing the same file twice adds nothing. */
+export const importMap = sqliteTable(
+  'import_map',
+  {
+    teamId: teamId(),
+    entityType: text('entity_type').notNull(),
+    sourceId: text('source_id').notNull(),
+    targetId: text('target_id').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.teamId, t.entityType, t.sourceId] })],
+);
