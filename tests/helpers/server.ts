@@ -32,8 +32,9 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
     throw new Error(`${entry} is missing: run \`npm run build\` first (npm test does this).`);
   }
   const dir = mkdtempSync(join(tmpdir(), 'baudbook-test-'));
-  const port = await freePort();
+  const port = extraEnv.PORT ? Number(extraEnv.PORT) : await freePort();
   const databaseUrl = `file:${join(dir, 'test.db')}`;
+  /** Where the tests reach the server (BASE_URL in extraEnv may name a public https address instead). */
   const baseUrl = `http://127.0.0.1:${port}`;
   const child: ChildProcess = spawn(process.execPath, [entry], {
     env: {
