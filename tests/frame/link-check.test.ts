@@ -59,7 +59,7 @@ describe('RS-485 bus rules', () => {
     expect(codes(checkLink(bus, { kind: 'rs485-bus' }))).toEqual(['no-direction-control@drive']);
   });
   test('termination at exactly the two cable ends', () => {
-    // TI THVD1400 datasheet (bus termination at both cable ends, typically 120 Ω); Modbus guide V1.02, 3.4
+    // RS-485 transceiver datasheet guidance in the shared reference list (terminate each cable end, typically 120 Ω); Modbus guide V1.02, 3.4
     const bus = goodBus();
     bus[0]!.settings = rs485({ bias: true });
     bus[1]!.settings = rs485({ nodeAddress: 1, termination: true });
@@ -69,7 +69,7 @@ describe('RS-485 bus rules', () => {
     expect(checkLink(noEnds, { kind: 'rs485-bus' }).state).toBe('error');
   });
   test('more than 32 unit loads', () => {
-    // TIA-485-A: one driver drives 32 unit loads; TI SN75ALS174 datasheet, "Bus Loading"
+    // TIA-485-A: one driver drives 32 unit loads (transceiver datasheet "Bus Loading" section in the shared reference list)
     const bus = goodBus();
     bus[1]!.unitLoads = 30;
     expect(codes(checkLink(bus, { kind: 'rs485-bus' }))).toEqual([]); // 1 + 30 + 1 = 32
