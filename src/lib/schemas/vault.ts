@@ -64,7 +64,7 @@ export const deviceCreateSchema = z.strictObject({
   /** Start from a team profile: its ports (unless `ports` is given) and role, maker and model (unless given). */
   profileId: id.nullable().optional(),
   ...deviceFields,
-  role: deviceFields.role.optional(),
+  role: z.enum(DEVICE_ROLES, { error: 'Choose a role.' }).optional(),
   ports: z.array(portInputSchema).max(16, 'At most 16 ports per device.').optional(),
 });
 export const deviceUpdateSchema = z.strictObject({ version: versionSchema, machineId: id.optional(), ...partial(deviceFields) });
