@@ -1,6 +1,8 @@
 import { seedPlatform } from './platform';
+import { seedVault } from './vault';
 
 /** Seeds the invented demo scenario; safe to run on every start (nothing is duplicated). */
 export async function seedDemo(): Promise<void> {
-  await seedPlatform();
+  const ids = await seedPlatform();
+  await seedVault(ids);
 }

@@ -1,0 +1,96 @@
+/** Fixed-id insert helpers for the demo vault: every call is idempotent (onConflictDoNothing). */
+import { db } from '../client';
+import { device, deviceProfile, link, linkMember, machine, port, revision, site, type ProfilePort, type WiringRow } from '../schema';
+import { portSettingsSchema, type PortSettingsInput } from '../../lib/frame/port-settings';
+import type { DeviceRole, EntityType } from '../schema';
+
+export interface SeedCtx {
+  teamId: string;
+  userId: string;
+  userName: string;
+}
+
+const settings = (s: PortSettingsInput) => portSettingsSchema.parse(s);
+
+async function created(c: SeedCtx, type: EntityType, entityId: string, snapshot: Record<string, unknown>, summary: string) {
+  await db
+    .insert(revision)
+    .values({
+      id: `rev_${entityId}_1`, teamId: c.teamId, entityType: type, entityId, version: 1, action: 'create',
+      userId: c.userId, userName: c.userName, summary, changes: Object.entries(snapshot).map(([field, to]) => ({ field, from: null, to })), snapshot,
+    })
+    .onConflictDoNothing();
+}
+
+export async function addSite(c: SeedCtx, id: string, name: string, customer: string, address: string, notes = '') {
+  await db.insert(site).values({ id, teamId: c.teamId, name, customer, address, notes, updatedBy: c.userId }).onConflictDoNothing();
+  await created(c, 'site', id, { name, customer, address, notes }, `Created site ${name}`);
+}
+
+export async function addMachine(c: SeedCtx, id: string, siteId: string, name: string, code: string, notes = '') {
+  await db.insert(machine).values({ id, teamId: c.teamId, siteId, name, code, notes, updatedBy: c.userId }).onConflictDoNothing();
+  await created(c, 'machine', id, { siteId, name, code, notes }, `Created machine ${name}`);
+}
+
+export interface SeedPort {
+  id: string;
+  name: string;
+  settings: PortSettingsInput;
+  wiring?: WiringRow[];
+  notes?: string;
+}
+
+export interface SeedDevice {
+  id: string;
+  machineId: string;
+  tag: string;
+  name: string;
+  role: DeviceRole;
+  maker: string;
+  model: string;
+  serialNumber?: string;
+  firmware?: string;
+  location?: string;
+  notes?: string;
+  profileId?: string;
+  ports: SeedPort[];
+}
+
+export async function addDevice(c: SeedCtx, d: SeedDevice) {
+  const { ports, ...fields } = d;
+  const row = { serialNumber: '', firmware: '', location: '', notes: '', profileId: null, ...fields };
+  await db.insert(device).values({ ...row, teamId: c.teamId, updatedBy: c.userId }).onConflictDoNothing();
+  const { id: _id, ...snap } = row;
+  await created(c, 'device', d.id, snap, `Created device ${d.tag}`);
+  for (const [i, p] of ports.entries()) {
+    const values = { name: p.name, position: i, settings: settings(p.settings), wiring: p.wiring ?? [], notes: p.notes ?? '' };
+    await db.insert(port).values({ id: p.id, teamId: c.teamId, deviceId: d.id, ...values, updatedBy: c.userId }).onConflictDoNothing();
+    await created(c, 'port', p.id, values, `Created port ${p.name}`);
+  }
+}
+
+export interface SeedMember {
+  portId: string;
+  role: 'master' | 'slave' | 'peer';
+  isEnd?: boolean;
+}
+
+export async function addLink(
+  c: SeedCtx,
+  l: { id: string; machineId: string; name: string; kind: 'point-to-point' | 'rs485-bus'; cableType: string; cableLengthM: number; notes?: string; members: SeedMember[] },
+) {
+  const { members, ...fields } = l;
+  await db.insert(link).values({ notes: '', ...fields, teamId: c.teamId, updatedBy: c.userId }).onConflictDoNothing();
+  await db
+    .insert(linkMember)
+    .values(members.map((m, i) => ({ linkId: l.id, portId: m.portId, teamId: c.teamId, role: m.role, position: i, isEnd: m.isEnd ?? null, unitLoads: null })))
+    .onConflictDoNothing();
+  const stored = members.map((m) => ({ portId: m.portId, role: m.role, isEnd: m.isEnd ?? null, unitLoads: null }));
+  await created(c, 'link', l.id, { name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes ?? '', members: stored }, `Created link ${l.name}`);
+}
+
+export async function addProfile(c: SeedCtx, id: string, name: string, role: DeviceRole, maker: string, model: string, notes: string, ports: { name: string; settings: PortSettingsInput; wiring?: WiringRow[] }[]) {
+  const full: ProfilePort[] = ports.map((p) => ({ name: p.name, settings: settings(p.settings), wiring: p.wiring ?? [], notes: '' }));
+  await db.insert(deviceProfile).values({ id, teamId: c.teamId, name, role, maker, model, notes, ports: full, updatedBy: c.userId }).onConflictDoNothing();
+  await created(c, 'profile', id, { name, role, maker, model, notes, ports: full }, `Created profile ${name}`);
+}
