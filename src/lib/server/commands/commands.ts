@@ -1,0 +1,117 @@
+/** The command library service: list, read, create, update, trash and copy, scoped to the caller's team. */
+import { and, asc, eq, isNotNull, isNull, or } from 'drizzle-orm';
+import { db, type DbOrTx } from '../../../db/client';
+import { command } from '../../../db/schema';
+import type { CommandCopy, CommandCreate, CommandUpdate } from '../../schemas/commands';
+import type { TeamContext } from '../guard';
+import { newId } from '../ids';
+import { diffSnapshots, definedOnly } from '../vault/diff';
+import { writeTx } from '../vault/tx';
+import { findOwner, liveProfileId, type CommandOwner } from './owners';
+import { commandNotFound, findCommand, snapshotOf, staleCommand, updateCommandVersioned, writeCommandRevision, type CommandRow } from './records';
+
+export interface CommandView extends CommandRow {
+  owner: { kind: CommandOwner['kind']; id: string; label: string };
+  /** Listed on a device but kept on its profile: read-only there, copy to change. */
+  inherited: boolean;
+}
+
+const view = (row: CommandRow, owner: CommandOwner, inherited = false): CommandView => ({
+  ...row,
+  owner: { kind: owner.kind, id: owner.id, label: owner.label },
+  inherited,
+});
+
+/**
+ * Commands of a device (its own first, then those of its profile, marked inherited) or of a
+ * profile, by name. `trashed` lists the ones in the trash instead (own commands only).
+ */
+export async function listCommands(ctx: TeamContext, ref: { deviceId?: string; profileId?: string; trashed?: boolean }): Promise<{ owner: CommandOwner; items: CommandView[] }> {
+  const owner = await findOwner(db, ctx, ref);
+  const profileId = owner.kind === 'device' && !ref.trashed ? await liveProfileId(db, ctx, owner.profileId) : null;
+  const ownerCol = owner.kind === 'device' ? command.deviceId : command.profileId;
+  const rows = await db
+    .select()
+    .from(command)
+    .where(
+      and(
+        eq(command.teamId, ctx.team.id),
+        ref.trashed ? isNotNull(command.deletedAt) : isNull(command.deletedAt),
+        profileId ? or(eq(ownerCol, owner.id), eq(command.profileId, profileId)) : eq(ownerCol, owner.id),
+      ),
+    )
+    .orderBy(asc(command.name), asc(command.id));
+  const profile = profileId ? await findOwner(db, ctx, { profileId }) : null;
+  const own = rows.filter((r) => (owner.kind === 'device' ? r.deviceId === owner.id : true)).map((r) => view(r, owner));
+  const inherited = profile ? rows.filter((r) => r.profileId === profileId).map((r) => view(r, profile, true)) : [];
+  return { owner, items: [...own, ...inherited] };
+}
+
+/** One command with its owner. `forDevice` answers a profile command as seen from a device made from it. */
+export async function getCommand(ctx: TeamContext, id: string, q: DbOrTx = db): Promise<CommandView> {
+  const row = await findCommand(q, ctx, id);
+  return view(row, await findOwner(q, ctx, row));
+}
+
+/** The command as seen from a device page: its own, or its profile's (inherited); 404 otherwise. */
+export async function getCommandForDevice(ctx: TeamContext, deviceId: string, id: string): Promise<CommandView & { device: CommandOwner }> {
+  const deviceOwner = await findOwner(db, ctx, { deviceId });
+  const c = await getCommand(ctx, id);
+  const inherited = c.profileId !== null && c.profileId === (await liveProfileId(db, ctx, deviceOwner.profileId));
+  if (c.deviceId !== deviceId && !inherited) throw commandNotFound();
+  return { ...c, inherited, device: deviceOwner };
+}
+
+export async function createCommand(ctx: TeamContext, input: CommandCreate): Promise<CommandView> {
+  return writeTx(async (tx) => {
+    const owner = await findOwner(tx, ctx, input);
+    const { deviceId: _d, profileId: _p, ...fields } = input;
+    const [row] = await tx
+      .insert(command)
+      .values({ id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, ...fields, updatedBy: ctx.user.id })
+      .returning();
+    const snapshot = snapshotOf(row!);
+    await writeCommandRevision(tx, ctx, { commandId: row!.id, version: 1, action: 'create', changes: diffSnapshots({}, snapshot), snapshot, summary: `Created command ${row!.name}` });
+    return view(row!, owner);
+  });
+}
+
+export async function updateCommand(ctx: TeamContext, id: string, input: CommandUpdate): Promise<CommandView> {
+  const { version, ...patch } = input;
+  return writeTx(async (tx) => {
+    const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>);
+    return view(row, await findOwner(tx, ctx, row));
+  });
+}
+
+/** Moves a command to the trash (its history stays; restoring a revision brings it back). */
+export async function trashCommand(ctx: TeamContext, id: string, version?: number) {
+  return writeTx(async (tx) => {
+    const row = await findCommand(tx, ctx, id);
+    if (version !== undefined && row.version !== version) throw staleCommand(row, version);
+    const res = await tx
+      .update(command)
+      .set({ deletedAt: new Date(), deletedBy: ctx.user.id, version: row.version + 1 })
+      .where(and(eq(command.id, id), eq(command.version, row.version), isNull(command.deletedAt)));
+    if (res.rowsAffected === 0) throw staleCommand(await findCommand(tx, ctx, id, { trashed: true }), row.version);
+    await writeCommandRevision(tx, ctx, { commandId: id, version: row.version + 1, action: 'delete', changes: [], snapshot: snapshotOf(row), summary: `Moved command ${row.name} to the trash` });
+    return { id, trashed: true, version: row.version + 1 };
+  });
+}
+
+/** A new command on another device or profile of the team with the same template, values and notes. */
+export async function copyCommand(ctx: TeamContext, id: string, input: CommandCopy): Promise<CommandView> {
+  return writeTx(async (tx) => {
+    const source = await findCommand(tx, ctx, id);
+    const owner = await findOwner(tx, ctx, input);
+    const fields = { ...snapshotOf(source), name: input.name ?? source.name } as Omit<CommandRow, 'id'>;
+    const [row] = await tx
+      .insert(command)
+      .values({ ...fields, id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, updatedBy: ctx.user.id })
+      .returning();
+    const snapshot = snapshotOf(row!);
+    const from = await findOwner(tx, ctx, source);
+    await writeCommandRevision(tx, ctx, { commandId: row!.id, version: 1, action: 'copy', changes: diffSnapshots({}, snapshot), snapshot, summary: `Copied from ${from.label} (command ${source.name})` });
+    return view(row!, owner);
+  });
+}
