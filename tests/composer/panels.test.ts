@@ -1,0 +1,94 @@
+import { describe, expect, it } from 'vitest';
+import { assembleFrame, checkFrame, latin1Bytes, portSettingsSchema } from '../../src/lib/frame';
+import { byteCells } from '../../src/lib/composer/cells';
+import { notationRows } from '../../src/lib/composer/notations';
+import { guessNotation, readReply } from '../../src/lib/composer/reply';
+import { timingSummary } from '../../src/lib/composer/timing';
+import { wireLayout } from '../../src/lib/composer/wire';
+import { scaleFromStepsPerRev, stepsPerRevOf } from '../../src/lib/composer/scaling';
+import { fieldValueProblem, valuesSchemaFor } from '../../src/lib/schemas/commands';
+import { jogTemplate, statusQueryTemplate } from '../../src/lib/composer/demo';
+
+const bytes = (s: string) => latin1Bytes(s) as Uint8Array;
+const port8N1 = portSettingsSchema.parse({ baud: 9600 });
+
+describe('byte cells', () => {
+  it('name the segment of every byte and carry the worst finding', () => {
+    const f = assembleFrame(jogTemplate('+'), {});
+    const findings = checkFrame(f.bytes, f.segments, { letterCase: 'lower' });
+    const cells = byteCells(f.bytes, f.segments, jogTemplate('+'), findings);
+    expect(cells.map((c) => c.glyph).join(' ')).toBe('1 ! J O G : + 1 0 0 CR');
+    expect(cells[0]).toMatchObject({ offset: 0, hex: '31', decimal: 49, segmentLabel: 'Field Drive address' });
+    expect(cells[2]).toMatchObject({ segmentLabel: 'Literal "!JOG:"', severity: 'warning' });
+    expect(cells[10]).toMatchObject({ segmentLabel: 'Terminator', hex: '0D' });
+  });
+});
+
+describe('notations', () => {
+  it('lists every notation including register words with their count and order', () => {
+    const rows = notationRows(bytes('ABC\r'), 'low-first');
+    expect(Object.fromEntries(rows.map((r) => [r.id, r.text]))).toEqual({
+      iecLiteral: "'ABC$0D'", iec: 'ABC$0D', escaped: 'ABC\\r', mnemonic: 'ABC<CR>', hex: '41 42 43 0D', decimal: '65 66 67 13',
+      wordsHex: '4241 0D43', wordsDecimal: '16961 3395',
+    });
+    expect(rows.find((r) => r.id === 'wordsHex')!.hint).toBe('2 words, first byte in the low half');
+    expect(notationRows(bytes('ABC')).find((r) => r.id === 'wordsHex')!.hint).toContain('padded');
+  });
+});
+
+describe('timing', () => {
+  it('works out character, frame, reply, gaps and polls per second', () => {
+    const t = timingSummary({ ...port8N1, turnaroundDelayMs: 5 }, 11, 21);
+    const v = Object.fromEntries(t.rows.map((r) => [r.id, r.value]));
+    expect(t.shorthand).toBe('9600 8-N-1');
+    expect(v).toMatchObject({ char: '1.042 ms', frame: '11.458 ms', reply: '21.875 ms', t15: '1.563 ms', t35: '3.646 ms' });
+    // 11.458 + 5 + 21.875 + 3.646 = 41.979 ms → 23.8 polls/s
+    expect(v.polls).toBe('23.8');
+    expect(timingSummary(port8N1, 11, null).rows.some((r) => r.id === 'reply')).toBe(false);
+  });
+});
+
+describe('wire picture', () => {
+  it('lays out idle, start, data LSB first, stop with byte labels and time marks', () => {
+    const w = wireLayout(bytes('1\r'), port8N1);
+    expect(w.cells.map((c) => c.label).join('')).toBe('idleS10001100stopS10110000stopidle');
+    expect(w.bytes.map((b) => b.label)).toEqual(['31 1', '0D CR']);
+    expect(w.marks.map((m) => m.label)).toEqual(['104 µs', '1.146 ms', '2.188 ms']);
+    expect(w.path.startsWith('M44.0 28 H74.0 V62')).toBe(true);
+    expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ truncated: true, shownBytes: 8 });
+  });
+});
+
+describe('reply notation', () => {
+  it('guesses the notation of pasted text', () => {
+    expect(guessNotation("'1=STA$0D'")).toBe('iec');
+    expect(guessNotation('1=STA<CR>')).toBe('mnemonic');
+    expect(guessNotation('1=STA\\r')).toBe('escaped');
+    expect(guessNotation('31 3D 0D')).toBe('hex');
+    expect(guessNotation('plain')).toBe('escaped');
+    expect(readReply('31 0D')).toMatchObject({ ok: true, notation: 'hex' });
+    expect(readReply('41 4', 'hex')).toMatchObject({ ok: true });
+    expect(readReply("'A'B'", 'iec')).toMatchObject({ ok: false, notation: 'iec' });
+  });
+});
+
+describe('field values schema and scaling', () => {
+  it('checks each field and refuses unknown keys', () => {
+    const s = valuesSchemaFor(jogTemplate('+'));
+    expect(s.safeParse({ angle: '2', address: '' }).success).toBe(true);
+    const bad = s.safeParse({ angle: '20', address: 'x', other: 1 });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
+      ['address', 'Drive address must be a number.'], ['angle', 'At most 10 °.'], ['other', 'The template has no field named "other".'],
+    ]);
+    const choice = { type: 'choice', id: 'c', name: 'c', label: 'C', options: [{ value: 'a', send: 'A' }] } as const;
+    expect(fieldValueProblem(choice, 'b')).toBe('Choose one of a.');
+    expect(valuesSchemaFor(statusQueryTemplate).safeParse({}).success).toBe(true);
+  });
+
+  it('turns steps per revolution into a degrees scale and back', () => {
+    expect(scaleFromStepsPerRev(36000)).toEqual({ factor: 100, offset: 0 });
+    expect(stepsPerRevOf({ unit: '°', scale: { factor: 100, offset: 0 } })).toBe(36000);
+    expect(stepsPerRevOf({ unit: 'mm', scale: { factor: 100, offset: 0 } })).toBeNull();
+  });
+});
