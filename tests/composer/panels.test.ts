@@ -82,7 +82,7 @@ describe('field values schema and scaling', () => {
       ['address', 'Drive address must be a number.'], ['angle', 'At most 10 °.'], ['other', 'The template has no field named "other".'],
     ]);
     const choice = { type: 'choice', id: 'c', name: 'c', label: 'C', options: [{ value: 'a', send: 'A' }] } as const;
-    expect(fieldValueProblem(choice, 'b')).toBe('Choose one of a.');
+    expect(fieldValueProblem(choice as never, 'b')).toBe('Choose one of a.');
     expect(valuesSchemaFor(statusQueryTemplate).safeParse({}).success).toBe(true);
   });
 

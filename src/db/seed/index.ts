@@ -5,4 +5,5 @@ import { seedVault } from './vault';
 export async function seedDemo(): Promise<void> {
   const ids = await seedPlatform();
   await seedVault(ids);
+  await (await import('./commands')).seedCommands(ids);
 }

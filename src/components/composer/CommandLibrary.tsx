@@ -1,0 +1,118 @@
+/** Island for the library page: the commands of a device (its own and its profile's) or of a profile, with copy and trash. */
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { api } from '../../lib/client/api';
+import { commandKeys } from '../../lib/client/keys';
+import { QueryProvider } from '../QueryProvider';
+
+interface Item { id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string }
+interface Target { value: string; label: string }
+interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean }
+
+function useTargets(enabled: boolean) {
+  return useQuery({
+    queryKey: commandKeys.devices(),
+    enabled,
+    queryFn: async () => {
+      const [d, p] = await Promise.all([
+        api<{ items: { id: string; tag: string; name: string }[] }>('/api/devices?pageSize=200&sort=tag'),
+        api<{ items: { id: string; name: string }[] }>('/api/profiles?pageSize=200'),
+      ]);
+      return [
+        ...d.items.map((x) => ({ value: `device:${x.id}`, label: `Device ${x.tag}${x.name ? ` ${x.name}` : ''}` })),
+        ...p.items.map((x) => ({ value: `profile:${x.id}`, label: `Profile ${x.name}` })),
+      ] as Target[];
+    },
+  });
+}
+
+function Row({ item, basePath, canEdit, targets }: { item: Item; basePath: string; canEdit: boolean; targets: Target[] }) {
+  const qc = useQueryClient();
+  const [target, setTarget] = useState('');
+  const done = () => qc.invalidateQueries({ queryKey: commandKeys.all() });
+  const copy = useMutation({
+    mutationFn: () => { const [kind, id] = target.split(':'); return api(`/api/commands/${item.id}/copy`, { body: { [kind === 'device' ? 'deviceId' : 'profileId']: id } }); },
+    onSuccess: () => { setTarget(''); done(); },
+  });
+  const trash = useMutation({ mutationFn: () => api(`/api/commands/${item.id}?version=${item.version}`, { method: 'DELETE' }), onSuccess: done });
+  const err = copy.error ?? trash.error;
+  return (
+    <li className="card grid gap-2" data-command={item.name}>
+      <div className="flex flex-wrap items-baseline gap-x-3">
+        <a href={`${basePath}/${item.id}`} className="font-semibold">{item.name}</a>
+        {item.movesMachinery && <span className="text-xs rounded bg-[#fdf3e3] text-warn px-1.5">moves machinery</span>}
+        {item.inherited && <span className="text-xs text-muted">from profile {item.owner.label} · read-only here</span>}
+      </div>
+      {item.purpose && <p className="text-sm text-muted">{item.purpose}</p>}
+      {canEdit && (
+        <div className="flex flex-wrap items-center gap-2 text-sm">
+          <label htmlFor={`copy-${item.id}`} className="sr-only">Copy {item.name} to</label>
+          <select id={`copy-${item.id}`} className="input !py-1 !w-auto max-w-full" value={target} onChange={(e) => setTarget(e.target.value)}>
+            <option value="">Copy to…</option>
+            {targets.map((t) => <option key={t.value} value={t.value}>{t.label}</option>)}
+          </select>
+          <button type="button" className="btn btn-quiet btn-sm" disabled={!target || copy.isPending} onClick={() => copy.mutate()}>Copy</button>
+          {copy.isSuccess && <span role="status" className="text-ok">Copied</span>}
+          {!item.inherited && (
+            <button type="button" className="btn btn-quiet btn-sm !text-bad ml-auto" disabled={trash.isPending}
+              onClick={() => confirm(`Move "${item.name}" to the trash?`) && trash.mutate()}>Move to trash</button>
+          )}
+        </div>
+      )}
+      {err && <p className="notice notice-bad text-sm" role="alert">{err.message}</p>}
+    </li>
+  );
+}
+
+function Trash({ owner, canEdit }: Props) {
+  const qc = useQueryClient();
+  const param = owner.kind === 'device' ? 'deviceId' : 'profileId';
+  const q = useQuery({ queryKey: commandKeys.list(owner, true), queryFn: () => api<{ items: Item[] }>(`/api/commands?${param}=${owner.id}&trashed=true`) });
+  const restore = useMutation({
+    mutationFn: async (item: Item) => {
+      const h = await api<{ version: number; items: { id: string }[] }>(`/api/commands/${item.id}/revisions`);
+      return api(`/api/commands/${item.id}/restore`, { body: { revisionId: h.items[0]!.id, version: h.version } });
+    },
+    onSuccess: () => qc.invalidateQueries({ queryKey: commandKeys.all() }),
+  });
+  if (!q.data?.items.length) return null;
+  return (
+    <details className="mt-4">
+      <summary className="cursor-pointer text-sm">In the trash ({q.data.items.length})</summary>
+      <ul className="grid gap-1 mt-2 text-sm">
+        {q.data.items.map((i) => (
+          <li key={i.id} className="flex items-center gap-2">{i.name}
+            {canEdit && <button type="button" className="btn btn-quiet btn-sm" onClick={() => restore.mutate(i)}>Restore</button>}
+          </li>
+        ))}
+      </ul>
+    </details>
+  );
+}
+
+function Library(props: Props) {
+  const { owner, basePath, canEdit } = props;
+  const param = owner.kind === 'device' ? 'deviceId' : 'profileId';
+  const q = useQuery({ queryKey: commandKeys.list(owner), queryFn: () => api<{ items: Item[] }>(`/api/commands?${param}=${owner.id}`) });
+  const targets = useTargets(canEdit);
+  if (q.isPending) return <p>Loading commands…</p>;
+  if (q.isError) return <p className="notice notice-bad" role="alert">{q.error.message}</p>;
+  const list = (targets.data ?? []).filter((t) => t.value !== `${owner.kind}:${owner.id}`);
+  return (
+    <div>
+      {q.data.items.length === 0 && <p className="text-muted">No commands yet.</p>}
+      <ul className="grid gap-3" data-testid="command-list">
+        {q.data.items.map((i) => <Row key={i.id} item={i} basePath={basePath} canEdit={canEdit} targets={list} />)}
+      </ul>
+      <Trash {...props} />
+    </div>
+  );
+}
+
+export default function CommandLibrary(props: Props) {
+  return (
+    <QueryProvider>
+      <Library {...props} />
+    </QueryProvider>
+  );
+}

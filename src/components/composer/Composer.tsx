@@ -1,0 +1,127 @@
+/**
+ * The command composer island: segment editor, field values, live preview, timing, wire picture and
+ * reply decoder over the frame engine. Used on device and profile pages and on the public workbench.
+ */
+import { useMemo, useState, type ReactNode } from 'react';
+import { previewFrame } from '../../lib/frame/preview';
+import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
+import { templateSchema, type Template } from '../../lib/frame/template';
+import { starterTemplate } from '../../lib/composer/segments';
+import { timingSummary } from '../../lib/composer/timing';
+import { wireLayout } from '../../lib/composer/wire';
+import { decodeReplyLength } from '../../lib/composer/reply-length';
+import { MachineryCaution } from './Caution';
+import { CommandDetails } from './CommandDetails';
+import { PortPicker } from './PortPicker';
+import { PreviewPanel } from './PreviewPanel';
+import { ReplyDecoder } from './ReplyDecoder';
+import { Section } from './Section';
+import { SegmentEditor } from './SegmentEditor';
+import { TimingPanel } from './TimingPanel';
+import { ValuesForm } from './ValuesForm';
+import { WirePicture } from './WirePicture';
+import type { CommandDraft, NamedPort } from './types';
+
+export interface ComposerCoreProps {
+  initial: CommandDraft;
+  ports: NamedPort[];
+  readOnly: boolean;
+  /** Replaces the port picker (the workbench edits its own settings). */
+  portSlot?: (settings: PortSettings, set: (s: PortSettings) => void) => ReactNode;
+  /** Rendered under the details: save bar, copy action, history. */
+  footer?: (draft: CommandDraft, valid: boolean, replace: (d: CommandDraft) => void) => ReactNode;
+  /** Shown above everything (e.g. the inherited-command notice). */
+  banner?: ReactNode;
+  showDetails?: boolean;
+}
+
+function useValidTemplate(t: Template | null): { valid: Template | null; error: string | null } {
+  const [last, setLast] = useState<Template | null>(t);
+  const r = useMemo(() => (t ? templateSchema.safeParse(t) : null), [t]);
+  if (r?.success && r.data !== last && JSON.stringify(r.data) !== JSON.stringify(last)) setLast(r.data);
+  const issue = r && !r.success ? r.error.issues[0] : undefined;
+  return { valid: r?.success ? r.data : last, error: issue ? `${issue.path.join('.')}: ${issue.message}` : null };
+}
+
+export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banner, showDetails = true }: ComposerCoreProps) {
+  const [draft, setDraft] = useState<CommandDraft>(initial);
+  const [formKey, setFormKey] = useState(0);
+  const [ownSettings, setOwnSettings] = useState<PortSettings>(ports[0]?.settings ?? defaultPortSettings);
+  const patch = (p: Partial<CommandDraft>) => setDraft((d) => ({ ...d, ...p }));
+  const port = ports.find((p) => p.name === draft.portName) ?? ports[0];
+  const settings = portSlot ? ownSettings : port?.settings ?? defaultPortSettings;
+  const rules = settings.frameRules;
+  const request = useValidTemplate(draft.template);
+  const reply = useValidTemplate(draft.replyTemplate);
+  const template = request.valid ?? { version: 1 as const, segments: [] };
+  const preview = useMemo(() => previewFrame(template, draft.fieldValues, settings), [template, draft.fieldValues, settings]);
+  const replyBytes = draft.replyTemplate && reply.valid ? decodeReplyLength(reply.valid) : null;
+  const timing = useMemo(() => timingSummary(settings, preview.byteCount, replyBytes), [settings, preview.byteCount, replyBytes]);
+  const wire = useMemo(() => wireLayout(preview.bytes, settings), [preview.bytes, settings]);
+  const fieldSignature = JSON.stringify(template.segments.filter((s) => 'name' in s));
+  const replace = (d: CommandDraft) => { setDraft(d); setFormKey((k) => k + 1); };
+  const valid = !request.error && !reply.error && !!draft.name.trim();
+
+  return (
+    <div className="grid gap-4">
+      {banner}
+      {draft.movesMachinery && <MachineryCaution />}
+      {showDetails && (
+        <Section title="Command" id="details">
+          <CommandDetails draft={draft} onChange={patch} readOnly={readOnly} />
+        </Section>
+      )}
+      <div className="grid gap-4 lg:grid-cols-2 items-start">
+        <div className="grid gap-4 min-w-0">
+          <Section title="Port" id="port">
+            {portSlot ? portSlot(ownSettings, setOwnSettings) : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => patch({ portName })} />}
+          </Section>
+          <Section title="Segments" id="segments">
+            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+              onChange={(t) => patch({ template: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+            {request.error && <p className="notice notice-bad text-sm mt-2" role="alert">{request.error}</p>}
+          </Section>
+          <Section title="Values" id="values">
+            <ValuesForm key={`${formKey}:${fieldSignature}`} template={template} values={draft.fieldValues} rawUnits={draft.rawUnits} onChange={(fieldValues) => patch({ fieldValues })} />
+          </Section>
+        </div>
+        <div className="grid gap-4 min-w-0">
+          <Section title="Preview" id="preview">
+            <PreviewPanel preview={preview} template={template} />
+          </Section>
+          <Section title="Timing" id="timing">
+            <TimingPanel timing={timing} />
+          </Section>
+          <Section title="On the wire" id="wire">
+            <WirePicture layout={wire} shorthand={timing.shorthand} />
+          </Section>
+        </div>
+      </div>
+      <Section title="Reply" id="reply"
+        aside={!readOnly && (
+          <label className="text-sm flex items-center gap-2">
+            <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules) : null })} />
+            The device answers this command
+          </label>
+        )}>
+        {draft.replyTemplate ? (
+          <div className="grid gap-4 lg:grid-cols-2">
+            <div className="min-w-0">
+              <h3 className="font-semibold mb-1">Expected reply</h3>
+              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+                onChange={(t) => patch({ replyTemplate: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+              {reply.error && <p className="notice notice-bad text-sm mt-2" role="alert">{reply.error}</p>}
+            </div>
+            <div className="min-w-0">
+              <h3 className="font-semibold mb-1">Decode a received reply</h3>
+              {reply.valid && <ReplyDecoder template={reply.valid} />}
+            </div>
+          </div>
+        ) : (
+          <p className="text-sm text-muted">No reply expected. Tick the box to describe the answer and decode replies.</p>
+        )}
+      </Section>
+      {footer?.(draft, valid, replace)}
+    </div>
+  );
+}

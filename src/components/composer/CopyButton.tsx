@@ -1,0 +1,27 @@
+import { useEffect, useState } from 'react';
+
+/** Copies `text` with navigator.clipboard and says so for two seconds (or says why it could not). */
+export function CopyButton({ text, label }: { text: string; label: string }) {
+  const [state, setState] = useState<'idle' | 'copied' | 'failed'>('idle');
+  useEffect(() => {
+    if (state === 'idle') return;
+    const t = setTimeout(() => setState('idle'), 2000);
+    return () => clearTimeout(t);
+  }, [state]);
+  const copy = async () => {
+    try {
+      await navigator.clipboard.writeText(text);
+      setState('copied');
+    } catch {
+      setState('failed');
+    }
+  };
+  return (
+    <span className="inline-flex items-center gap-2">
+      <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-label={`Copy ${label}`}>Copy</button>
+      <span role="status" aria-live="polite" className={state === 'failed' ? 'text-bad text-sm' : 'text-ok text-sm'}>
+        {state === 'copied' ? 'Copied' : state === 'failed' ? 'Copy blocked; select the text instead' : ''}
+      </span>
+    </span>
+  );
+}

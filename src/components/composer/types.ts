@@ -1,0 +1,26 @@
+import type { PortSettings } from '../../lib/frame/port-settings';
+import type { FieldValues, Template } from '../../lib/frame/template';
+
+/** The editable part of a command, as the composer holds it. */
+export interface CommandDraft {
+  name: string;
+  purpose: string;
+  notes: string;
+  movesMachinery: boolean;
+  template: Template;
+  fieldValues: FieldValues;
+  replyTemplate: Template | null;
+  portName: string;
+  rawUnits: Record<string, string>;
+}
+
+export interface NamedPort {
+  name: string;
+  settings: PortSettings;
+}
+
+export const DRAFT_KEYS = ['name', 'purpose', 'notes', 'movesMachinery', 'template', 'fieldValues', 'replyTemplate', 'portName', 'rawUnits'] as const;
+
+export function draftOf(c: CommandDraft): CommandDraft {
+  return Object.fromEntries(DRAFT_KEYS.map((k) => [k, c[k]])) as unknown as CommandDraft;
+}

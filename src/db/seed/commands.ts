@@ -1,0 +1,48 @@
+/**
+ * Demo commands on the seamer drive DRV-501, in the demo drive syntax of src/lib/composer/demo.ts
+ * (our own invention). The drive gets a service port at 9600 8-N-1 for them. Fixed ids: idempotent.
+ */
+import { db } from '../client';
+import { command, commandRevision, port, revision } from '../schema';
+import { portSettingsSchema } from '../../lib/frame/port-settings';
+import { indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../lib/composer/demo';
+import { snapshotOf } from '../../lib/server/commands/records';
+import { DEMO_ACCOUNTS, DEMO_TEAM_ID } from './platform';
+import type { Role } from '../../lib/permissions';
+
+export const DEMO_DRIVE_ID = 'dev_demo_drv501';
+export const DEMO_SERVICE_PORT = 'Service RS-232';
+
+const servicePort = {
+  id: 'port_demo_drv501_svc', name: DEMO_SERVICE_PORT, position: 1,
+  settings: portSettingsSchema.parse({ interface: 'rs232', baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, protocol: 'ascii', turnaroundDelayMs: 2,
+    frameRules: { terminator: '0D', byteSet: 'printable', letterCase: 'upper', maxLength: 64, addressRange: { min: 1, max: 31 }, addressField: 'address' } }),
+  wiring: [{ pin: '2', signal: 'RXD', colour: 'red' }, { pin: '3', signal: 'TXD', colour: 'white' }, { pin: '5', signal: 'GND', colour: 'black' }],
+  notes: 'Front service socket; ASCII commands, one per carriage return.',
+};
+
+const commands = [
+  { id: 'cmd_demo_drv501_index', name: 'Index 45°', purpose: 'Index the turret one station (45°) with ramps and speed', template: indexMoveTemplate,
+    fieldValues: { address: 1, angle: 45, accel: 5, decel: 5, speed: 0.5 }, movesMachinery: true,
+    rawUnits: { angle: 'steps', accel: 'steps/s²', decel: 'steps/s²', speed: 'steps/s' }, notes: 'Drive set to 36,000 steps per revolution (parameter group 3).' },
+  { id: 'cmd_demo_drv501_jog_fwd', name: 'Jog +1°', purpose: 'Jog forward one degree for setting up', template: jogTemplate('+'), fieldValues: { address: 1, angle: 1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
+  { id: 'cmd_demo_drv501_jog_rev', name: 'Jog −1°', purpose: 'Jog back one degree for setting up', template: jogTemplate('-'), fieldValues: { address: 1, angle: -1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
+  { id: 'cmd_demo_drv501_status', name: 'Status query', purpose: 'Ask the position and state; the answer carries an XOR-8 check', template: statusQueryTemplate,
+    fieldValues: { address: 1 }, replyTemplate: statusReplyTemplate, movesMachinery: false, rawUnits: { position: 'steps' }, notes: 'Example reply: 1=STA:+0004500,R*14 then CR.' },
+];
+
+export async function seedCommands(ids: Record<Role, string>): Promise<void> {
+  const userName = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!.name;
+  const userId = ids.engineer;
+  await db.insert(port).values({ ...servicePort, teamId: DEMO_TEAM_ID, deviceId: DEMO_DRIVE_ID, updatedBy: userId }).onConflictDoNothing();
+  const portSnap = { name: servicePort.name, position: servicePort.position, settings: servicePort.settings, wiring: servicePort.wiring, notes: servicePort.notes };
+  await db.insert(revision).values({ id: `rev_${servicePort.id}_1`, teamId: DEMO_TEAM_ID, entityType: 'port', entityId: servicePort.id, version: 1, action: 'create', userId, userName,
+    summary: `Created port ${servicePort.name}`, changes: Object.entries(portSnap).map(([field, to]) => ({ field, from: null, to })), snapshot: portSnap }).onConflictDoNothing();
+  for (const c of commands) {
+    const row = { replyTemplate: null, portName: DEMO_SERVICE_PORT, ...c } as unknown as Omit<typeof command.$inferInsert, 'teamId'> & Parameters<typeof snapshotOf>[0];
+    await db.insert(command).values({ ...row, teamId: DEMO_TEAM_ID, deviceId: DEMO_DRIVE_ID, updatedBy: userId }).onConflictDoNothing();
+    const snapshot = snapshotOf(row);
+    await db.insert(commandRevision).values({ id: `crev_${c.id}_1`, teamId: DEMO_TEAM_ID, commandId: c.id, version: 1, action: 'create', userId, userName,
+      summary: `Created command ${c.name}`, changes: Object.entries(snapshot).map(([field, to]) => ({ field, from: null, to })), snapshot }).onConflictDoNothing();
+  }
+}

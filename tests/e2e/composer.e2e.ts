@@ -1,0 +1,165 @@
+/** The command composer in Chromium: the acceptance example built through the UI, copy, reply decoding, the public workbench. */
+import { afterEach, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { DESKTOP, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+
+let browsers: Browser[] = [];
+async function browser(options?: Parameters<typeof openBrowser>[0]) {
+  const b = await openBrowser(options);
+  browsers.push(b);
+  return b;
+}
+afterEach(async () => {
+  await Promise.all(browsers.map((b) => b.close()));
+  browsers = [];
+});
+
+const DRIVE = '/vault/devices/dev_demo_drv501/commands';
+const notation = (page: Page, id: string) => page.getByTestId(`notation-${id}`).textContent();
+
+async function addText(page: Page, text: string) {
+  await page.locator('#req-add-kind').selectOption('text');
+  await page.locator('#req-add-text').fill(text);
+  await page.getByRole('group', { name: 'Add a segment' }).getByRole('button', { name: 'Add segment' }).click();
+}
+
+async function addNumber(page: Page, f: { name: string; label: string; unit: string; raw: string; spr?: number; factor?: number; sign?: 'always' }) {
+  await page.locator('#req-add-kind').selectOption('integer');
+  await page.getByRole('group', { name: 'Add a segment' }).getByRole('button', { name: 'Add segment' }).click();
+  const seg = page.getByTestId('segments');
+  await seg.getByLabel('Name (key)').fill(f.name);
+  await seg.getByLabel('Label', { exact: true }).fill(f.label);
+  await seg.getByLabel('Unit', { exact: true }).fill(f.unit);
+  await seg.getByLabel('Raw unit').fill(f.raw);
+  if (f.spr) await seg.getByLabel('Steps per revolution').fill(String(f.spr));
+  if (f.factor) await seg.getByLabel('Scale factor (raw per unit)').fill(String(f.factor));
+  if (f.sign) await seg.getByLabel('Sign').selectOption(f.sign);
+}
+
+/** Keystroke-to-preview time: keydown timestamp to the mutation of the PLC literal, measured inside the page. */
+async function measureUpdate(page: Page, inputId: string, keys: string[]): Promise<number[]> {
+  await page.evaluate(() => {
+    const w = window as unknown as { __t0: number; __times: number[] };
+    w.__times = [];
+    document.addEventListener('keydown', () => (w.__t0 = performance.now()), { capture: true });
+    const target = document.querySelector('[data-testid="notation-iecLiteral"]')!;
+    new MutationObserver(() => w.__times.push(performance.now() - w.__t0)).observe(target, { subtree: true, characterData: true, childList: true });
+  });
+  await page.locator(`#${inputId}`).focus();
+  for (const k of keys) {
+    const before = await page.evaluate(() => (window as unknown as { __times: number[] }).__times.length);
+    await page.keyboard.press(k);
+    await page.waitForFunction((n) => (window as unknown as { __times: number[] }).__times.length > n, before);
+  }
+  return page.evaluate(() => (window as unknown as { __times: number[] }).__times);
+}
+
+describe('command composer in the browser', () => {
+  it('builds the 45° index move from an empty command, shows every notation, copies the PLC literal and saves', async () => {
+    const b = await browser({ viewport: DESKTOP });
+    await signIn(b.page, 'engineer@fernhollow.test');
+    await visit(b.page, `${DRIVE}/new`);
+    const page = b.page;
+    await page.getByLabel('Command name').fill('Index 45° (built in test)');
+    await page.getByLabel('This command moves machinery').check();
+    await page.getByTestId('machinery-caution').waitFor();
+    await page.getByLabel('Sent on port').selectOption('Service RS-232');
+
+    await addText(page, '1!idx:');
+    await addNumber(page, { name: 'angle', label: 'Index angle', unit: '°', raw: 'steps', spr: 36000, sign: 'always' });
+    await addText(page, '/R');
+    await addNumber(page, { name: 'accel', label: 'Acceleration', unit: 'rev/s²', raw: 'steps/s²', factor: 36000 });
+    await addText(page, '/F');
+    await addNumber(page, { name: 'decel', label: 'Deceleration', unit: 'rev/s²', raw: 'steps/s²', factor: 36000 });
+    await addText(page, '/S');
+    await addNumber(page, { name: 'speed', label: 'Velocity', unit: 'rev/s', raw: 'steps/s', factor: 36000 });
+
+    await page.getByLabel('Index angle (°)').fill('45');
+    await page.getByLabel('Acceleration (rev/s²)').fill('5');
+    await page.getByLabel('Deceleration (rev/s²)').fill('5');
+    await page.getByLabel('Velocity (rev/s)').fill('0.5');
+    await expect.poll(() => page.getByTestId('both-angle').textContent()).toBe('45 ° = 4500 steps');
+
+    const text = '1!IDX:+4500/R180000/F180000/S18000';
+    expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
+    expect(await notation(page, 'iec')).toBe(`${text}$0D`);
+    expect(await notation(page, 'escaped')).toBe(`${text}\\r`);
+    expect(await notation(page, 'mnemonic')).toBe(`${text}<CR>`);
+    expect(await notation(page, 'hex')).toBe([...`${text}\r`].map((c) => c.charCodeAt(0).toString(16).toUpperCase().padStart(2, '0')).join(' '));
+    expect(await notation(page, 'decimal')).toBe([...`${text}\r`].map((c) => c.charCodeAt(0)).join(' '));
+    expect((await notation(page, 'wordsHex'))!.split(' ')).toHaveLength(18);
+    expect(await page.getByTestId('byte-count').textContent()).toBe('35');
+    expect(await page.getByTestId('char-count').textContent()).toBe(String(text.length + 5));
+    expect(await page.locator('[data-timing="frame"] td').first().textContent()).toBe('36.458 ms');
+    expect(await page.getByTestId('no-findings').count()).toBe(1);
+
+    await page.getByTestId('byte-cells').getByRole('button').nth(7).focus();
+    expect(await page.getByTestId('byte-detail').textContent()).toContain('Field Index angle');
+
+    await page.getByRole('button', { name: 'Copy PLC string literal' }).click();
+    await page.getByTestId('notation-iecLiteral').locator('..').getByText('Copied').waitFor();
+    expect(await page.evaluate(() => navigator.clipboard.readText())).toBe(`'${text}$0D'`);
+    await shot(page, 'composer-index-move-desktop');
+
+    const times = await measureUpdate(page, 'value-angle', ['Backspace', 'Backspace', '9', '0', 'Backspace', 'Backspace', '4', '5']);
+    const sorted = [...times].sort((a, b) => a - b);
+    console.log(`[composer] keystroke → preview update (ms): ${times.map((t) => t.toFixed(1)).join(', ')}; median ${sorted[Math.floor(sorted.length / 2)]!.toFixed(1)} ms, max ${sorted.at(-1)!.toFixed(1)} ms`);
+    expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
+
+    await page.getByRole('button', { name: 'Save command' }).click();
+    await page.waitForURL(/\/commands\/cmd_/);
+    await page.getByText('Saved · version 1').waitFor();
+    expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
+  });
+
+  it('shows the jogs as PLC literals and decodes a reply with a bad checksum, at phone width', async () => {
+    const b = await browser({ viewport: PHONE });
+    await signIn(b.page, 'engineer@fernhollow.test');
+    const page = b.page;
+    await visit(page, DRIVE);
+    await page.getByTestId('command-list').getByRole('link', { name: 'Jog +1°' }).waitFor();
+    await shot(page, 'composer-library-phone');
+    for (const [id, literal] of [['cmd_demo_drv501_jog_fwd', "'1!JOG:+100$0D'"], ['cmd_demo_drv501_jog_rev', "'1!JOG:-100$0D'"]]) {
+      await visit(page, `${DRIVE}/${id}`);
+      expect(await notation(page, 'iecLiteral')).toBe(literal);
+      expect(await page.getByTestId('byte-count').textContent()).toBe('11');
+      expect(await page.locator('[data-timing="frame"] td').first().textContent()).toBe('11.458 ms');
+    }
+    await shot(page, 'composer-jog-phone');
+
+    await visit(page, `${DRIVE}/cmd_demo_drv501_status`);
+    expect(await notation(page, 'iecLiteral')).toBe("'1?STA*48$0D'");
+    await page.getByLabel('Received reply').fill('1=STA:+0004500,R*15$0D');
+    const verdict = page.getByTestId('checksum-verdict');
+    await expect.poll(() => verdict.getAttribute('data-ok')).toBe('false');
+    expect(await verdict.textContent()).toContain('expected 0x14, received 0x15');
+    expect(await page.getByTestId('reply-result').locator('[data-code="checksum-mismatch"]').count()).toBe(1);
+    expect(await page.getByTestId('reply-fields').textContent()).toContain('45');
+    await page.getByLabel('Received reply').fill('31 3D 53 54 41 3A 2B 30 30 30 34 35 30 30 2C 52 2A 31 34 0D');
+    await expect.poll(() => verdict.getAttribute('data-ok')).toBe('true');
+    expect(await page.locator('[data-timing="reply"] td').first().textContent()).toBe('20.833 ms');
+    await page.getByLabel('Received reply').fill('1=STA:+0004500,R*15$0D');
+    await shot(page, 'composer-reply-phone');
+  });
+
+  it('works signed out on the public workbench and asks to sign in to save', async () => {
+    for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
+      const b = await browser({ viewport });
+      const page = b.page;
+      await visit(page, '/workbench');
+      await page.locator('#req-add-kind').selectOption('text');
+      await page.locator('#req-add-text').fill('HELLO');
+      await page.getByRole('button', { name: 'Add segment' }).click();
+      expect(await notation(page, 'iecLiteral')).toBe("'HELLO$0D'");
+      await page.getByLabel('Baud').selectOption('19200');
+      expect(await page.locator('[data-timing="char"] td').first().textContent()).toBe('0.521 ms');
+      await page.getByLabel('Bytes, in any notation').fill('02 41 42 03');
+      expect(await page.getByTestId('checksums').getByRole('row', { name: /XOR-8/ }).textContent()).toContain('0x02');
+      const link = page.getByTestId('sign-in-to-save');
+      expect(await link.getAttribute('href')).toBe('/sign-in?next=%2Fworkbench');
+      await shot(page, `workbench-${name}`);
+      await b.close();
+      browsers = browsers.filter((x) => x !== b);
+    }
+  });
+});
