@@ -14,3 +14,8 @@ export const extraPublicRoutes: PublicRoute[] = [
 // Command library (issue 5).
 import { commandCases } from './command-cases';
 extraCases.push(...commandCases);
+
+// Field work and sharing (issue 6).
+import { fieldCases, fieldPublicRoutes } from './field-cases';
+extraCases.push(...fieldCases);
+extraPublicRoutes.push(...fieldPublicRoutes);

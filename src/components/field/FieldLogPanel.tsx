@@ -1,0 +1,138 @@
+import { useState } from 'react';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { QueryProvider } from '../QueryProvider';
+import { api, ApiError } from '../../lib/client/api';
+import { fieldKeys } from './keys';
+import { FIELD_LOG_LABELS, FIELD_LOG_KINDS } from '../../lib/schemas/field';
+import { PhotoPicker, type Uploaded } from './PhotoPicker';
+import { Thumb } from './Thumb';
+
+type Kind = (typeof FIELD_LOG_KINDS)[number];
+interface Annotation { id: string; note: string; userName: string; createdAt: string }
+interface Entry {
+  id: string; kind: Kind; note: string; newSerialNumber: string; appliedVersion: number | null; foundSettings: string;
+  deviceVersion: number; userName: string; createdAt: string; annotations: Annotation[];
+  photos: { id: string; url: string; fileName: string }[];
+}
+interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number }
+
+const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+function NewEntry({ deviceId, cardRevision }: { deviceId: string; cardRevision: number }) {
+  const qc = useQueryClient();
+  const [kind, setKind] = useState<Kind>('verified');
+  const [serial, setSerial] = useState('');
+  const [applied, setApplied] = useState(String(cardRevision));
+  const [found, setFound] = useState('');
+  const [note, setNote] = useState('');
+  const [photos, setPhotos] = useState<Uploaded[]>([]);
+  const m = useMutation({
+    mutationFn: () => api<Entry>(`/api/devices/${deviceId}/field-log`, {
+      body: {
+        kind, note, photoIds: photos.map((p) => p.id),
+        ...(kind === 'replacement' ? { newSerialNumber: serial, appliedVersion: Number(applied) } : {}),
+        ...(kind === 'found-different' ? { foundSettings: found } : {}),
+      },
+    }),
+    onSuccess: () => {
+      setSerial(''); setFound(''); setNote(''); setPhotos([]);
+      qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) });
+    },
+  });
+  const fields = m.error instanceof ApiError ? m.error.fields : {};
+  return (
+    <form className="card grid gap-3" onSubmit={(e) => { e.preventDefault(); m.mutate(); }} aria-label="New field-log entry">
+      <h2>Log what you did</h2>
+      <fieldset className="grid gap-2 sm:grid-cols-3">
+        <legend className="label">What happened</legend>
+        {FIELD_LOG_KINDS.map((k) => (
+          <label key={k} className={`flex items-center gap-2 rounded-md border-2 p-3 text-base font-semibold cursor-pointer ${kind === k ? 'border-ink bg-ink text-white' : 'border-line bg-white'}`}>
+            <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => setKind(k)} className="size-5" />
+            {FIELD_LOG_LABELS[k]}
+          </label>
+        ))}
+      </fieldset>
+      {kind === 'replacement' && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <label className="grid gap-1"><span className="label">Serial number of the unit fitted</span>
+            <input className="input text-lg" value={serial} onChange={(e) => setSerial(e.target.value)} aria-invalid={!!fields.newSerialNumber} autoComplete="off" />
+            {fields.newSerialNumber && <span className="field-error">{fields.newSerialNumber}</span>}</label>
+          <label className="grid gap-1"><span className="label">Settings loaded from card revision</span>
+            <input className="input text-lg" type="number" inputMode="numeric" min={1} max={cardRevision} value={applied} onChange={(e) => setApplied(e.target.value)} aria-invalid={!!fields.appliedVersion} />
+            {fields.appliedVersion && <span className="field-error">{fields.appliedVersion}</span>}</label>
+        </div>
+      )}
+      {kind === 'found-different' && (
+        <label className="grid gap-1"><span className="label">What you found set on the device</span>
+          <textarea className="input text-lg" rows={3} value={found} onChange={(e) => setFound(e.target.value)} placeholder="e.g. 19200 8-E-1, address 4, termination off" aria-invalid={!!fields.foundSettings} />
+          {fields.foundSettings && <span className="field-error">{fields.foundSettings}</span>}</label>
+      )}
+      <label className="grid gap-1"><span className="label">Note</span>
+        <textarea className="input" rows={2} value={note} onChange={(e) => setNote(e.target.value)} /></label>
+      <PhotoPicker deviceId={deviceId} photos={photos} onChange={setPhotos} />
+      {m.isError && <p className="notice notice-bad" role="alert">{m.error.message}</p>}
+      {m.isSuccess && <p className="notice notice-ok" role="status">Entry saved to the field log.</p>}
+      <button className="btn justify-center text-lg min-h-12" disabled={m.isPending}>{m.isPending ? 'Saving…' : 'Save entry'}</button>
+      <p className="text-sm text-muted">Entries cannot be edited afterwards; add an annotation to correct or complete one.</p>
+    </form>
+  );
+}
+
+function Annotate({ entry, deviceId }: { entry: Entry; deviceId: string }) {
+  const qc = useQueryClient();
+  const [note, setNote] = useState('');
+  const m = useMutation({
+    mutationFn: () => api(`/api/field-log/${entry.id}/annotations`, { body: { note } }),
+    onSuccess: () => { setNote(''); qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) }); },
+  });
+  return (
+    <form className="flex flex-wrap gap-2 mt-2" onSubmit={(e) => { e.preventDefault(); m.mutate(); }}>
+      <label className="sr-only" htmlFor={`ann-${entry.id}`}>Annotation</label>
+      <input id={`ann-${entry.id}`} className="input flex-1 min-w-48" value={note} onChange={(e) => setNote(e.target.value)} placeholder="Add an annotation" />
+      <button className="btn btn-quiet min-h-11" disabled={m.isPending}>Annotate</button>
+      {m.isError && <p className="field-error w-full" role="alert">{m.error.message}</p>}
+    </form>
+  );
+}
+
+function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; canAnnotate: boolean }) {
+  return (
+    <li className="card grid gap-1" data-testid="log-entry" data-kind={e.kind}>
+      <p className="font-semibold text-lg">{FIELD_LOG_LABELS[e.kind]}</p>
+      <p className="text-sm text-muted">{when(e.createdAt)} · {e.userName} · card revision {e.deviceVersion}</p>
+      {e.kind === 'replacement' && <p>New unit S/N <strong className="mono">{e.newSerialNumber}</strong>, settings from card revision <strong>{e.appliedVersion}</strong></p>}
+      {e.kind === 'found-different' && <p>Found on site: <strong className="whitespace-pre-wrap">{e.foundSettings}</strong></p>}
+      {e.note && <p className="whitespace-pre-wrap">{e.note}</p>}
+      {e.photos.length > 0 && <div className="flex flex-wrap gap-2">{e.photos.map((p) => <Thumb key={p.id} url={p.url} name={p.fileName} />)}</div>}
+      {e.annotations.length > 0 && (
+        <ul className="mt-1 border-l-4 border-line pl-3 grid gap-1" aria-label="Annotations">
+          {e.annotations.map((a) => <li key={a.id} className="text-sm"><span className="text-muted">{when(a.createdAt)} · {a.userName}:</span> {a.note}</li>)}
+        </ul>
+      )}
+      {canAnnotate && <Annotate entry={e} deviceId={deviceId} />}
+    </li>
+  );
+}
+
+function Panel({ deviceId, cardRevision, canCreate, canAnnotate, limit }: Props) {
+  const q = useQuery({ queryKey: fieldKeys.log(deviceId), queryFn: () => api<{ items: Entry[] }>(`/api/devices/${deviceId}/field-log`) });
+  const items = q.data?.items ?? [];
+  const shown = limit ? items.slice(0, limit) : items;
+  return (
+    <div className="grid gap-4">
+      {canCreate && <NewEntry deviceId={deviceId} cardRevision={cardRevision} />}
+      <section className="grid gap-2" aria-label="Field log">
+        <h2>Field log</h2>
+        {q.isPending && <p>Loading the field log…</p>}
+        {q.isError && <p className="notice notice-bad" role="alert">{q.error.message}</p>}
+        {q.isSuccess && items.length === 0 && <p className="text-muted">Nothing logged at this device yet.</p>}
+        <ul className="grid gap-2">{shown.map((e) => <EntryItem key={e.id} e={e} deviceId={deviceId} canAnnotate={canAnnotate} />)}</ul>
+        {limit && items.length > limit && <p><a href={`/field/devices/${deviceId}/log`}>All {items.length} entries</a></p>}
+      </section>
+    </div>
+  );
+}
+
+export default function FieldLogPanel(props: Props) {
+  return <QueryProvider><Panel {...props} /></QueryProvider>;
+}

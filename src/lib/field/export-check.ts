@@ -1,0 +1,84 @@
+/** Checks on an export document that a schema cannot express, and the id-free form used to compare two exports. */
+
+interface Doc {
+  sites: { id: string }[];
+  machines: { id: string; siteId: string }[];
+  profiles: { id: string }[];
+  devices: { id: string; machineId: string; profileId: string | null; tag: string }[];
+  ports: { id: string; deviceId: string; name: string }[];
+  links: { id: string; machineId: string; name: string; members: { portId: string }[] }[];
+  commands: { id: string; deviceId: string | null; profileId: string | null; name: string }[];
+}
+
+/** Every reference resolves inside the document, ids are unique and port names are unique per device. Answers problems in words. */
+export function documentProblems(doc: Doc, max = 20): string[] {
+  const out: string[] = [];
+  const add = (msg: string) => out.length < max && out.push(msg);
+  const ids = new Set<string>();
+  const unique = (list: { id: string }[], what: string) => {
+    for (const r of list) {
+      if (ids.has(r.id)) add(`${what} ${r.id}: the id is used twice in the document`);
+      ids.add(r.id);
+    }
+    return new Set(list.map((r) => r.id));
+  };
+  const sites = unique(doc.sites, 'site');
+  const machines = unique(doc.machines, 'machine');
+  const profiles = unique(doc.profiles, 'profile');
+  const devices = unique(doc.devices, 'device');
+  unique(doc.ports, 'port');
+  unique(doc.links, 'link');
+  unique(doc.commands, 'command');
+  for (const m of doc.machines) if (!sites.has(m.siteId)) add(`machine ${m.id}: its site ${m.siteId} is not in the document`);
+  for (const d of doc.devices) {
+    if (!machines.has(d.machineId)) add(`device ${d.tag}: its machine ${d.machineId} is not in the document`);
+    if (d.profileId && !profiles.has(d.profileId)) add(`device ${d.tag}: its profile ${d.profileId} is not in the document`);
+  }
+  const portDevice = new Map<string, string>();
+  const names = new Set<string>();
+  for (const p of doc.ports) {
+    if (!devices.has(p.deviceId)) add(`port ${p.name}: its device ${p.deviceId} is not in the document`);
+    const key = `${p.deviceId}\u0000${p.name.toLowerCase()}`;
+    if (names.has(key)) add(`port ${p.name}: two ports of device ${p.deviceId} have this name`);
+    names.add(key);
+    portDevice.set(p.id, p.deviceId);
+  }
+  const deviceMachine = new Map(doc.devices.map((d) => [d.id, d.machineId]));
+  for (const l of doc.links) {
+    if (!machines.has(l.machineId)) add(`link ${l.name}: its machine ${l.machineId} is not in the document`);
+    for (const m of l.members) {
+      const dev = portDevice.get(m.portId);
+      if (!dev) add(`link ${l.name}: member port ${m.portId} is not in the document`);
+      else if (deviceMachine.get(dev) !== l.machineId) add(`link ${l.name}: member port ${m.portId} is on another machine`);
+    }
+  }
+  for (const c of doc.commands) {
+    if ((c.deviceId === null) === (c.profileId === null)) add(`command ${c.name}: give exactly one of deviceId and profileId`);
+    else if (c.deviceId && !devices.has(c.deviceId)) add(`command ${c.name}: its device ${c.deviceId} is not in the document`);
+    else if (c.profileId && !profiles.has(c.profileId)) add(`command ${c.name}: its profile ${c.profileId} is not in the document`);
+  }
+  return out;
+}
+
+const REF_KEYS = ['id', 'siteId', 'machineId', 'deviceId', 'profileId', 'portId'] as const;
+
+/**
+ * The document with every id replaced by its record's position (`#3`) and the header (team, time)
+ * left out: two exports of the same data compare equal whatever ids the records have.
+ */
+export function withoutIds(doc: Doc & Record<string, unknown>): Record<string, unknown> {
+  const ordinal = new Map<string, string>();
+  for (const section of ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const) {
+    (doc[section] as { id: string }[]).forEach((r, i) => ordinal.set(r.id, `${section}#${i}`));
+  }
+  const strip = (v: unknown): unknown => {
+    if (Array.isArray(v)) return v.map(strip);
+    if (v && typeof v === 'object') {
+      return Object.fromEntries(Object.entries(v).map(([k, x]) =>
+        [k, (REF_KEYS as readonly string[]).includes(k) && typeof x === 'string' ? (ordinal.get(x) ?? `?${x}`) : strip(x)]));
+    }
+    return v;
+  };
+  const { format, version, sites, machines, profiles, devices, ports, links, commands } = doc;
+  return { format, version, ...(strip({ sites, machines, profiles, devices, ports, links, commands }) as object) };
+}

@@ -1,0 +1,116 @@
+/** Request schemas for field work and sharing: field log, attachments, share links, import and export. */
+import { z } from 'zod';
+import { templateSchema } from '../frame/template';
+import { emailSchema } from './platform';
+import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, wiringRowSchema } from './vault';
+
+export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
+export const ATTACHMENT_KINDS = ['manual', 'photo', 'config'] as const;
+export const ATTACHMENT_OWNERS = ['device', 'machine'] as const;
+export const SHARE_SCOPES = ['machine', 'site'] as const;
+
+export const FIELD_LOG_LABELS: Record<(typeof FIELD_LOG_KINDS)[number], string> = {
+  replacement: 'Replacement unit fitted',
+  verified: 'Communication verified',
+  'found-different': 'Settings found different on site',
+};
+
+const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
+const id = z.string().min(1, 'Choose a record.').max(64);
+
+// ---- field log ----
+const photoIds = z.array(id).max(10, 'At most 10 photos per entry.').default([]);
+export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
+  z.strictObject({
+    kind: z.literal('replacement'),
+    newSerialNumber: text(120).min(1, 'Enter the serial number of the unit fitted.'),
+    appliedVersion: z.number({ error: 'Say which revision of the settings was loaded.' }).int().positive('Revisions start at 1.'),
+    note: text(4000).default(''),
+    photoIds,
+  }),
+  z.strictObject({ kind: z.literal('verified'), note: text(4000).default(''), photoIds }),
+  z.strictObject({
+    kind: z.literal('found-different'),
+    foundSettings: text(2000).min(1, 'Describe what you found set on the device.'),
+    note: text(4000).default(''),
+    photoIds,
+  }),
+], { error: 'Choose what happened: replacement, verified or found-different.' });
+export type FieldLogCreate = z.infer<typeof fieldLogCreateSchema>;
+
+export const annotationCreateSchema = z.strictObject({ note: text(2000).min(1, 'Write the annotation.') });
+
+// ---- attachments ----
+export const attachmentFieldsSchema = z.strictObject({
+  ownerType: z.enum(ATTACHMENT_OWNERS, { error: 'Attach to a device or a machine.' }),
+  ownerId: id,
+  kind: z.enum(ATTACHMENT_KINDS, { error: 'Choose manual, photo or config.' }),
+  name: z.string().max(300).optional(),
+});
+export const attachmentListSchema = z.strictObject({ ownerType: z.enum(ATTACHMENT_OWNERS), ownerId: id });
+
+// ---- share links ----
+export const shareCreateSchema = z.strictObject({
+  scopeType: z.enum(SHARE_SCOPES, { error: 'Share a machine or a site.' }),
+  scopeId: id,
+  label: text(120).default(''),
+  /** Last day the link works (YYYY-MM-DD, through the end of that day UTC), or a full ISO time. */
+  expiresAt: z.string().max(40).optional(),
+});
+export const shareEmailSchema = z.strictObject({ to: emailSchema, message: text(1000).default('') });
+export const cardEmailSchema = z.strictObject({ deviceId: id, to: emailSchema, message: text(1000).default('') });
+
+// ---- export / import ----
+export const EXPORT_FORMAT = 'baudbook-export';
+export const EXPORT_VERSION = 1;
+const recordId = z.string().min(1).max(64);
+
+export const exportDocumentSchema = z.strictObject({
+  format: z.literal(EXPORT_FORMAT, { error: `format must be "${EXPORT_FORMAT}".` }),
+  version: z.literal(EXPORT_VERSION, { error: `This server reads version ${EXPORT_VERSION} documents.` }),
+  exportedAt: z.string().max(40),
+  source: z.strictObject({ team: text(200), scope: z.enum(['team', 'site']), siteId: recordId.nullable() }),
+  sites: z.array(z.strictObject({ id: recordId, name: text(120).min(1), customer: text(120), address: text(300), notes: text(5000) })).max(5000),
+  machines: z.array(z.strictObject({ id: recordId, siteId: recordId, name: text(120).min(1), code: text(60), notes: text(5000) })).max(20000),
+  profiles: z.array(z.strictObject({
+    id: recordId, name: text(120).min(1), role: z.enum(DEVICE_ROLES), maker: text(120), model: text(120), notes: text(5000),
+    ports: z.array(z.strictObject({ name: text(60).min(1), settings: portSettingsInputSchema, wiring: z.array(wiringRowSchema).max(40), notes: text(5000) })).max(16),
+  })).max(5000),
+  devices: z.array(z.strictObject({
+    id: recordId, machineId: recordId, profileId: recordId.nullable(), tag: text(40).min(1), name: text(120), role: z.enum(DEVICE_ROLES),
+    maker: text(120), model: text(120), serialNumber: text(120), firmware: text(60), location: text(200), notes: text(5000),
+  })).max(100000),
+  ports: z.array(z.strictObject({
+    id: recordId, deviceId: recordId, name: text(60).min(1), position: z.number().int().min(0), settings: portSettingsInputSchema,
+    wiring: z.array(wiringRowSchema).max(40), notes: text(5000),
+  })).max(200000),
+  links: z.array(z.strictObject({
+    id: recordId, machineId: recordId, name: text(120).min(1), kind: z.enum(LINK_KINDS), cableType: text(120),
+    cableLengthM: z.number().nonnegative().max(10000).nullable(), notes: text(5000),
+    members: z.array(z.strictObject({
+      portId: recordId, role: z.enum(MEMBER_ROLES), position: z.number().int().min(0), isEnd: z.boolean().nullable(), unitLoads: z.number().positive().max(32).nullable(),
+    })).max(64),
+  })).max(50000),
+  commands: z.array(z.strictObject({
+    id: recordId, deviceId: recordId.nullable(), profileId: recordId.nullable(), name: text(120).min(1), purpose: text(500),
+    template: templateSchema, fieldValues: z.record(z.string(), z.union([z.string(), z.number(), z.null()])),
+    replyTemplate: templateSchema.nullable(), portName: text(60), rawUnits: z.record(z.string(), z.string().max(40)),
+    notes: text(5000), movesMachinery: z.boolean(),
+  })).max(100000),
+});
+export type ExportDocument = z.infer<typeof exportDocumentSchema>;
+
+export const importRequestSchema = z.strictObject({ document: z.unknown(), apply: z.boolean().default(false) });
+export const exportQuerySchema = z.strictObject({ siteId: id.optional() });
+
+// ---- CSV ----
+export const csvImportSchema = z.strictObject({
+  machineId: id,
+  csv: z.string().min(1, 'The file is empty.').max(10 * 1024 * 1024, 'CSV files up to 10 MB.'),
+  /** Our field name → the CSV column header that holds it. */
+  mapping: z.record(z.string().max(40), z.string().max(200)),
+  apply: z.boolean().default(false),
+  /** Apply the valid rows even when some rows have errors (those rows are left out). */
+  skipInvalid: z.boolean().default(false),
+});
+export type CsvImportRequest = z.infer<typeof csvImportSchema>;

@@ -1,0 +1,97 @@
+/** Field cards: a device's ports, wiring and key commands with the card's revision, for one device, a machine or a site. */
+import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
+import { db } from '../../../db/client';
+import { command, device, machine, port } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { cardCommand, cardPort, type CardCommand, type CardPort } from '../../field/card';
+import { liveDevice, liveMachine, liveSite } from './scope';
+
+type TeamRef = Pick<TeamContext, 'team'>;
+type DeviceRow = typeof device.$inferSelect;
+
+export interface DeviceCard {
+  device: Pick<DeviceRow, 'id' | 'tag' | 'name' | 'role' | 'maker' | 'model' | 'serialNumber' | 'firmware' | 'location' | 'version' | 'machineId'>;
+  ports: (CardPort & { version: number })[];
+  commands: CardCommand[];
+  /** Changes recorded to the device and its ports (the number printed on the card), and when the last one was. */
+  revision: { number: number; date: Date | null };
+}
+
+export interface MachineCards {
+  machine: { id: string; name: string; code: string; siteId: string };
+  site: { id: string; name: string; customer: string };
+  cards: DeviceCard[];
+}
+
+/** Revision count and latest date per device, over the device's own revisions and its ports' (live or trashed). */
+async function revisions(teamId: string, deviceIds: string[]): Promise<Map<string, { number: number; date: Date | null }>> {
+  if (!deviceIds.length) return new Map();
+  const list = sql.join(deviceIds.map((d) => sql`${d}`), sql`, `);
+  const rows = await db.all<{ deviceId: string; n: number; last: number | null }>(sql`
+    SELECT x.device_id AS deviceId, count(*) AS n, max(r.created_at) AS last FROM (
+      SELECT id AS entity_id, id AS device_id, 'device' AS t FROM device WHERE id IN (${list})
+      UNION ALL SELECT id, device_id, 'port' FROM port WHERE device_id IN (${list})
+    ) x JOIN revision r ON r.team_id = ${teamId} AND r.entity_id = x.entity_id AND r.entity_type = x.t
+    GROUP BY x.device_id`);
+  return new Map(rows.map((r) => [r.deviceId, { number: Number(r.n), date: r.last === null ? null : new Date(Number(r.last)) }]));
+}
+
+async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: DeviceRow) => string): Promise<DeviceCard[]> {
+  if (!devices.length) return [];
+  const ids = devices.map((d) => d.id);
+  const profileIds = devices.map((d) => d.profileId).filter((p): p is string => !!p);
+  const [ports, cmds, revs] = await Promise.all([
+    db.select().from(port).where(and(inArray(port.deviceId, ids), isNull(port.deletedAt))).orderBy(asc(port.position), asc(port.name)),
+    db.select().from(command).where(and(
+      eq(command.teamId, ctx.team.id), isNull(command.deletedAt),
+      profileIds.length ? sql`(${inArray(command.deviceId, ids)} OR ${inArray(command.profileId, profileIds)})` : inArray(command.deviceId, ids),
+    )).orderBy(asc(command.name)),
+    revisions(ctx.team.id, ids),
+  ]);
+  return devices.map((d) => {
+    const own = cmds.filter((c) => c.deviceId === d.id);
+    const names = new Set(own.map((c) => c.name.toLowerCase()));
+    const inherited = d.profileId ? cmds.filter((c) => c.profileId === d.profileId && !names.has(c.name.toLowerCase())) : [];
+    return {
+      device: { id: d.id, tag: d.tag, name: d.name, role: d.role, maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, version: d.version, machineId: d.machineId },
+      ports: ports.filter((p) => p.deviceId === d.id).map((p) => ({ ...cardPort(p, heading(d)), version: p.version })),
+      commands: [...own, ...inherited].map((c) => cardCommand(c)),
+      revision: revs.get(d.id) ?? { number: 0, date: null },
+    };
+  });
+}
+
+const label = (d: DeviceRow) => (d.name ? `${d.tag} ${d.name}` : d.tag);
+
+export async function deviceCard(ctx: TeamRef, deviceId: string): Promise<DeviceCard & { machine: MachineCards['machine']; site: MachineCards['site'] }> {
+  const d = await liveDevice(ctx, deviceId);
+  const m = await liveMachine(ctx, d.machineId);
+  const s = await liveSite(ctx, m.siteId);
+  const [card] = await buildCards(ctx, [d], label);
+  return { ...card!, machine: { id: m.id, name: m.name, code: m.code, siteId: m.siteId }, site: { id: s.id, name: s.name, customer: s.customer } };
+}
+
+export async function machineCards(ctx: TeamRef, machineId: string): Promise<MachineCards> {
+  const m = await liveMachine(ctx, machineId);
+  const s = await liveSite(ctx, m.siteId);
+  const devices = await db.select().from(device).where(and(eq(device.machineId, m.id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt))).orderBy(asc(device.tag));
+  return {
+    machine: { id: m.id, name: m.name, code: m.code, siteId: m.siteId },
+    site: { id: s.id, name: s.name, customer: s.customer },
+    cards: await buildCards(ctx, devices, label),
+  };
+}
+
+/** Every live machine of a site with its cards, in name order. */
+export async function siteCards(ctx: TeamRef, siteId: string): Promise<{ site: MachineCards['site']; machines: MachineCards[] }> {
+  const s = await liveSite(ctx, siteId);
+  const machines = await db.select({ id: machine.id }).from(machine).where(and(eq(machine.siteId, s.id), eq(machine.teamId, ctx.team.id), isNull(machine.deletedAt))).orderBy(asc(machine.name));
+  const out: MachineCards[] = [];
+  for (const m of machines) out.push(await machineCards(ctx, m.id));
+  return { site: { id: s.id, name: s.name, customer: s.customer }, machines: out };
+}
+
+/** The current card revision of one device (for validating "settings applied from revision N"). */
+export async function cardRevision(ctx: TeamRef, deviceId: string) {
+  return (await revisions(ctx.team.id, [deviceId])).get(deviceId) ?? { number: 0, date: null };
+}

@@ -1,0 +1,95 @@
+/** CSV export of a vault list with the same filters and sort as its list endpoint (all pages). */
+import Papa from 'papaparse';
+import { z } from 'zod';
+import { and, asc, desc, eq, isNull } from 'drizzle-orm';
+import { db } from '../../../db/client';
+import { device, machine, port } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import { parseList, type Page } from '../vault/records';
+import { idFilter } from '../vault/params';
+import { listSites, SITE_SORTS } from '../vault/sites';
+import { listMachines, MACHINE_SORTS } from '../vault/machines';
+import { listDevices, DEVICE_SORTS } from '../vault/devices';
+import { listLinks, LINK_SORTS } from '../vault/links';
+import { listProfiles, PROFILE_SORTS } from '../vault/profiles';
+import { DEVICE_ROLES } from '../../schemas/vault';
+import { cardShorthand } from '../../field/card';
+
+export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
+export type CsvTable = (typeof CSV_TABLES)[number];
+const MAX_ROWS = 100_000;
+const q = z.string().max(100).optional();
+
+/** Spreadsheets run cells starting with = + - @ as formulas; such text gets a leading apostrophe. */
+export function safeCell(v: unknown): string {
+  const s = v === null || v === undefined ? '' : v instanceof Date ? v.toISOString() : String(v);
+  return /^[=+@\t\r]|^-[^\d]/.test(s) ? `'${s}` : s;
+}
+
+async function allPages<T>(fetch: (page: number) => Promise<Page<T>>): Promise<T[]> {
+  const out: T[] = [];
+  for (let page = 1; ; page++) {
+    const p = await fetch(page);
+    out.push(...p.items);
+    if (out.length >= p.total || p.items.length === 0 || out.length >= MAX_ROWS) return out;
+  }
+}
+
+type Rows = { columns: string[]; rows: unknown[][] };
+
+async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<Rows> {
+  const u = new URL(url);
+  u.searchParams.delete('table');
+  u.searchParams.delete('page');
+  u.searchParams.set('pageSize', '200');
+  const list = <F extends z.ZodRawShape>(sorts: readonly string[], def: string, filters: F) => parseList(u, sorts, def, filters);
+  if (table === 'sites') {
+    const o = list(SITE_SORTS, 'name', { q });
+    const items = await allPages((page) => listSites(ctx, { ...o, page }));
+    return { columns: ['id', 'name', 'customer', 'address', 'machines', 'devices', 'version', 'updatedAt'], rows: items.map((s) => [s.id, s.name, s.customer, s.address, s.machineCount, s.deviceCount, s.version, s.updatedAt]) };
+  }
+  if (table === 'machines') {
+    const o = list(MACHINE_SORTS, 'name', { siteId: idFilter, q });
+    const items = await allPages((page) => listMachines(ctx, { ...o, page }));
+    return { columns: ['id', 'site', 'name', 'code', 'devices', 'links', 'version', 'updatedAt'], rows: items.map((m) => [m.id, m.siteName, m.name, m.code, m.deviceCount, m.linkCount, m.version, m.updatedAt]) };
+  }
+  if (table === 'devices') {
+    const o = list(DEVICE_SORTS, 'tag', { machineId: idFilter, siteId: idFilter, role: z.enum(DEVICE_ROLES).optional(), q });
+    const items = await allPages((page) => listDevices(ctx, { ...o, page }));
+    return {
+      columns: ['id', 'site', 'machine', 'tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'firmware', 'location', 'ports', 'version', 'updatedAt'],
+      rows: items.map((d) => [d.id, d.siteName, d.machineName, d.tag, d.name, d.role, d.maker, d.model, d.serialNumber, d.firmware, d.location, d.ports.map((p) => `${p.name}: ${p.shorthand}`).join('; '), d.version, d.updatedAt]),
+    };
+  }
+  if (table === 'links') {
+    const o = list(LINK_SORTS, 'name', { machineId: idFilter, q });
+    const items = await allPages((page) => listLinks(ctx, { ...o, page }));
+    return { columns: ['id', 'name', 'kind', 'cableType', 'cableLengthM', 'members', 'version', 'updatedAt'], rows: items.map((l) => [l.id, l.name, l.kind, l.cableType, l.cableLengthM, l.members.length, l.version, l.updatedAt]) };
+  }
+  if (table === 'profiles') {
+    const o = list(PROFILE_SORTS, 'name', { q, role: z.enum(DEVICE_ROLES).optional() });
+    const items = await allPages((page) => listProfiles(ctx, { ...o, page }));
+    return { columns: ['id', 'name', 'role', 'maker', 'model', 'ports', 'devices', 'version', 'updatedAt'], rows: items.map((f) => [f.id, f.name, f.role, f.maker, f.model, f.shorthands.join('; '), f.deviceCount, f.version, f.updatedAt]) };
+  }
+  // Ports have no list endpoint of their own: every live port of the team, or of one device or machine.
+  const o = parseList(u, ['tag'], 'tag', { deviceId: idFilter, machineId: idFilter });
+  const rows = await db.select({ port, tag: device.tag, machineName: machine.name }).from(port)
+    .innerJoin(device, eq(device.id, port.deviceId)).innerJoin(machine, eq(machine.id, device.machineId))
+    .where(and(eq(port.teamId, ctx.team.id), isNull(port.deletedAt), isNull(device.deletedAt), o.deviceId ? eq(port.deviceId, o.deviceId) : undefined, o.machineId ? eq(device.machineId, o.machineId) : undefined))
+    .orderBy(o.dir === 'desc' ? desc(device.tag) : asc(device.tag), asc(port.position)).limit(MAX_ROWS);
+  return {
+    columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'nodeAddress', 'termination', 'protocol', 'version'],
+    rows: rows.map(({ port: p, tag, machineName }) => [p.id, machineName, tag, p.name, cardShorthand(p.settings), p.settings.interface, p.settings.baud, p.settings.dataBits, p.settings.parity, p.settings.stopBits, p.settings.handshake, p.settings.nodeAddress, p.settings.termination ? 'yes' : 'no', p.settings.protocol, p.version]),
+  };
+}
+
+export async function exportCsv(ctx: TeamContext, url: URL): Promise<{ filename: string; csv: string }> {
+  const table = url.searchParams.get('table');
+  if (!table || !(CSV_TABLES as readonly string[]).includes(table)) {
+    throw new HttpError(422, `table: choose one of ${CSV_TABLES.join(', ')}`, { fields: { table: `One of ${CSV_TABLES.join(', ')}.` } });
+  }
+  const { columns, rows } = await tableRows(ctx, table as CsvTable, url);
+  const csv = Papa.unparse({ fields: columns, data: rows.map((r) => r.map(safeCell)) }, { newline: '\r\n' });
+  return { filename: `${table}-${new Date().toISOString().slice(0, 10)}.csv`, csv: `\ufeff${csv}` };
+}

@@ -1,0 +1,66 @@
+/** Export a site or the whole team as one versioned JSON document of our own format. */
+import { and, asc, eq, isNull } from 'drizzle-orm';
+import { db } from '../../../db/client';
+import { command, device, deviceProfile, link, linkMember, machine, port, site } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
+import { liveSite } from './scope';
+
+type Live = { teamId: string; deletedAt: Date | null };
+const byKey = <T>(key: (x: T) => string) => (a: T, b: T) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0);
+const pad = (n: number) => String(n).padStart(8, '0');
+
+/** Records in a stable order that does not depend on ids: parents first, then names. */
+export async function exportDocument(ctx: TeamContext, opts: { siteId?: string } = {}): Promise<ExportDocument> {
+  const team = ctx.team.id;
+  if (opts.siteId) await liveSite(ctx, opts.siteId);
+  const live = <T extends Live>(rows: T[]) => rows.filter((r) => r.teamId === team && !r.deletedAt);
+  const [sites, machines, devices, ports, links, members, profiles, commands] = await Promise.all([
+    db.select().from(site).where(and(eq(site.teamId, team), isNull(site.deletedAt))),
+    db.select().from(machine).where(and(eq(machine.teamId, team), isNull(machine.deletedAt))),
+    db.select().from(device).where(and(eq(device.teamId, team), isNull(device.deletedAt))),
+    db.select().from(port).where(and(eq(port.teamId, team), isNull(port.deletedAt))),
+    db.select().from(link).where(and(eq(link.teamId, team), isNull(link.deletedAt))),
+    db.select().from(linkMember).where(eq(linkMember.teamId, team)).orderBy(asc(linkMember.position)),
+    db.select().from(deviceProfile).where(and(eq(deviceProfile.teamId, team), isNull(deviceProfile.deletedAt))),
+    db.select().from(command).where(and(eq(command.teamId, team), isNull(command.deletedAt))),
+  ]);
+  const S = live(sites).filter((s) => !opts.siteId || s.id === opts.siteId).sort(byKey((s) => `${s.name}\u0000${s.customer}\u0000${s.id}`));
+  const sIdx = new Map(S.map((s, i) => [s.id, pad(i)]));
+  const M = live(machines).filter((m) => sIdx.has(m.siteId)).sort(byKey((m) => `${sIdx.get(m.siteId)}${m.name}\u0000${m.code}\u0000${m.id}`));
+  const mIdx = new Map(M.map((m, i) => [m.id, pad(i)]));
+  const D = live(devices).filter((d) => mIdx.has(d.machineId)).sort(byKey((d) => `${mIdx.get(d.machineId)}${d.tag}\u0000${d.name}\u0000${d.id}`));
+  const dIdx = new Map(D.map((d, i) => [d.id, pad(i)]));
+  const P = live(ports).filter((p) => dIdx.has(p.deviceId)).sort(byKey((p) => `${dIdx.get(p.deviceId)}${pad(p.position)}${p.name}\u0000${p.id}`));
+  const pIds = new Set(P.map((p) => p.id));
+  const L = live(links).filter((l) => mIdx.has(l.machineId)).sort(byKey((l) => `${mIdx.get(l.machineId)}${l.name}\u0000${l.id}`));
+  const used = new Set(D.map((d) => d.profileId).filter(Boolean));
+  const F = live(profiles).filter((f) => !opts.siteId || used.has(f.id)).sort(byKey((f) => `${f.name}\u0000${f.id}`));
+  const fIdx = new Map(F.map((f, i) => [f.id, pad(i)]));
+  const C = commands
+    .filter((c) => (c.deviceId && dIdx.has(c.deviceId)) || (c.profileId && fIdx.has(c.profileId)))
+    .sort(byKey((c) => `${c.deviceId ? `d${dIdx.get(c.deviceId)}` : `p${fIdx.get(c.profileId!)}`}${c.name}\u0000${c.id}`));
+  return {
+    format: EXPORT_FORMAT,
+    version: EXPORT_VERSION,
+    exportedAt: new Date().toISOString(),
+    source: { team: ctx.team.name, scope: opts.siteId ? 'site' : 'team', siteId: opts.siteId ?? null },
+    sites: S.map((s) => ({ id: s.id, name: s.name, customer: s.customer, address: s.address, notes: s.notes })),
+    machines: M.map((m) => ({ id: m.id, siteId: m.siteId, name: m.name, code: m.code, notes: m.notes })),
+    profiles: F.map((f) => ({ id: f.id, name: f.name, role: f.role, maker: f.maker, model: f.model, notes: f.notes, ports: f.ports })),
+    devices: D.map((d) => ({
+      id: d.id, machineId: d.machineId, profileId: d.profileId && fIdx.has(d.profileId) ? d.profileId : null, tag: d.tag, name: d.name, role: d.role,
+      maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, notes: d.notes,
+    })),
+    ports: P.map((p) => ({ id: p.id, deviceId: p.deviceId, name: p.name, position: p.position, settings: p.settings, wiring: p.wiring, notes: p.notes })),
+    links: L.map((l) => ({
+      id: l.id, machineId: l.machineId, name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes,
+      members: members.filter((m) => m.linkId === l.id && pIds.has(m.portId))
+        .map((m) => ({ portId: m.portId, role: m.role, position: m.position, isEnd: m.isEnd, unitLoads: m.unitLoads })),
+    })),
+    commands: C.map((c) => ({
+      id: c.id, deviceId: c.deviceId, profileId: c.profileId, name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues as Record<string, string | number | null>,
+      replyTemplate: c.replyTemplate ?? null, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery,
+    })),
+  };
+}

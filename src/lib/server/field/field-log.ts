@@ -1,0 +1,85 @@
+/**
+ * The field log: entries technicians add at the device, each with photos and later annotations.
+ * Nothing here updates or deletes an entry; annotations are the only way to add to one.
+ */
+import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { db } from '../../../db/client';
+import { attachment, fieldLogAnnotation, fieldLogEntry } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import { newId } from '../ids';
+import { writeTx } from '../vault/tx';
+import type { FieldLogCreate } from '../../schemas/field';
+import { cardRevision } from './cards';
+import { liveDevice } from './scope';
+import { presentAttachment, type AttachmentView } from './attachments';
+
+type EntryRow = typeof fieldLogEntry.$inferSelect;
+type AnnotationRow = typeof fieldLogAnnotation.$inferSelect;
+
+export interface FieldLogEntryView extends EntryRow {
+  annotations: AnnotationRow[];
+  photos: AttachmentView[];
+}
+
+export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 200): Promise<FieldLogEntryView[]> {
+  await liveDevice(ctx, deviceId);
+  const entries = await db.select().from(fieldLogEntry)
+    .where(and(eq(fieldLogEntry.teamId, ctx.team.id), eq(fieldLogEntry.deviceId, deviceId)))
+    .orderBy(desc(fieldLogEntry.createdAt), desc(fieldLogEntry.id)).limit(limit);
+  if (!entries.length) return [];
+  const ids = entries.map((e) => e.id);
+  const [notes, photos] = await Promise.all([
+    db.select().from(fieldLogAnnotation).where(and(eq(fieldLogAnnotation.teamId, ctx.team.id), inArray(fieldLogAnnotation.entryId, ids))).orderBy(asc(fieldLogAnnotation.createdAt)),
+    db.select().from(attachment).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.entryId, ids))).orderBy(asc(attachment.createdAt)),
+  ]);
+  return entries.map((e) => ({
+    ...e,
+    annotations: notes.filter((n) => n.entryId === e.id),
+    photos: photos.filter((p) => p.entryId === e.id).map(presentAttachment),
+  }));
+}
+
+/** Writes the entry and claims its photos (uploaded beforehand to the device, not yet in any entry) in one transaction. */
+export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate): Promise<FieldLogEntryView> {
+  const id = newId('flog');
+  await writeTx(async (tx) => {
+    await liveDevice(ctx, deviceId, tx);
+    const rev = await cardRevision(ctx, deviceId);
+    if (input.kind === 'replacement' && input.appliedVersion > rev.number) {
+      throw new HttpError(422, `appliedVersion: this card is at revision ${rev.number}`, {
+        fields: { appliedVersion: `The card is at revision ${rev.number}; enter a revision from 1 to ${rev.number}.` },
+      });
+    }
+    const photoIds = [...new Set(input.photoIds)];
+    if (photoIds.length) {
+      const found = await tx.select({ id: attachment.id }).from(attachment).where(and(
+        eq(attachment.teamId, ctx.team.id), inArray(attachment.id, photoIds), eq(attachment.ownerType, 'device'),
+        eq(attachment.ownerId, deviceId), eq(attachment.kind, 'photo'), isNull(attachment.entryId),
+      ));
+      if (found.length !== photoIds.length) {
+        throw new HttpError(422, 'photoIds: upload the photos to this device first', { fields: { photoIds: 'One of the photos is not an unused photo of this device.' } });
+      }
+    }
+    await tx.insert(fieldLogEntry).values({
+      id, teamId: ctx.team.id, deviceId, kind: input.kind, note: input.note,
+      newSerialNumber: input.kind === 'replacement' ? input.newSerialNumber : '',
+      appliedVersion: input.kind === 'replacement' ? input.appliedVersion : null,
+      foundSettings: input.kind === 'found-different' ? input.foundSettings : '',
+      deviceVersion: rev.number, userId: ctx.user.id, userName: ctx.user.name,
+    });
+    if (photoIds.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, photoIds)));
+  });
+  return (await listFieldLog(ctx, deviceId)).find((e) => e.id === id)!;
+}
+
+export async function annotateEntry(ctx: TeamContext, entryId: string, note: string): Promise<AnnotationRow> {
+  return writeTx(async (tx) => {
+    const [entry] = await tx.select({ id: fieldLogEntry.id, deviceId: fieldLogEntry.deviceId }).from(fieldLogEntry)
+      .where(and(eq(fieldLogEntry.id, entryId), eq(fieldLogEntry.teamId, ctx.team.id)));
+    if (!entry) throw new HttpError(404, 'No field-log entry with that id in this team.');
+    await liveDevice(ctx, entry.deviceId, tx);
+    const [row] = await tx.insert(fieldLogAnnotation).values({ id: newId('fnote'), teamId: ctx.team.id, entryId, note, userId: ctx.user.id, userName: ctx.user.name }).returning();
+    return row!;
+  });
+}

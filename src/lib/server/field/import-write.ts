@@ -1,0 +1,87 @@
+/** Writes a checked import: new rows in parent-first order, their creation revisions and the import map, in batches. */
+import type { DbOrTx } from '../../../db/client';
+import { command, commandRevision, device, deviceProfile, importMap, link, linkMember, machine, port, revision, site } from '../../../db/schema';
+import type { EntityType } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { newId } from '../ids';
+import { diffSnapshots } from '../vault/diff';
+import { SPECS } from '../vault/specs';
+import type { ExportDocument } from '../../schemas/field';
+import type { Section } from './import';
+import { sql } from 'drizzle-orm';
+
+const BATCH = 200;
+
+const importId = (section: Section) => newId({ sites: 'site', machines: 'mach', profiles: 'prof', devices: 'dev', ports: 'port', links: 'link', commands: 'cmd' }[section]);
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export async function insertBatched(q: DbOrTx, table: any, rows: Record<string, unknown>[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += BATCH) await q.insert(table).values(rows.slice(i, i + BATCH));
+}
+
+/** Creation revisions for vault rows, as the vault writes them one by one. */
+export function creationRevisions(ctx: TeamContext, type: EntityType, rows: Record<string, unknown>[], summary: string) {
+  const spec = SPECS[type] as unknown as { snapshot(r: unknown): Record<string, unknown> };
+  return rows.map((r) => {
+    const snapshot = spec.snapshot(r);
+    return {
+      id: newId('rev'), teamId: ctx.team.id, entityType: type, entityId: r.id as string, version: 1, action: 'create' as const,
+      userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot,
+    };
+  });
+}
+
+export async function writeImport(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>): Promise<void> {
+  const team = ctx.team.id;
+  const stamp = { teamId: team, updatedBy: ctx.user.id };
+  const ids = Object.fromEntries(Object.entries(known).map(([k, m]) => [k, new Map(m)])) as Record<Section, Map<string, string>>;
+  const mapRows: { teamId: string; entityType: string; sourceId: string; targetId: string }[] = [];
+  const fresh = <T extends { id: string }>(section: Section, list: T[]) =>
+    list.filter((r) => !known[section].has(r.id)).map((r) => {
+      const target = importId(section);
+      ids[section].set(r.id, target);
+      mapRows.push({ teamId: team, entityType: section, sourceId: r.id, targetId: target });
+      return { source: r, target };
+    });
+  const summary = `Imported from ${doc.source.team || 'an export'}`;
+  const sites = fresh('sites', doc.sites).map(({ source: s, target }) => ({ ...s, ...stamp, id: target }));
+  const machines = fresh('machines', doc.machines).map(({ source: m, target }) => ({ ...m, ...stamp, id: target, siteId: ids.sites.get(m.siteId)! }));
+  const profiles = fresh('profiles', doc.profiles).map(({ source: f, target }) => ({ ...f, ...stamp, id: target }));
+  const devices = fresh('devices', doc.devices).map(({ source: d, target }) => ({
+    ...d, ...stamp, id: target, machineId: ids.machines.get(d.machineId)!, profileId: d.profileId ? ids.profiles.get(d.profileId)! : null,
+  }));
+  const ports = fresh('ports', doc.ports).map(({ source: p, target }) => ({ ...p, ...stamp, id: target, deviceId: ids.devices.get(p.deviceId)! }));
+  const links = fresh('links', doc.links).map(({ source: l, target }) => ({
+    ...l, ...stamp, id: target, machineId: ids.machines.get(l.machineId)!,
+    members: l.members.map((m) => ({ ...m, portId: ids.ports.get(m.portId)! })),
+  }));
+  const commands = fresh('commands', doc.commands).map(({ source: c, target }) => ({
+    ...c, ...stamp, id: target, deviceId: c.deviceId ? ids.devices.get(c.deviceId)! : null, profileId: c.profileId ? ids.profiles.get(c.profileId)! : null,
+  }));
+
+  await insertBatched(q, site, sites);
+  await insertBatched(q, machine, machines);
+  await insertBatched(q, deviceProfile, profiles);
+  await insertBatched(q, device, devices);
+  await insertBatched(q, port, ports);
+  await insertBatched(q, link, links.map(({ members: _m, ...l }) => l));
+  await insertBatched(q, linkMember, links.flatMap((l) => l.members.map((m) => ({ linkId: l.id, teamId: team, ...m }))));
+  await insertBatched(q, command, commands);
+  await insertBatched(q, revision, [
+    ...creationRevisions(ctx, 'site', sites, summary),
+    ...creationRevisions(ctx, 'machine', machines, summary),
+    ...creationRevisions(ctx, 'profile', profiles, summary),
+    ...creationRevisions(ctx, 'device', devices, summary),
+    ...creationRevisions(ctx, 'port', ports, summary),
+    ...creationRevisions(ctx, 'link', links.map((l) => ({ ...l, members: l.members.map(({ position: _p, ...m }) => m) })), summary),
+  ]);
+  await insertBatched(q, commandRevision, commands.map((c) => {
+    const snapshot = { name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery };
+    return { id: newId('crev'), teamId: team, commandId: c.id, version: 1, action: 'create' as const, userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot };
+  }));
+  for (let i = 0; i < mapRows.length; i += BATCH) {
+    // A source whose earlier copy was purged from the trash points at the new copy now.
+    await q.insert(importMap).values(mapRows.slice(i, i + BATCH))
+      .onConflictDoUpdate({ target: [importMap.teamId, importMap.entityType, importMap.sourceId], set: { targetId: sql`excluded.target_id` } });
+  }
+}

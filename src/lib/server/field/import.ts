@@ -1,0 +1,82 @@
+/**
+ * Import an export document into the caller's team: preview what would be created, then write it
+ * all in one transaction. The import map remembers which record each source id became, so
+ * importing the same document again creates nothing new.
+ */
+import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { db, type DbOrTx } from '../../../db/client';
+import { command, device, deviceProfile, importMap, link, machine, port, site } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import { writeTx } from '../vault/tx';
+import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
+import { documentProblems } from '../../field/export-check';
+import { writeImport } from './import-write';
+
+export const SECTIONS = ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const;
+export type Section = (typeof SECTIONS)[number];
+const TABLES = { sites: site, machines: machine, profiles: deviceProfile, devices: device, ports: port, links: link, commands: command } as const;
+
+export interface ImportResult {
+  applied: boolean;
+  source: ExportDocument['source'];
+  counts: Record<Section, { create: number; existing: number }>;
+}
+
+/** Validates shape and references; 422 with the first problems in words. */
+export function readDocument(raw: unknown): ExportDocument {
+  const head = raw as { format?: unknown; version?: unknown } | null;
+  if (!head || typeof head !== 'object' || head.format !== EXPORT_FORMAT) {
+    throw new HttpError(422, `document: not a ${EXPORT_FORMAT} document (format must be "${EXPORT_FORMAT}")`, { fields: { 'document.format': 'Not an export of this app.' } });
+  }
+  if (head.version !== EXPORT_VERSION) throw new HttpError(422, `document: version ${String(head.version)} is not supported; this server reads version ${EXPORT_VERSION}`);
+  const parsed = exportDocumentSchema.safeParse(raw);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0]!;
+    throw new HttpError(422, `document.${issue.path.join('.')}: ${issue.message}`, { problems: parsed.error.issues.slice(0, 20).map((i) => `${i.path.join('.')}: ${i.message}`) });
+  }
+  const problems = documentProblems(parsed.data);
+  if (problems.length) throw new HttpError(422, `document: ${problems[0]}`, { problems });
+  return parsed.data;
+}
+
+/** Source id → target id for records imported before and still present in this team (live or in the trash). */
+async function existingTargets(q: DbOrTx, ctx: TeamContext): Promise<Record<Section, Map<string, string>>> {
+  const rows = await q.select().from(importMap).where(eq(importMap.teamId, ctx.team.id));
+  const out = Object.fromEntries(SECTIONS.map((s) => [s, new Map<string, string>()])) as Record<Section, Map<string, string>>;
+  for (const s of SECTIONS) {
+    const mapped = rows.filter((r) => r.entityType === s);
+    if (!mapped.length) continue;
+    const t = TABLES[s];
+    const present = new Set((await q.select({ id: t.id }).from(t).where(eq(t.teamId, ctx.team.id))).map((r) => r.id));
+    for (const r of mapped) if (present.has(r.targetId)) out[s].set(r.sourceId, r.targetId);
+  }
+  return out;
+}
+
+export async function importDocument(ctx: TeamContext, raw: unknown, apply: boolean): Promise<ImportResult> {
+  const doc = readDocument(raw);
+  const run = async (q: DbOrTx): Promise<ImportResult> => {
+    const known = await existingTargets(q, ctx);
+    const counts = Object.fromEntries(SECTIONS.map((s) => {
+      const existing = doc[s].filter((r) => known[s].has(r.id)).length;
+      return [s, { create: doc[s].length - existing, existing }];
+    })) as ImportResult['counts'];
+    await portNameClashes(q, ctx, doc, known);
+    if (apply) await writeImport(q, ctx, doc, known);
+    return { applied: apply, source: doc.source, counts };
+  };
+  return apply ? writeTx((tx) => run(tx)) : run(db);
+}
+
+/** A new port on a device that is already here must not take the name of one of its live ports. */
+async function portNameClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>) {
+  const fresh = doc.ports.filter((p) => !known.ports.has(p.id) && known.devices.has(p.deviceId));
+  if (!fresh.length) return;
+  const targets = [...new Set(fresh.map((p) => known.devices.get(p.deviceId)!))];
+  const live = await q.select({ deviceId: port.deviceId, name: port.name }).from(port)
+    .where(and(eq(port.teamId, ctx.team.id), inArray(port.deviceId, targets), isNull(port.deletedAt)));
+  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${p.name.toLowerCase()}`));
+  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${p.name.toLowerCase()}`));
+  if (clash) throw new HttpError(409, `A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
+}

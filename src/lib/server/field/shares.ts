@@ -1,0 +1,110 @@
+/** Read-only share links to a machine's or a site's cards, for people without an account. */
+import { and, desc, eq, sql } from 'drizzle-orm';
+import type { z } from 'zod';
+import { db } from '../../../db/client';
+import { machine, shareLink, site } from '../../../db/schema';
+import type { TeamContext } from '../guard';
+import { HttpError } from '../http';
+import { newId, randomToken, sha256 } from '../ids';
+import { linkMessage, sendMail } from '../mail';
+import type { shareCreateSchema } from '../../schemas/field';
+import { baseUrl, shareDefaultDays, shareMaxDays } from './config';
+import { liveMachine, liveSite } from './scope';
+
+type ShareRow = typeof shareLink.$inferSelect;
+const DAY = 86_400_000;
+
+export interface ShareView extends Omit<ShareRow, 'tokenHash'> {
+  scopeName: string;
+  state: 'active' | 'expired' | 'revoked';
+}
+
+export function shareState(r: Pick<ShareRow, 'expiresAt' | 'revokedAt'>, now = Date.now()): ShareView['state'] {
+  if (r.revokedAt) return 'revoked';
+  return r.expiresAt.getTime() <= now ? 'expired' : 'active';
+}
+
+/** YYYY-MM-DD means through the end of that day (UTC); a full time is taken as given. */
+export function parseExpiry(raw: string | undefined, now = Date.now()): Date {
+  if (!raw) return new Date(now + shareDefaultDays * DAY);
+  const date = /^\d{4}-\d{2}-\d{2}$/.test(raw) ? new Date(`${raw}T23:59:59.999Z`) : new Date(raw);
+  const fail = (msg: string) => new HttpError(422, `expiresAt: ${msg}`, { fields: { expiresAt: msg } });
+  if (Number.isNaN(date.getTime())) throw fail('Enter the last day as YYYY-MM-DD.');
+  if (date.getTime() <= now) throw fail('Choose a day in the future.');
+  if (date.getTime() > now + shareMaxDays * DAY) throw fail(`A link lasts at most ${shareMaxDays} days.`);
+  return date;
+}
+
+function present(r: ShareRow & { scopeName: string | null }): ShareView {
+  const { tokenHash: _hidden, ...rest } = r;
+  return { ...rest, scopeName: r.scopeName ?? '(in the trash)', state: shareState(r) };
+}
+
+const scopeName = sql<string | null>`CASE ${shareLink.scopeType}
+  WHEN 'machine' THEN (SELECT name FROM machine WHERE id = ${shareLink.scopeId} AND deleted_at IS NULL)
+  ELSE (SELECT name FROM site WHERE id = ${shareLink.scopeId} AND deleted_at IS NULL) END`;
+
+export async function listShares(ctx: TeamContext): Promise<ShareView[]> {
+  const rows = await db.select({ share: shareLink, scopeName }).from(shareLink).where(eq(shareLink.teamId, ctx.team.id)).orderBy(desc(shareLink.createdAt)).limit(500);
+  return rows.map((r) => present({ ...r.share, scopeName: r.scopeName }));
+}
+
+async function findShare(ctx: TeamContext, id: string) {
+  const [row] = await db.select({ share: shareLink, scopeName }).from(shareLink).where(and(eq(shareLink.id, id), eq(shareLink.teamId, ctx.team.id)));
+  if (!row) throw new HttpError(404, 'No share link with that id in this team.');
+  return { ...row.share, scopeName: row.scopeName };
+}
+
+export const shareUrl = (token: string) => `${baseUrl}/s/${token}`;
+
+/** Creates the link; the token is answered once (in `url`) and only its hash is kept. */
+export async function createShare(ctx: TeamContext, input: z.infer<typeof shareCreateSchema>): Promise<ShareView & { url: string }> {
+  const target = input.scopeType === 'machine' ? await liveMachine(ctx, input.scopeId) : await liveSite(ctx, input.scopeId);
+  const expiresAt = parseExpiry(input.expiresAt);
+  const token = randomToken();
+  const [row] = await db.insert(shareLink).values({
+    id: newId('share'), teamId: ctx.team.id, scopeType: input.scopeType, scopeId: target.id, label: input.label,
+    tokenHash: sha256(token), createdBy: ctx.user.id, createdByName: ctx.user.name, expiresAt,
+  }).returning();
+  return { ...present({ ...row!, scopeName: target.name }), url: shareUrl(token) };
+}
+
+export async function revokeShare(ctx: TeamContext, id: string): Promise<ShareView> {
+  const row = await findShare(ctx, id);
+  if (!row.revokedAt) await db.update(shareLink).set({ revokedAt: new Date() }).where(and(eq(shareLink.id, id), eq(shareLink.teamId, ctx.team.id)));
+  return present(await findShare(ctx, id));
+}
+
+/**
+ * E-mails a fresh link to the same cards with the same expiry (the original token is not kept, so it
+ * cannot be re-sent); the new link is listed and revocable like any other.
+ */
+export async function emailShare(ctx: TeamContext, id: string, to: string, message: string): Promise<{ sent: true; to: string; share: ShareView }> {
+  const row = await findShare(ctx, id);
+  if (shareState(row) !== 'active') throw new HttpError(409, `This link is ${shareState(row)}; create a new one to send.`);
+  const token = randomToken();
+  const [copy] = await db.insert(shareLink).values({
+    id: newId('share'), teamId: ctx.team.id, scopeType: row.scopeType, scopeId: row.scopeId, label: row.label ? `${row.label} (e-mailed to ${to})` : `E-mailed to ${to}`,
+    tokenHash: sha256(token), createdBy: ctx.user.id, createdByName: ctx.user.name, expiresAt: row.expiresAt,
+  }).returning();
+  const lines = [
+    `${ctx.user.name} (${ctx.team.name}) shared the serial settings cards of ${row.scopeName} with you.`,
+    ...(message ? [message] : []),
+    `The link is read-only and works until ${row.expiresAt.toISOString().slice(0, 10)}.`,
+    'Changing communication settings can stop a running machine: work to the site procedures and lockout, and follow the device manual.',
+  ];
+  await sendMail(linkMessage(to, `Settings cards: ${row.scopeName}`, lines, 'Open the cards', shareUrl(token)));
+  return { sent: true, to, share: present({ ...copy!, scopeName: row.scopeName }) };
+}
+
+/** The share a token opens, counting the visit; null for unknown, expired or revoked links. */
+export async function openShare(token: string): Promise<ShareRow | null> {
+  if (!/^[A-Za-z0-9_-]{16,64}$/.test(token)) return null;
+  const [row] = await db.select().from(shareLink).where(eq(shareLink.tokenHash, sha256(token)));
+  if (!row || shareState(row) !== 'active') return null;
+  const scope = row.scopeType === 'machine' ? machine : site;
+  const [live] = await db.select({ id: scope.id }).from(scope).where(and(eq(scope.id, row.scopeId), eq(scope.teamId, row.teamId), sql`${scope.deletedAt} IS NULL`));
+  if (!live) return null;
+  await db.update(shareLink).set({ accessCount: sql`${shareLink.accessCount} + 1`, lastAccessAt: new Date() }).where(eq(shareLink.id, row.id));
+  return row;
+}

@@ -1,0 +1,69 @@
+/** Reads an upload body with the size limit enforced while streaming: multipart/form-data, or the raw file bytes. */
+import { HttpError } from '../http';
+import { formatBytes } from '../../field/files';
+
+/** Room for multipart boundaries and the small text fields around the file. */
+const MULTIPART_OVERHEAD = 64 * 1024;
+
+export interface UploadBody {
+  fields: Record<string, string>;
+  fileName: string;
+  bytes: Uint8Array;
+}
+
+const tooLarge = (max: number) => new HttpError(413, `The file is larger than the ${formatBytes(max)} limit.`, { maxBytes: max });
+
+async function readLimited(request: Request, limit: number, max: number): Promise<Uint8Array> {
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > limit) throw tooLarge(max);
+  const reader = request.body?.getReader();
+  if (!reader) throw new HttpError(400, 'The request has no body; send the file.');
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limit) {
+      await reader.cancel();
+      throw tooLarge(max);
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(size);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
+/**
+ * multipart/form-data: the file in field `file`, other fields as text. Any other content type:
+ * the body is the file itself and the fields come from the query string (for scripts).
+ */
+export async function readUpload(request: Request, url: URL, max: number): Promise<UploadBody> {
+  const type = request.headers.get('content-type') ?? '';
+  if (type.startsWith('multipart/form-data')) {
+    const raw = await readLimited(request, max + MULTIPART_OVERHEAD, max);
+    let form: FormData;
+    try {
+      form = await new Response(raw as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData();
+    } catch {
+      throw new HttpError(400, 'The multipart body could not be read.');
+    }
+    const fields: Record<string, string> = {};
+    let file: File | null = null;
+    for (const [k, v] of form) {
+      if (typeof v === 'string') fields[k] = v;
+      else if (k === 'file') file = v;
+    }
+    if (!file) throw new HttpError(422, 'file: choose a file to upload', { fields: { file: 'Choose a file to upload.' } });
+    if (file.size > max) throw tooLarge(max);
+    return { fields, fileName: fields.name || file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
+  }
+  const bytes = await readLimited(request, max, max);
+  const fields = Object.fromEntries(url.searchParams);
+  return { fields, fileName: fields.name ?? '', bytes };
+}
