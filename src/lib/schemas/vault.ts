@@ -146,3 +146,10 @@ export type LinkCreate = z.infer<typeof linkCreateSchema>;
 export type LinkMemberInput = z.infer<typeof linkMemberSchema>;
 export type ProfileCreate = z.infer<typeof profileCreateSchema>;
 export type CopySettings = z.infer<typeof copySettingsSchema>;
+
+// ---- edit forms (the editable fields of each record, without parents, version or nested lists) ----
+export const siteFormSchema = z.strictObject(siteFields);
+export const machineFormSchema = z.strictObject(machineFields);
+export const deviceFormSchema = z.strictObject(deviceFields);
+export const linkFormSchema = z.strictObject({ name: linkFields.name, kind: linkFields.kind, cableType: linkFields.cableType, cableLengthM: linkFields.cableLengthM, notes: linkFields.notes });
+export const profileFormSchema = z.strictObject({ name: profileFields.name, role: profileFields.role, maker: profileFields.maker, model: profileFields.model, notes: profileFields.notes });

@@ -1,0 +1,148 @@
+/**
+ * A versioned edit form for one vault record: sends only the fields you changed with the version
+ * you opened, shows field errors inline, and on 409 offers to compare and re-apply.
+ */
+import { useEffect, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { api, ApiError } from '../../lib/client/api';
+import { vaultKeys } from '../../lib/client/keys';
+import { FormField } from '../FormField';
+import { ConflictPanel } from './ConflictPanel';
+import { ErrorNotice, isConflict, useUnsavedGuard } from './shared';
+
+export interface FieldDef {
+  name: string;
+  label: string;
+  kind?: 'text' | 'textarea' | 'select' | 'number';
+  options?: readonly { value: string; label: string }[];
+  hint?: string;
+}
+
+type Rec = Record<string, unknown> & { id: string; version: number };
+
+interface Props {
+  path: string;
+  record: Rec;
+  fields: FieldDef[];
+  schema: z.ZodType;
+  canEdit: boolean;
+  /** Where to go after moving the record to the trash; no delete button when absent. */
+  afterDelete?: string;
+  noun: string;
+  onSaved?(record: Rec): void;
+}
+
+const pick = (r: Record<string, unknown>, names: string[]) => Object.fromEntries(names.map((n) => [n, r[n] ?? (n === 'cableLengthM' ? null : '')]));
+
+export function EntityForm({ path, record, fields, schema, canEdit, afterDelete, noun, onSaved }: Props) {
+  const qc = useQueryClient();
+  const names = fields.map((f) => f.name);
+  const [base, setBase] = useState<Rec>(record);
+  const [conflict, setConflict] = useState<{ current: Rec; mine: Record<string, unknown> } | null>(null);
+  const form = useForm<Record<string, unknown>>({ resolver: zodResolver(schema as never) as never, defaultValues: pick(record, names) });
+  const { errors, dirtyFields, isDirty } = form.formState;
+  useUnsavedGuard(isDirty);
+  // A newer version saved elsewhere on the page (e.g. a link's members): take it while nothing is being edited.
+  useEffect(() => {
+    if (!isDirty && record.version > base.version) {
+      setBase(record);
+      form.reset(pick(record, names));
+    }
+  }, [record.version]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  const save = useMutation({
+    mutationFn: (body: Record<string, unknown>) => api<Rec>(path, { method: 'PATCH', body }),
+    onSuccess: (saved) => {
+      setBase(saved);
+      setConflict(null);
+      form.reset(pick(saved, names));
+      qc.invalidateQueries({ queryKey: vaultKeys.all() });
+      onSaved?.(saved);
+    },
+    onError: (err, body) => {
+      if (isConflict(err)) {
+        const { version: _v, ...mine } = body;
+        setConflict({ current: err.body.current as Rec, mine });
+      } else if (err instanceof ApiError) {
+        for (const [k, message] of Object.entries(err.fields)) if (names.includes(k)) form.setError(k, { message });
+      }
+    },
+  });
+  const remove = useMutation({
+    mutationFn: () => api(`${path}?version=${base.version}`, { method: 'DELETE' }),
+    onSuccess: () => {
+      form.reset(form.getValues());
+      location.assign(afterDelete!);
+    },
+  });
+
+  const submit = form.handleSubmit((values) => {
+    const changed = Object.fromEntries(Object.keys(dirtyFields).map((k) => [k, values[k]]));
+    save.mutate({ version: base.version, ...changed });
+  });
+
+  return (
+    <form onSubmit={submit} noValidate aria-label={`Edit ${noun}`}>
+      <fieldset disabled={!canEdit} className="grid gap-x-4 sm:grid-cols-2">
+        {fields.map((f) => {
+          const id = `${noun}-${f.name}`;
+          const err = errors[f.name]?.message as string | undefined;
+          const common = { id, className: 'input disabled:bg-paper disabled:border-line', 'aria-invalid': !!err, 'aria-describedby': err ? `${id}-error` : undefined };
+          return (
+            <div key={f.name} className={f.kind === 'textarea' ? 'sm:col-span-2' : ''}>
+              <FormField id={id} label={f.label} error={err} hint={f.hint}>
+                {f.kind === 'textarea' ? (
+                  <textarea rows={3} {...common} {...form.register(f.name)} />
+                ) : f.kind === 'select' ? (
+                  <select {...common} {...form.register(f.name)}>
+                    {f.options!.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+                  </select>
+                ) : f.kind === 'number' ? (
+                  <input type="number" step="any" inputMode="decimal" {...common} {...form.register(f.name, { setValueAs: (v) => (v === '' || v === null ? null : Number(v)) })} />
+                ) : (
+                  <input {...common} {...form.register(f.name)} />
+                )}
+              </FormField>
+            </div>
+          );
+        })}
+      </fieldset>
+      {conflict && (
+        <div className="mb-3">
+          <ConflictPanel
+            base={base}
+            current={conflict.current}
+            mine={conflict.mine}
+            fields={names}
+            busy={save.isPending}
+            onReapply={() => save.mutate({ ...conflict.mine, version: conflict.current.version })}
+            onDiscard={() => {
+              setBase(conflict.current);
+              form.reset(pick(conflict.current, names));
+              setConflict(null);
+            }}
+          />
+        </div>
+      )}
+      {save.isError && !conflict && <ErrorNotice error={save.error} />}
+      {remove.isError && <ErrorNotice error={remove.error} />}
+      {canEdit && (
+        <div className="flex flex-wrap items-center gap-2 mt-1">
+          <button className="btn" disabled={save.isPending || !isDirty}>Save {noun}</button>
+          {isDirty && <button type="button" className="btn btn-quiet" onClick={() => form.reset()}>Undo changes</button>}
+          {save.isSuccess && !isDirty && <span className="text-sm text-ok" role="status">Saved · version {base.version}</span>}
+          {afterDelete && (
+            <button type="button" className="btn btn-quiet ml-auto" disabled={remove.isPending}
+              onClick={() => confirm(`Move this ${noun} to the trash? An engineer can restore it from there.`) && remove.mutate()}>
+              Move to trash
+            </button>
+          )}
+        </div>
+      )}
+      <p className="text-xs text-muted mt-2">Version {base.version}</p>
+    </form>
+  );
+}

@@ -1,0 +1,173 @@
+/** Edit or add one port: line settings, RS-485 options, timing, protocol, frame rules, wiring and notes. */
+import { useState } from 'react';
+import { useFieldArray, useForm, type UseFormRegister } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api, ApiError } from '../../lib/client/api';
+import { vaultKeys } from '../../lib/client/keys';
+import { portInputSchema, type PortInput } from '../../lib/schemas/vault';
+import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, STANDARD_BAUD_RATES } from '../../lib/frame/port-settings';
+import { BYTE_SETS } from '../../lib/frame/frame-rules';
+import { FormField } from '../FormField';
+import { ConflictPanel } from './ConflictPanel';
+import { Caution, ErrorNotice, isConflict, useUnsavedGuard } from './shared';
+import { dirtyPaths, flatten, getPath, setPath } from './paths';
+
+export interface PortRecord extends PortInput { id: string; version: number; shorthand: string; text: string }
+
+const LABELS = {
+  interface: { rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire', ttl: 'TTL UART', 'usb-vcp': 'USB virtual COM port', tcp: 'Serial over TCP' },
+  parity: { none: 'None', even: 'Even', odd: 'Odd', mark: 'Mark', space: 'Space' },
+  handshake: { none: 'None', 'rts-cts': 'RTS/CTS', 'xon-xoff': 'XON/XOFF', 'dtr-dsr': 'DTR/DSR' },
+  protocol: { ascii: 'Delimited ASCII commands', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' },
+  direction: { none: 'None', rts: 'RTS high while transmitting', auto: 'Automatic' },
+  byteSet: { printable: 'Printable only (20-7E)', '7-bit': '7-bit (00-7F)', '8-bit': 'Any byte' },
+  letterCase: { any: 'Any case', upper: 'Upper case', lower: 'Lower case' },
+} as const;
+
+const optNumber = (v: unknown) => (v === '' || v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v));
+const nullNumber = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
+const optText = (v: unknown) => (v === '' || v === null ? undefined : v);
+
+interface Props {
+  port?: PortRecord;
+  /** Saves through the port API; leave out and pass `onSave` for ports kept inside a profile. */
+  deviceId?: string;
+  onSave?(value: PortInput): Promise<unknown>;
+  onDone(): void;
+}
+
+export function PortForm({ port, deviceId, onSave, onDone }: Props) {
+  const qc = useQueryClient();
+  const start: PortInput = port ? { name: port.name, settings: port.settings, wiring: port.wiring, notes: port.notes } : { name: '', settings: defaultPortSettings, wiring: [], notes: '' };
+  const [base, setBase] = useState(port);
+  const [conflict, setConflict] = useState<PortRecord | null>(null);
+  const form = useForm<PortInput>({ resolver: zodResolver(portInputSchema) as never, defaultValues: start });
+  const wiring = useFieldArray({ control: form.control, name: 'wiring' });
+  const { errors, isDirty } = form.formState;
+  useUnsavedGuard(isDirty);
+  const iface = form.watch('settings.interface');
+
+  const save = useMutation({
+    mutationFn: (body: Record<string, unknown>) =>
+      onSave ? onSave(form.getValues()) : base ? api<PortRecord>(`/api/ports/${base.id}`, { method: 'PATCH', body: { version: base.version, ...body } }) : api<PortRecord>('/api/ports', { body: { deviceId, ...body } }),
+    onSuccess: () => {
+      form.reset(form.getValues());
+      qc.invalidateQueries({ queryKey: vaultKeys.all() });
+      onDone();
+    },
+    onError: (err) => {
+      if (isConflict(err)) setConflict(err.body.current as PortRecord);
+      else if (err instanceof ApiError) for (const [k, message] of Object.entries(err.fields)) form.setError(k as never, { message });
+    },
+  });
+
+  const submit = form.handleSubmit((v) => {
+    const changed = new Set(dirtyPaths(form.formState.dirtyFields).map((p) => p.split('.')[0]!));
+    const body = base && !onSave ? Object.fromEntries([...changed].map((k) => [k, v[k as keyof PortInput]])) : v;
+    save.mutate(body);
+  });
+
+  /** Re-apply: the saved port with each field I changed laid over it. */
+  function reapply(current: PortRecord) {
+    const paths = dirtyPaths(form.formState.dirtyFields);
+    let merged: PortInput = { name: current.name, settings: current.settings, wiring: current.wiring, notes: current.notes };
+    for (const p of paths) merged = setPath(merged, p, getPath(form.getValues(), p));
+    setBase(current);
+    setConflict(null);
+    form.reset({ name: current.name, settings: current.settings, wiring: current.wiring, notes: current.notes });
+    for (const p of paths) form.setValue(p as never, getPath(merged, p) as never, { shouldDirty: true });
+    api<PortRecord>(`/api/ports/${current.id}`, { method: 'PATCH', body: { version: current.version, ...Object.fromEntries(paths.map((p) => p.split('.')[0]!).map((k) => [k, merged[k as keyof PortInput]])) } })
+      .then(() => { form.reset(form.getValues()); qc.invalidateQueries({ queryKey: vaultKeys.all() }); onDone(); })
+      .catch((err) => (isConflict(err) ? setConflict(err.body.current as PortRecord) : form.setError('root', { message: err.message })));
+  }
+
+  const f = (name: string) => `port-${port?.id ?? 'new'}-${name.replace(/\./g, '-')}`;
+  const err = (path: string): string | undefined => (getPath(errors, `${path}.message`) as string | undefined) ?? undefined;
+  const mine = flatten(Object.fromEntries(dirtyPaths(form.formState.dirtyFields).map((p) => [p, getPath(form.getValues(), p)])));
+  return (
+    <form onSubmit={submit} noValidate aria-label={port ? `Edit port ${port.name}` : 'Add a port'} className="grid gap-3 border-t border-line pt-3 mt-3">
+      <Caution />
+      <div className="grid gap-x-3 sm:grid-cols-3">
+        <FormField id={f('name')} label="Port name" error={err('name')}><input id={f('name')} className="input" {...form.register('name')} /></FormField>
+        <Select reg={form.register} id={f('interface')} name="settings.interface" label="Electrical interface" options={INTERFACES.map((i) => [i, LABELS.interface[i]])} />
+        <FormField id={f('baud')} label="Baud rate" error={err('settings.baud')} hint="Standard rates offered; any positive rate allowed">
+          <input id={f('baud')} className="input mono" list="baud-rates" inputMode="numeric" {...form.register('settings.baud', { setValueAs: (v) => (v === '' ? NaN : Number(v)) })} />
+        </FormField>
+        <datalist id="baud-rates">{STANDARD_BAUD_RATES.map((b) => <option key={b} value={b} />)}</datalist>
+        <Select reg={form.register} id={f('dataBits')} name="settings.dataBits" label="Data bits" options={[5, 6, 7, 8].map((n) => [n, String(n)])} number />
+        <Select reg={form.register} id={f('parity')} name="settings.parity" label="Parity" options={PARITIES.map((p) => [p, LABELS.parity[p]])} />
+        <Select reg={form.register} id={f('stopBits')} name="settings.stopBits" label="Stop bits" options={[[1, '1'], [1.5, '1.5'], [2, '2']]} number />
+        <Select reg={form.register} id={f('handshake')} name="settings.handshake" label="Handshaking" options={HANDSHAKES.map((h) => [h, LABELS.handshake[h]])} />
+        <Select reg={form.register} id={f('protocol')} name="settings.protocol" label="Protocol" options={PROTOCOLS.map((p) => [p, LABELS.protocol[p]])} />
+        <FormField id={f('addr')} label="Node address" error={err('settings.nodeAddress')} hint="Blank when the protocol has none">
+          <input id={f('addr')} className="input mono" inputMode="numeric" {...form.register('settings.nodeAddress', { setValueAs: nullNumber })} />
+        </FormField>
+        {iface === 'tcp' && (
+          <>
+            <FormField id={f('host')} label="TCP host" error={err('settings.tcpHost')}><input id={f('host')} className="input mono" {...form.register('settings.tcpHost', { setValueAs: optText })} /></FormField>
+            <FormField id={f('tcpport')} label="TCP port" error={err('settings.tcpPort')}><input id={f('tcpport')} className="input mono" inputMode="numeric" {...form.register('settings.tcpPort', { setValueAs: optNumber })} /></FormField>
+          </>
+        )}
+      </div>
+      {iface?.startsWith('rs485') && (
+        <fieldset className="grid gap-x-3 sm:grid-cols-3 items-end">
+          <legend className="font-semibold text-sm mb-1">RS-485</legend>
+          <Select reg={form.register} id={f('dir')} name="settings.rs485Direction" label="Direction control" options={(['none', 'rts', 'auto'] as const).map((d) => [d, LABELS.direction[d]])} />
+          <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.termination')} /> Termination on at this device</label>
+          <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.bias')} /> Bias on at this device</label>
+        </fieldset>
+      )}
+      <fieldset className="grid gap-x-3 grid-cols-2 sm:grid-cols-4">
+        <legend className="font-semibold text-sm mb-1">Timing</legend>
+        {([['responseTimeoutMs', 'Response timeout (ms)'], ['interCharTimeoutMs', 'Inter-character timeout (ms)'], ['turnaroundDelayMs', 'Turnaround delay (ms)'], ['retries', 'Retries']] as const).map(([k, label]) => (
+          <FormField key={k} id={f(k)} label={label} error={err(`settings.${k}`)}>
+            <input id={f(k)} className="input mono" inputMode="decimal" {...form.register(`settings.${k}`, { setValueAs: (v) => (v === '' ? NaN : Number(v)) })} />
+          </FormField>
+        ))}
+      </fieldset>
+      <fieldset className="grid gap-x-3 grid-cols-2 sm:grid-cols-5">
+        <legend className="font-semibold text-sm mb-1">Frame rules of this device</legend>
+        <FormField id={f('start')} label="Start bytes (hex)" error={err('settings.frameRules.start')}><input id={f('start')} className="input mono" placeholder="e.g. 02" {...form.register('settings.frameRules.start', { setValueAs: optText })} /></FormField>
+        <FormField id={f('term')} label="Terminator (hex)" error={err('settings.frameRules.terminator')}><input id={f('term')} className="input mono" placeholder="e.g. 0D 0A" {...form.register('settings.frameRules.terminator', { setValueAs: optText })} /></FormField>
+        <FormField id={f('max')} label="Maximum length" error={err('settings.frameRules.maxLength')}><input id={f('max')} className="input mono" inputMode="numeric" {...form.register('settings.frameRules.maxLength', { setValueAs: optNumber })} /></FormField>
+        <Select reg={form.register} id={f('bytes')} name="settings.frameRules.byteSet" label="Allowed bytes" options={BYTE_SETS.map((b) => [b, LABELS.byteSet[b]])} />
+        <Select reg={form.register} id={f('case')} name="settings.frameRules.letterCase" label="Letter case" options={(['any', 'upper', 'lower'] as const).map((c) => [c, LABELS.letterCase[c]])} />
+      </fieldset>
+      <fieldset>
+        <legend className="font-semibold text-sm mb-1">Connector and wiring</legend>
+        {wiring.fields.map((w, i) => (
+          <div key={w.id} className="grid grid-cols-[4rem_1fr_1fr_auto] gap-2 mb-2 items-center">
+            <input aria-label={`Pin, row ${i + 1}`} className="input mono" placeholder="Pin" {...form.register(`wiring.${i}.pin`)} />
+            <input aria-label={`Signal, row ${i + 1}`} className="input" placeholder="Signal" {...form.register(`wiring.${i}.signal`)} />
+            <input aria-label={`Wire colour, row ${i + 1}`} className="input" placeholder="Wire colour" {...form.register(`wiring.${i}.colour`)} />
+            <button type="button" className="btn btn-quiet btn-sm" aria-label={`Remove row ${i + 1}`} onClick={() => wiring.remove(i)}>✕</button>
+          </div>
+        ))}
+        <button type="button" className="btn btn-quiet btn-sm" onClick={() => wiring.append({ pin: '', signal: '', colour: '' })}>Add wiring row</button>
+      </fieldset>
+      <FormField id={f('notes')} label="Notes" error={err('notes')}><textarea id={f('notes')} rows={2} className="input" {...form.register('notes')} /></FormField>
+      {conflict && base && (
+        <ConflictPanel base={flatten({ ...start })} current={{ ...flatten({ name: conflict.name, settings: conflict.settings, wiring: conflict.wiring, notes: conflict.notes }), version: conflict.version }}
+          mine={mine} fields={Object.keys(flatten({ ...start }))} busy={save.isPending} onReapply={() => reapply(conflict)}
+          onDiscard={() => { setBase(conflict); form.reset({ name: conflict.name, settings: conflict.settings, wiring: conflict.wiring, notes: conflict.notes }); setConflict(null); }} />
+      )}
+      {save.isError && !conflict && <ErrorNotice error={save.error} />}
+      {errors.root && <p className="field-error" role="alert">{errors.root.message}</p>}
+      <div className="flex flex-wrap gap-2">
+        <button className="btn" disabled={save.isPending}>{port ? 'Save port' : 'Add port'}</button>
+        <button type="button" className="btn btn-quiet" onClick={() => (!isDirty || confirm('Drop your changes to this port?')) && (form.reset(), onDone())}>Cancel</button>
+      </div>
+    </form>
+  );
+}
+
+function Select({ reg, id, name, label, options, number }: { reg: UseFormRegister<PortInput>; id: string; name: string; label: string; options: readonly (readonly [string | number, string])[]; number?: boolean }) {
+  return (
+    <FormField id={id} label={label}>
+      <select id={id} className="input" {...reg(name as never, number ? { setValueAs: (v) => Number(v) } : {})}>
+        {options.map(([v, l]) => <option key={String(v)} value={v}>{l}</option>)}
+      </select>
+    </FormField>
+  );
+}

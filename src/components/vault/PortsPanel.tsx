@@ -1,0 +1,70 @@
+/** A device's ports: shorthand, copy-as-text, edit, add and move to trash. */
+import { useState } from 'react';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../lib/client/api';
+import { vaultKeys } from '../../lib/client/keys';
+import { QueryProvider } from '../QueryProvider';
+import { PortForm, type PortRecord } from './PortForm';
+import { CopyButton, ErrorNotice, INTERFACE_LABEL, PROTOCOL_LABEL } from './shared';
+import { HistoryList } from './HistoryPanel';
+
+interface DeviceData { id: string; tag: string; ports: PortRecord[] }
+
+interface Props { device: DeviceData; canEdit: boolean }
+
+function Ports({ device, canEdit }: Props) {
+  const qc = useQueryClient();
+  const q = useQuery({ queryKey: vaultKeys.record('device', device.id), queryFn: () => api<DeviceData>(`/api/devices/${device.id}`), initialData: device });
+  const [editing, setEditing] = useState<string | null>(null);
+  const [history, setHistory] = useState<string | null>(null);
+  const remove = useMutation({
+    mutationFn: (p: PortRecord) => api(`/api/ports/${p.id}?version=${p.version}`, { method: 'DELETE' }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: vaultKeys.all() }),
+  });
+  const ports = q.data.ports;
+  const allText = ports.map((p) => `${device.tag} — ${p.text}`).join('\n\n');
+  return (
+    <div className="grid grid-cols-1 gap-3">
+      <div className="flex flex-wrap gap-2 items-center">
+        <h2 className="mr-auto">Ports</h2>
+        {ports.length > 1 && <CopyButton text={allText} label="Copy all ports as text" />}
+        {canEdit && editing !== 'new' && <button type="button" className="btn btn-sm" onClick={() => setEditing('new')}>Add a port</button>}
+      </div>
+      <ErrorNotice error={remove.error} />
+      {ports.length === 0 && editing !== 'new' && <p className="text-muted">No ports recorded yet.{canEdit && ' Add the first one.'}</p>}
+      {ports.map((p) => (
+        <article key={p.id} className="card" data-testid="port" aria-label={`Port ${p.name}`}>
+          <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
+            <h3 className="font-semibold">{p.name}</h3>
+            <span className="mono text-lg" data-testid="shorthand">{p.shorthand}</span>
+            <span className="text-sm text-muted">{INTERFACE_LABEL[p.settings.interface]} · {PROTOCOL_LABEL[p.settings.protocol]}{p.settings.nodeAddress !== null ? ` · address ${p.settings.nodeAddress}` : ''}</span>
+            <span className="text-xs text-muted ml-auto">version {p.version}</span>
+          </div>
+          <details className="mt-2">
+            <summary className="cursor-pointer text-sm">All settings</summary>
+            <pre className="mono text-xs bg-paper p-2 rounded mt-1 whitespace-pre-wrap">{p.text}</pre>
+          </details>
+          <div className="flex flex-wrap gap-2 mt-2">
+            <CopyButton text={`${device.tag} — ${p.text}`} />
+            {canEdit && editing !== p.id && <button type="button" className="btn btn-quiet btn-sm" onClick={() => setEditing(p.id)}>Edit port</button>}
+            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setHistory(history === p.id ? null : p.id)} aria-expanded={history === p.id}>History</button>
+            {canEdit && (
+              <button type="button" className="btn btn-quiet btn-sm" onClick={() => confirm(`Move port ${p.name} to the trash?`) && remove.mutate(p)}>Move to trash</button>
+            )}
+          </div>
+          {editing === p.id && <PortForm port={p} deviceId={device.id} onDone={() => setEditing(null)} />}
+          {history === p.id && <div className="mt-3"><HistoryList type="port" id={p.id} canRestore={canEdit} /></div>}
+        </article>
+      ))}
+      {editing === 'new' && <div className="card"><h3 className="font-semibold">New port</h3><PortForm deviceId={device.id} onDone={() => setEditing(null)} /></div>}
+    </div>
+  );
+}
+
+export default function PortsPanel(props: Props) {
+  return (
+    <QueryProvider>
+      <Ports {...props} />
+    </QueryProvider>
+  );
+}

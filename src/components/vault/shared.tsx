@@ -1,0 +1,119 @@
+/** Small pieces shared by the vault islands: caution, state badge, copy button, unsaved-changes guard, pager. */
+import { useEffect, useState, type ReactNode } from 'react';
+import { ApiError } from '../../lib/client/api';
+
+/** The caution shown wherever communication settings are edited or copied. */
+export function Caution() {
+  return (
+    <p className="notice notice-warn text-sm" role="note">
+      Changing communication settings can stop a running machine. Make the change with the machine in a safe state, under
+      the site's lockout procedures and following the device's own manual.
+    </p>
+  );
+}
+
+const STATE_TEXT = { ok: 'Agrees', warning: 'Check', error: 'Mismatch' } as const;
+const STATE_CLASS = {
+  ok: 'bg-ok/10 text-ok border-ok',
+  warning: 'bg-warn/10 text-warn border-warn',
+  error: 'bg-bad/10 text-bad border-bad',
+} as const;
+
+/** Red / amber / green state of a link, with a word so colour is never the only cue. */
+export function StateBadge({ state }: { state: 'ok' | 'warning' | 'error' }) {
+  return (
+    <span data-testid="link-state" data-state={state} className={`inline-flex items-center gap-1 rounded border px-1.5 py-0.5 text-xs font-semibold ${STATE_CLASS[state]}`}>
+      <span aria-hidden="true" className={`inline-block h-2 w-2 rounded-full ${state === 'ok' ? 'bg-ok' : state === 'warning' ? 'bg-warn' : 'bg-bad'}`} />
+      {STATE_TEXT[state]}
+    </span>
+  );
+}
+
+export function CopyButton({ text, label = 'Copy as text' }: { text: string; label?: string }) {
+  const [done, setDone] = useState<'ok' | 'failed' | null>(null);
+  async function copy() {
+    try {
+      await navigator.clipboard.writeText(text);
+      setDone('ok');
+    } catch {
+      setDone('failed');
+    }
+    setTimeout(() => setDone(null), 2000);
+  }
+  return (
+    <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-live="polite">
+      {done === 'ok' ? 'Copied' : done === 'failed' ? 'Copy failed — select the text' : label}
+    </button>
+  );
+}
+
+/** Warns before leaving with unsaved changes: the browser's own prompt on unload, a confirm on in-app links. */
+export function useUnsavedGuard(dirty: boolean) {
+  useEffect(() => {
+    if (!dirty) return;
+    const onUnload = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+      e.returnValue = '';
+    };
+    const onClick = (e: MouseEvent) => {
+      const a = (e.target as Element | null)?.closest?.('a[href]') as HTMLAnchorElement | null;
+      if (!a || a.target === '_blank' || e.defaultPrevented) return;
+      if (!confirm('You have unsaved changes. Leave this page and lose them?')) e.preventDefault();
+    };
+    window.addEventListener('beforeunload', onUnload);
+    document.addEventListener('click', onClick, true);
+    return () => {
+      window.removeEventListener('beforeunload', onUnload);
+      document.removeEventListener('click', onClick, true);
+    };
+  }, [dirty]);
+}
+
+export function ErrorNotice({ error }: { error: unknown }) {
+  if (!error) return null;
+  const message = error instanceof Error ? error.message : String(error);
+  return <p className="notice notice-bad" role="alert">{message}</p>;
+}
+
+export function Pager({ page, pageSize, total, onPage }: { page: number; pageSize: number; total: number; onPage: (p: number) => void }) {
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  return (
+    <nav aria-label="Pages" className="flex flex-wrap items-center gap-2 text-sm mt-3">
+      <button type="button" className="btn btn-quiet btn-sm" disabled={page <= 1} onClick={() => onPage(page - 1)}>Previous</button>
+      <span>Page {page} of {pages} · {total} in all</span>
+      <button type="button" className="btn btn-quiet btn-sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>Next</button>
+    </nav>
+  );
+}
+
+/** A value from a revision or a comparison, readable: blanks as a dash, objects as compact JSON. */
+export function showValue(v: unknown): string {
+  if (v === null || v === undefined || v === '') return '—';
+  if (typeof v === 'boolean') return v ? 'on' : 'off';
+  if (typeof v === 'object') return JSON.stringify(v);
+  return String(v);
+}
+
+export function fieldLabel(field: string): string {
+  const last = field.split('.').slice(-1)[0]!;
+  return field.startsWith('settings.') ? `${last} (settings)` : field;
+}
+
+export function Section({ title, children, actions, id }: { title: string; children: ReactNode; actions?: ReactNode; id?: string }) {
+  return (
+    <section className="card" aria-labelledby={id}>
+      <div className="flex flex-wrap items-center gap-2 mb-3">
+        <h2 id={id}>{title}</h2>
+        <div className="ml-auto flex flex-wrap gap-2">{actions}</div>
+      </div>
+      {children}
+    </section>
+  );
+}
+
+export const isConflict = (e: unknown): e is ApiError => e instanceof ApiError && e.status === 409;
+
+export const INTERFACE_LABEL: Record<string, string> = {
+  rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire', ttl: 'TTL UART', 'usb-vcp': 'USB virtual COM port', tcp: 'Serial over TCP',
+};
+export const PROTOCOL_LABEL: Record<string, string> = { ascii: 'delimited ASCII', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'other protocol' };

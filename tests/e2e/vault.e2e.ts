@@ -1,0 +1,156 @@
+/** The vault in the browser: build a site → machine → device → link, edit a port, see a finding, restore, resolve a conflict. */
+import { afterEach, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { DESKTOP, hydrated, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+
+const stamp = Date.now().toString(36).slice(-5).toUpperCase();
+let browsers: Browser[] = [];
+async function browser(options?: Parameters<typeof openBrowser>[0]) {
+  const b = await openBrowser(options);
+  browsers.push(b);
+  b.page.on('dialog', (d) => d.accept());
+  return b;
+}
+afterEach(async () => {
+  await Promise.all(browsers.map((b) => b.close()));
+  browsers = [];
+});
+
+async function create(page: Page, button: string, fields: Record<string, string>) {
+  await page.getByRole('button', { name: button }).click();
+  const form = page.getByRole('form', { name: button });
+  for (const [label, value] of Object.entries(fields)) {
+    const field = form.getByLabel(label, { exact: true });
+    if ((await field.evaluate((el) => el.tagName)) === 'SELECT') await field.selectOption(value);
+    else await field.fill(value);
+  }
+  await form.getByRole('button', { name: 'Create' }).click();
+  await page.waitForURL(/\/vault\/(sites|machines|devices|links|profiles)\/[^/]+$/);
+  await hydrated(page);
+}
+
+async function api(page: Page, method: string, path: string, data?: unknown) {
+  const res = await page.request.fetch(path, { method, data, headers: { origin: new URL(page.url()).origin } });
+  expect(res.status(), await res.text()).toBeLessThan(300);
+  return res.json();
+}
+
+describe('vault in the browser', () => {
+  it('creates a site, machine, device and link, edits a port, sees the finding and restores an old revision', async () => {
+    const { page } = await browser();
+    await signIn(page, 'engineer@fernhollow.test');
+    await visit(page, '/vault');
+    await create(page, 'Add a site', { 'Site name': `Hollin Bakery ${stamp}`, Customer: 'Hollin Foods' });
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('Hollin Bakery');
+    await create(page, 'Add a machine', { 'Machine, line or cell': 'Proofer line', 'Customer’s number': 'P1' });
+    await create(page, 'Add a device', { Tag: `PLC-${stamp}`, Name: 'Proofer controller', Role: 'plc' });
+    const machineUrl = await page.getByRole('navigation', { name: 'Breadcrumb' }).getByRole('link', { name: 'Proofer line' }).getAttribute('href');
+
+    // first port, through the port form
+    await page.getByRole('button', { name: 'Add a port' }).click();
+    const form = page.getByRole('form', { name: 'Add a port' });
+    await form.getByLabel('Port name').fill('X3');
+    await form.getByLabel('Electrical interface').selectOption('rs485-2w');
+    await form.getByLabel('Baud rate').fill('19200');
+    await form.getByLabel('Parity').selectOption('even');
+    await form.getByLabel('Direction control').selectOption('auto');
+    await form.getByLabel('Termination on at this device').check();
+    await form.getByLabel('Bias on at this device').check();
+    await form.getByRole('button', { name: 'Add port' }).click();
+    const port = page.getByTestId('port').first();
+    await expect.poll(() => port.getByTestId('shorthand').textContent()).toBe('19200 8-E-1');
+    const deviceId = page.url().split('/').pop()!;
+
+    // edit it: bad input is refused inline, a good one saves
+    await port.getByRole('button', { name: 'Edit port' }).click();
+    const edit = page.getByRole('form', { name: 'Edit port X3' });
+    await edit.getByLabel('Baud rate').fill('-5');
+    await edit.getByRole('button', { name: 'Save port' }).click();
+    await edit.locator('.field-error').first().waitFor();
+    await edit.getByLabel('Baud rate').fill('38400');
+    await edit.getByRole('button', { name: 'Save port' }).click();
+    await expect.poll(() => port.getByTestId('shorthand').textContent()).toBe('38400 8-E-1');
+    await shot(page, 'vault-device-desktop');
+
+    // a second device at 9600 (made through the API) and a bus between the two, made in the browser
+    const drive = await api(page, 'POST', '/api/devices', {
+      machineId: machineUrl!.split('/').pop(), tag: `DRV-${stamp}`, role: 'drive',
+      ports: [{ name: 'RS-485', settings: { interface: 'rs485-2w', baud: 9600, parity: 'even', rs485Direction: 'auto', nodeAddress: 1, termination: true } }],
+    });
+    await visit(page, machineUrl!);
+    await create(page, 'Add a link', { 'Link name': 'Proofer bus', Kind: 'rs485-bus' });
+    const add = page.getByLabel('Add a port on this machine');
+    await add.selectOption({ label: `PLC-${stamp} X3 — 38400 8-E-1` });
+    await page.getByRole('button', { name: 'Add', exact: true }).click();
+    await add.selectOption({ label: `DRV-${stamp} RS-485 — 9600 8-E-1` });
+    await page.getByRole('button', { name: 'Add', exact: true }).click();
+    await page.getByRole('button', { name: 'Save members' }).click();
+    const finding = page.getByTestId('findings').locator('[data-code="baud-mismatch"]');
+    await finding.waitFor();
+    expect(await finding.textContent()).toContain(`Change on DRV-${stamp} RS-485`);
+    await expect.poll(() => page.getByTestId('findings').getByTestId('link-state').getAttribute('data-state')).toBe('error');
+    await shot(page, 'vault-link-desktop');
+
+    // the machine page shows the link red
+    await visit(page, machineUrl!);
+    const row = page.getByTestId('links').locator('li', { hasText: 'Proofer bus' });
+    expect(await row.getByTestId('link-state').getAttribute('data-state')).toBe('error');
+
+    // restore the port's first revision: back to 19200
+    await visit(page, `/vault/devices/${deviceId}`);
+    const p = page.getByTestId('port').first();
+    await p.getByRole('button', { name: 'History' }).click();
+    await p.getByRole('button', { name: 'Restore v1' }).click();
+    await expect.poll(() => p.getByTestId('shorthand').textContent()).toBe('19200 8-E-1');
+    await expect.poll(() => p.getByTestId('history').locator('li').first().textContent()).toContain('Restored version 1');
+    expect(drive.id).toBeTruthy();
+  });
+
+  it('offers to compare and re-apply when someone else saved first', async () => {
+    const { page } = await browser();
+    await signIn(page, 'engineer@fernhollow.test');
+    await visit(page, '/vault/devices/dev_demo_scl210');
+    const edit = page.getByRole('form', { name: 'Edit device' });
+    const current = await api(page, 'GET', '/api/devices/dev_demo_scl210');
+    await edit.getByLabel('Firmware').fill(`fw-${stamp}`);
+    // a colleague changes the location meanwhile
+    await api(page, 'PATCH', '/api/devices/dev_demo_scl210', { version: current.version, location: `Packing table ${stamp}` });
+    await edit.getByRole('button', { name: 'Save device' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.textContent()).toContain(`Packing table ${stamp}`);
+    await shot(page, 'vault-conflict-desktop', false);
+    await conflict.getByRole('button', { name: /Apply my changes on version/ }).click();
+    await edit.getByText(/Saved · version/).waitFor();
+    const after = await api(page, 'GET', '/api/devices/dev_demo_scl210');
+    expect(after).toMatchObject({ firmware: `fw-${stamp}`, location: `Packing table ${stamp}`, version: current.version + 2 });
+  });
+
+  it('shows the demo bus fault and the screens at phone and desktop widths', async () => {
+    for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
+      const { page } = await browser({ viewport });
+      await signIn(page, 'technician@fernhollow.test');
+      await visit(page, '/vault');
+      await page.getByLabel('Find a device anywhere in the team').fill('DRV-203');
+      await page.getByTestId('search-results').getByRole('link', { name: 'DRV-203' }).waitFor();
+      await shot(page, `vault-index-${name}`);
+      await visit(page, '/vault/machines/mach_demo_churn');
+      const bus = page.getByTestId('links').locator('li', { hasText: 'Churn drive bus' });
+      expect(await bus.getByTestId('link-state').getAttribute('data-state')).toBe('error');
+      expect(await bus.textContent()).toContain('DRV-203 RS-485: set the baud rate to 9600');
+      await shot(page, `vault-machine-${name}`);
+      await visit(page, '/vault/devices/dev_demo_drv203');
+      await page.getByRole('heading', { name: 'Copy settings to another device' }).waitFor();
+      expect(await page.getByRole('button', { name: 'Save device' }).count()).toBe(0);
+      await shot(page, `vault-device-tech-${name}`);
+      await visit(page, '/vault/links/link_demo_churn_bus');
+      await shot(page, `vault-bus-${name}`);
+    }
+    const { page } = await browser();
+    await signIn(page, 'admin@fernhollow.test');
+    await visit(page, '/vault/trash');
+    await shot(page, 'vault-trash-desktop');
+    await visit(page, '/vault/profiles');
+    await shot(page, 'vault-profiles-desktop');
+  });
+});
