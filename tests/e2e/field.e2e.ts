@@ -1,0 +1,92 @@
+/** Field work in the browser: a technician on a phone at the cabinet, a customer through a share link, the printed door cards. */
+import { afterEach, describe, expect, it } from 'vitest';
+import { DESKTOP, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+
+const MACHINE = 'mach_demo_churn';
+const DEVICE = 'dev_demo_drv201';
+/** A 1×1 PNG built from its bytes, for the photo upload. */
+const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8DwHwAFBQIAX8jx0gAAAABJRU5ErkJggg==', 'base64');
+
+let browsers: Browser[] = [];
+async function browser(viewport = DESKTOP) {
+  const b = await openBrowser({ viewport });
+  browsers.push(b);
+  return b;
+}
+afterEach(async () => {
+  await Promise.all(browsers.map((b) => b.close()));
+  browsers = [];
+});
+
+describe('field work in the browser', () => {
+  it('a technician opens a card from its QR link, copies the settings and logs a replacement with a photo', async () => {
+    const b = await browser(PHONE);
+    await signIn(b.page, 'technician@fernhollow.test');
+    await visit(b.page, `/field/machines/${MACHINE}`);
+    const card = b.page.locator(`[data-testid="field-card"][data-device-id="${DEVICE}"]`);
+    await expect.poll(() => card.locator('[data-testid="qr"] svg').count()).toBe(1);
+    const qrUrl = await card.getByTestId('qr').getAttribute('data-qr-url');
+    expect(qrUrl).toMatch(new RegExp(`/field/devices/${DEVICE}$`));
+    await shot(b.page, 'field-machine-phone');
+
+    await visit(b.page, new URL(qrUrl!).pathname);
+    await expect.poll(() => b.page.getByTestId('shorthand').first().textContent()).toMatch(/^\d+ \d-[NEOMS]-[12]/);
+    await shot(b.page, 'field-card-phone', false);
+    await b.page.getByTestId('copy-settings').first().click();
+    await expect.poll(() => b.page.getByTestId('copy-settings').first().textContent()).toContain('Copied');
+    const copied = await b.page.evaluate(() => navigator.clipboard.readText());
+    expect(copied).toContain('DRV-201');
+    expect(copied).toMatch(/Baud rate: \d+/);
+
+    await b.page.getByLabel('Replacement unit fitted').check();
+    await b.page.getByLabel('Serial number of the unit fitted').fill('QD40-99001');
+    await b.page.getByTestId('log-photo-input').setInputFiles({ name: 'new-drive.png', mimeType: 'image/png', buffer: PNG });
+    await b.page.getByLabel('Photos for this entry').getByTestId('thumb').waitFor();
+    await b.page.getByLabel('Note').fill('Old unit had a burnt RS-485 port.');
+    await b.page.getByRole('button', { name: 'Save entry' }).click();
+    const entry = b.page.locator('[data-testid="log-entry"][data-kind="replacement"]').first();
+    await entry.getByText('QD40-99001').waitFor();
+    expect(await entry.getByTestId('thumb').count()).toBe(1);
+    await entry.scrollIntoViewIfNeeded();
+    await shot(b.page, 'field-log-phone');
+  });
+
+  it('a viewer without an account sees the shared cards and nothing else', async () => {
+    const eng = await browser();
+    await signIn(eng.page, 'engineer@fernhollow.test');
+    await visit(eng.page, `/field/shares?scopeType=machine&scopeId=${MACHINE}`);
+    await eng.page.getByLabel('Label (who it is for)').fill('Creamery maintenance');
+    await eng.page.getByRole('button', { name: 'Create link' }).click();
+    const url = await eng.page.getByTestId('new-share-url').inputValue();
+    expect(url).toMatch(/\/s\/[A-Za-z0-9_-]+$/);
+    await shot(eng.page, 'field-shares-desktop');
+
+    for (const [viewport, name] of [[PHONE, 'phone'], [DESKTOP, 'desktop']] as const) {
+      const guest = await browser(viewport);
+      await guest.page.goto(new URL(url).pathname);
+      await guest.page.getByTestId('share-page').waitFor();
+      expect(await guest.page.getByTestId('field-card').count()).toBeGreaterThan(1);
+      expect(await guest.page.locator('nav, form, input, textarea, select, #sign-out, #team-switcher').count()).toBe(0);
+      const links = await guest.page.locator('a[href]').evaluateAll((as) => as.map((a) => a.getAttribute('href')));
+      expect(links).toEqual([]);
+      await shot(guest.page, `field-share-${name}`, name === 'desktop');
+    }
+    await visit(eng.page, '/field/shares');
+    await expect.poll(() => eng.page.getByTestId('shares').locator('li').first().textContent()).toMatch(/opened 2 times/);
+  });
+
+  it("prints a machine's cards on A4 and US Letter", async () => {
+    const b = await browser();
+    await signIn(b.page, 'engineer@fernhollow.test');
+    for (const paper of ['a4', 'letter'] as const) {
+      await b.page.goto(`/field/machines/${MACHINE}/print?paper=${paper}`);
+      await b.page.emulateMedia({ media: 'print' });
+      expect(await b.page.getByTestId('print-controls').isVisible()).toBe(false);
+      expect(await b.page.locator('.fcopy').count()).toBe(0);
+      expect(await b.page.locator('[data-testid="qr"] svg').count()).toBeGreaterThan(1);
+      await expect.poll(() => b.page.getByTestId('card-revision').first().textContent()).toMatch(/Card revision \d+ · \d{4}-\d{2}-\d{2}/);
+      await shot(b.page, `field-print-${paper}`);
+      await b.page.emulateMedia({ media: 'screen' });
+    }
+  });
+});
