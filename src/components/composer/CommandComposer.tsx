@@ -1,10 +1,9 @@
 /** Island for /vault/{devices,profiles}/[id]/commands/[commandId]: the composer plus saving, history and copy. */
 import { useMutation } from '@tanstack/react-query';
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { api } from '../../lib/client/api';
 import { QueryProvider } from '../QueryProvider';
 import { ComposerCore } from './Composer';
-import { History } from './History';
 import { SaveBar } from './SaveBar';
 import { Section } from './Section';
 import { draftOf, type CommandDraft, type NamedPort } from './types';
@@ -19,6 +18,8 @@ export interface CommandComposerProps {
   /** A profile command seen from a device: read-only, with a copy action to this device. */
   inheritedFrom?: { profileId: string; label: string };
 }
+
+const History = lazy(() => import('./History'));
 
 function CopyHere({ commandId, deviceId, basePath }: { commandId: string; deviceId: string; basePath: string }) {
   const m = useMutation({
@@ -37,6 +38,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom }: Comm
   const [saved, setSaved] = useState(command.id ? { id: command.id, version: command.version! } : null);
   const [base, setBase] = useState<CommandDraft>(draftOf(command));
   const [epoch, setEpoch] = useState(0);
+  const [showHistory, setShowHistory] = useState(false);
   const readOnly = !canEdit || !!inheritedFrom;
   const banner = inheritedFrom && (
     <div className="notice notice-ok flex flex-wrap items-center gap-3" data-testid="inherited">
@@ -63,7 +65,13 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom }: Comm
           )}
           {saved && (
             <Section title="History" id="history-panel">
-              <History key={saved.version} commandId={saved.id} canRestore={canEdit && !inheritedFrom} onRestored={load} />
+              {showHistory ? (
+                <Suspense fallback={<p className="text-sm">Loading history…</p>}>
+                  <History key={saved.version} commandId={saved.id} canRestore={canEdit && !inheritedFrom} onRestored={load} />
+                </Suspense>
+              ) : (
+                <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
+              )}
             </Section>
           )}
         </>

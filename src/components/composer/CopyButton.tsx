@@ -17,7 +17,7 @@ export function CopyButton({ text, label }: { text: string; label: string }) {
     }
   };
   return (
-    <span className="inline-flex items-center gap-2">
+    <span className="inline-flex flex-row-reverse items-center gap-2 shrink-0">
       <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-label={`Copy ${label}`}>Copy</button>
       <span role="status" aria-live="polite" className={state === 'failed' ? 'text-bad text-sm' : 'text-ok text-sm'}>
         {state === 'copied' ? 'Copied' : state === 'failed' ? 'Copy blocked; select the text instead' : ''}

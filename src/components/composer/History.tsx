@@ -1,11 +1,11 @@
-/** A command's revisions, newest first; editors can put any of them back. */
+/** A command's revisions, newest first; editors can put any of them back. Loaded when asked for (kept out of the page's first load). */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
 
 interface Rev { id: string; version: number; action: string; userName: string; summary: string; createdAt: string }
 
-export function History({ commandId, canRestore, onRestored }: { commandId: string; canRestore: boolean; onRestored: (c: any) => void }) {
+export default function History({ commandId, canRestore, onRestored }: { commandId: string; canRestore: boolean; onRestored: (c: any) => void }) {
   const qc = useQueryClient();
   const q = useQuery({ queryKey: commandKeys.history(commandId), queryFn: () => api<{ version: number; items: Rev[] }>(`/api/commands/${commandId}/revisions`) });
   const restore = useMutation({

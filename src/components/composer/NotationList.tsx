@@ -7,8 +7,8 @@ export function NotationList({ rows }: { rows: NotationRow[] }) {
     <dl className="grid gap-3" data-testid="notations">
       {rows.map((r) => (
         <div key={r.id} data-notation={r.id} className="min-w-0">
-          <dt className="flex flex-wrap items-center justify-between gap-x-2">
-            <span><span className="font-medium">{r.label}</span> <span className="text-xs text-muted">{r.hint}</span></span>
+          <dt className="flex items-start justify-between gap-2 mb-1">
+            <span className="min-w-0"><span className="font-medium">{r.label}</span> <span className="text-xs text-muted">{r.hint}</span></span>
             <CopyButton text={r.text} label={r.label} />
           </dt>
           <dd className="mono text-sm bg-paper border border-line rounded px-2 py-1 break-all whitespace-pre-wrap" data-testid={`notation-${r.id}`}>

@@ -21,7 +21,7 @@ interface Props {
 function summary(s: Segment): string {
   if (s.type === 'literal') return labelOfBytes(s.bytes);
   if (s.type === 'terminator') return labelOfBytes(s.bytes);
-  if (s.type === 'checksum') return `${s.encoding}`;
+  if (s.type === 'checksum') return `${s.algorithm} · ${s.encoding === 'binary' ? 'binary' : s.encoding === 'ascii-hex' ? 'hex characters' : 'decimal characters'}`;
   return `${s.name}${'unit' in s && s.unit ? ` (${s.unit})` : ''}`;
 }
 
@@ -58,7 +58,7 @@ export function SegmentEditor({ idPrefix, template, onChange, rules, rawUnits, o
                     <>
                       <button type="button" className={btn} aria-label={`Move segment ${n} up`} disabled={i === 0} onClick={() => onChange(nudgeSegment(template, i, -1))}>↑</button>
                       <button type="button" className={btn} aria-label={`Move segment ${n} down`} disabled={i === template.segments.length - 1} onClick={() => onChange(nudgeSegment(template, i, 1))}>↓</button>
-                      <button type="button" className={btn} aria-label={`Duplicate segment ${n}`} disabled={s.type === 'terminator'} onClick={() => onChange(duplicateSegment(template, i))}>Copy</button>
+                      <button type="button" className={btn} aria-label={`Duplicate segment ${n}`} disabled={s.type === 'terminator'} onClick={() => onChange(duplicateSegment(template, i))}>Duplicate</button>
                       <button type="button" className={`${btn} !text-bad`} aria-label={`Remove segment ${n}`} onClick={() => onChange(removeSegment(template, i))}>✕</button>
                     </>
                   )}

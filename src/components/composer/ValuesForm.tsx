@@ -1,11 +1,11 @@
 /** Field values for the preview: react-hook-form with the shared schema, each numeric field shown in both units. */
 import { useEffect, useMemo } from 'react';
 import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { isField, type FieldSegment, type Template } from '../../lib/frame/template';
 import type { FieldValues } from '../../lib/frame/template';
 import { valuesSchemaFor } from '../../lib/schemas/commands';
 import { bothUnits } from '../../lib/composer/scaling';
+import { flatZodResolver } from './resolver';
 
 type Values = Record<string, string>;
 
@@ -20,9 +20,9 @@ const asText = (v: unknown) => (v === undefined || v === null ? '' : String(v));
 
 export function ValuesForm({ template, values, rawUnits, onChange }: Props) {
   const fields = template.segments.filter(isField);
-  const resolver = useMemo(() => zodResolver(valuesSchemaFor(template) as never), [template]);
+  const resolver = useMemo(() => flatZodResolver<Values>(valuesSchemaFor(template)), [template]);
   const form = useForm<Values>({
-    resolver: resolver as never,
+    resolver,
     mode: 'onChange',
     defaultValues: Object.fromEntries(fields.map((f) => [f.name, asText(values[f.name])])),
   });

@@ -24,7 +24,7 @@ export function WirePicture({ layout, shorthand }: { layout: WireLayout; shortha
           {layout.bytes.map((b) => (
             <g key={b.index}>
               <line x1={b.x} x2={b.x} y1={8} y2={markY - 10} stroke="#0f5e7a" strokeDasharray="3 3" />
-              <text x={b.x + 4} y={10} fontSize="11" fill="#0f5e7a" fontFamily="Fira Code, monospace">byte {b.index}: {b.label}</text>
+              <text x={b.x + 4} y={14} fontSize="11" fill="#0f5e7a" fontFamily="Fira Code, monospace">byte {b.index}: {b.label}</text>
             </g>
           ))}
           <path d={layout.path} fill="none" stroke="#16202a" strokeWidth="2.5" />
@@ -34,7 +34,7 @@ export function WirePicture({ layout, shorthand }: { layout: WireLayout; shortha
         </svg>
       </div>
       <figcaption className="text-xs text-muted mt-1">
-        {layout.shownBytes} of the frame's bytes{layout.truncated ? ' (the rest follow the same pattern)' : ''}; time from the first start bit's edge; S start, D0… data bits least significant first, P parity.
+        {layout.shownBytes} of the frame's bytes{layout.truncated ? ' (the rest follow the same pattern)' : ''}; times count from the first start bit's edge; S start, D0… data bits least significant first, P parity.
       </figcaption>
     </figure>
   );

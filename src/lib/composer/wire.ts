@@ -39,7 +39,7 @@ export interface WireLayout {
   totalUs: number;
 }
 
-export const WIRE = { bitWidth: 30, left: 44, right: 12, top: 28, level: 34, labelRow: 22, markRow: 22 };
+export const WIRE = { bitWidth: 30, left: 44, right: 12, top: 44, level: 34, labelRow: 22, markRow: 22 };
 
 export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes = 8): WireLayout {
   const seq = bitSequence(bytes, settings, maxBytes);
@@ -67,9 +67,11 @@ export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes =
     const b = bytes[index]!;
     return { index, x: first.x, width: last.x + last.width - first.x, label: `${b.toString(16).toUpperCase().padStart(2, '0')} ${byteGlyph(b)}` };
   });
-  const marks: WireMark[] = groups.map((g) => ({ x: g.x, label: us(cells.find((c) => c.byteIndex === g.index)!.startUs) }));
+  // Time marks count from the first start bit's falling edge (the idle bit before it is not part of the frame).
+  const t0 = cells[1]?.startUs ?? 0;
+  const marks: WireMark[] = groups.map((g) => ({ x: g.x, label: us(cells.find((c) => c.byteIndex === g.index)!.startUs - t0) }));
   const end = cells[cells.length - 1]!;
-  marks.push({ x: end.x, label: us(end.startUs) });
+  marks.push({ x: end.x, label: us(end.startUs - t0) });
   return {
     width: Math.ceil(end.x + end.width + WIRE.right),
     height: lowY + WIRE.labelRow + WIRE.markRow + 8,
