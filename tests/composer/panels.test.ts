@@ -53,7 +53,7 @@ describe('wire picture', () => {
     const w = wireLayout(bytes('1\r'), port8N1);
     expect(w.cells.map((c) => c.label).join('')).toBe('idleS10001100stopS10110000stopidle');
     expect(w.bytes.map((b) => b.label)).toEqual(['31 1', '0D CR']);
-    expect(w.marks.map((m) => m.label)).toEqual(['0', '1.042 ms', '2.083 ms']);
+    expect(w.marks.map((m) => m.label)).toEqual(['0 µs', '1.042 ms', '2.083 ms']);
     expect(w.path.startsWith('M44.0 44 H74.0 V78')).toBe(true);
     expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ truncated: true, shownBytes: 8 });
   });

@@ -8,7 +8,7 @@ export function ms(value: number): string {
 }
 
 export function us(value: number): string {
-  if (value === 0) return '0';
+  if (value === 0) return '0 µs';
   return value >= 1000 ? ms(value / 1000) : `${value.toFixed(value >= 100 ? 0 : 1)} µs`;
 }
 
