@@ -1,5 +1,5 @@
 /** Devices and their ports: one transaction writes a device, its ports and their revisions. */
-import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
+import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
@@ -7,6 +7,7 @@ import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { newId } from '../ids';
 import type { deviceCreateSchema, deviceUpdateSchema, PortInput } from '../../schemas/vault';
+import type { PortSettings } from '../../frame/port-settings';
 import { countWhere, findLive, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { deviceSpec, machineSpec, portSpec, profileSpec, type DeviceRow, type PortRow } from './specs';
 import { presentPort, shorthandOf, type PortView } from './present';
@@ -64,17 +65,19 @@ export async function listDevices(
   return { items, page: opts.page, pageSize: opts.pageSize, total, sort: opts.sort, dir: opts.dir };
 }
 
-/** Name and shorthand of every live port of `deviceIds`, in one query. */
+/** Name and shorthand of every live port of `deviceIds`, in one query that reads only the line settings. */
 export async function portSummaries(deviceIds: string[]): Promise<Map<string, DeviceListItem['ports']>> {
-  const rows = await db
-    .select({ id: port.id, deviceId: port.deviceId, name: port.name, settings: port.settings })
-    .from(port)
-    .where(and(inArray(port.deviceId, deviceIds), isNull(port.deletedAt)))
-    .orderBy(asc(port.deviceId), asc(port.position));
+  const rows = await db.all<{ id: string; deviceId: string; name: string; baud: number; dataBits: number; parity: PortSettings['parity']; stopBits: PortSettings['stopBits']; iface: PortSettings['interface']; tcpHost: string | null; tcpPort: number | null }>(sql`
+    SELECT id, device_id AS deviceId, name, json_extract(settings, '$.baud') AS baud, json_extract(settings, '$.dataBits') AS dataBits,
+      json_extract(settings, '$.parity') AS parity, json_extract(settings, '$.stopBits') AS stopBits, json_extract(settings, '$.interface') AS iface,
+      json_extract(settings, '$.tcpHost') AS tcpHost, json_extract(settings, '$.tcpPort') AS tcpPort
+    FROM port WHERE device_id IN (${sql.join(deviceIds.map((id) => sql`${id}`), sql`, `)}) AND deleted_at IS NULL
+    ORDER BY device_id, position`);
   const out = new Map<string, DeviceListItem['ports']>();
   for (const r of rows) {
     const list = out.get(r.deviceId) ?? [];
-    list.push({ id: r.id, name: r.name, shorthand: shorthandOf(r.settings), interface: r.settings.interface });
+    const line = { baud: r.baud, dataBits: r.dataBits, parity: r.parity, stopBits: r.stopBits, interface: r.iface, tcpHost: r.tcpHost ?? undefined, tcpPort: r.tcpPort ?? undefined };
+    list.push({ id: r.id, name: r.name, shorthand: shorthandOf(line as PortSettings), interface: r.iface });
     out.set(r.deviceId, list);
   }
   return out;
