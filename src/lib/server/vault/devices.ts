@@ -164,7 +164,3 @@ export function uniqueName(err: unknown, field: string): unknown {
     fields: { [field]: 'Another port on this device already has this name.' },
   });
 }
-
-export async function countDevices(ctx: TeamContext): Promise<number> {
-  return countWhere(device, and(eq(device.teamId, ctx.team.id), isNull(device.deletedAt)));
-}

@@ -1,6 +1,6 @@
 /** Link members: which ports a link joins, with their roles; loaded for many links in one query. */
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
-import { db, type DbOrTx } from '../../../db/client';
+import type { DbOrTx } from '../../../db/client';
 import { device, linkMember, port } from '../../../db/schema';
 import type { PortSettings } from '../../frame/port-settings';
 import type { TeamContext } from '../guard';

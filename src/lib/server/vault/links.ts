@@ -99,7 +99,3 @@ export async function linksOfPorts(ctx: TeamContext, portIds: string[]): Promise
   const members = await loadMembers(db, rows.map((r) => r.link.id));
   return rows.map((r) => ({ id: r.link.id, name: r.link.name, state: reportFor(r.link, members.get(r.link.id) ?? []).state }));
 }
-
-export function countLinks(ctx: TeamContext, machineId: string): Promise<number> {
-  return countWhere(link, and(eq(link.teamId, ctx.team.id), eq(link.machineId, machineId), isNull(link.deletedAt)));
-}

@@ -2,7 +2,7 @@
 import { and, eq, isNull, like, or, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import { db } from '../../../db/client';
-import { device, machine, site } from '../../../db/schema';
+import { site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import type { siteCreateSchema, siteUpdateSchema } from '../../schemas/vault';
@@ -64,14 +64,4 @@ export async function createSite(ctx: TeamContext, input: z.infer<typeof siteCre
 export async function updateSite(ctx: TeamContext, id: string, input: z.infer<typeof siteUpdateSchema>): Promise<SiteRow> {
   const { version, ...values } = input;
   return writeTx(async (tx) => (await updateVersioned(tx, ctx, siteSpec, id, version, definedOnly(values))).row);
-}
-
-/** Device counts for the site page header. */
-export async function siteTotals(ctx: TeamContext, id: string) {
-  const [row] = await db
-    .select({ devices: sql<number>`count(*)` })
-    .from(device)
-    .innerJoin(machine, eq(machine.id, device.machineId))
-    .where(and(eq(machine.siteId, id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)));
-  return { devices: Number(row?.devices ?? 0) };
 }
