@@ -9,9 +9,11 @@ interface Props {
   onReapply(): void;
   onDiscard(): void;
   busy?: boolean;
+  /** Form labels by field name, when the fields have them. */
+  labels?: Record<string, string>;
 }
 
-export function ConflictPanel({ mine, base, current, fields, onReapply, onDiscard, busy }: Props) {
+export function ConflictPanel({ mine, base, current, fields, onReapply, onDiscard, busy, labels = {} }: Props) {
   const theirs = fields.filter((f) => JSON.stringify(base[f] ?? null) !== JSON.stringify(current[f] ?? null));
   const rows = [...new Set([...Object.keys(mine), ...theirs])];
   return (
@@ -24,7 +26,7 @@ export function ConflictPanel({ mine, base, current, fields, onReapply, onDiscar
           <tbody>
             {rows.map((f) => (
               <tr key={f}>
-                <td>{fieldLabel(f)}</td>
+                <td>{labels[f] ?? fieldLabel(f)}</td>
                 <td className="mono text-xs break-all">{showValue(base[f])}</td>
                 <td className={`mono text-xs break-all ${theirs.includes(f) ? 'font-semibold' : ''}`}>{showValue(current[f])}</td>
                 <td className="mono text-xs break-all">{f in mine ? showValue(mine[f]) : <span className="text-muted">unchanged</span>}</td>

@@ -117,6 +117,7 @@ export function EntityForm({ path, record, fields, schema, canEdit, afterDelete,
             current={conflict.current}
             mine={conflict.mine}
             fields={names}
+            labels={Object.fromEntries(fields.map((f) => [f.name, f.label]))}
             busy={save.isPending}
             onReapply={() => save.mutate({ ...conflict.mine, version: conflict.current.version })}
             onDiscard={() => {
