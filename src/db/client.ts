@@ -3,6 +3,7 @@ import { dirname, resolve } from 'node:path';
 import { createClient, type Client } from '@libsql/client';
 import { drizzle } from 'drizzle-orm/libsql';
 import * as schema from './schema';
+import { gateWrites } from './write-gate';
 
 /** Default database: a SQLite file relative to the working directory. */
 export const DEFAULT_DATABASE_URL = 'file:./data/baudbook.db';
@@ -12,8 +13,9 @@ function openClient(url: string): Client {
     const path = url.slice('file:'.length);
     if (path && path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
   }
-  // `timeout` is SQLite's busy timeout in ms: concurrent writers wait instead of failing with SQLITE_BUSY.
-  return createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
+  // `timeout` is SQLite's busy timeout in ms: writers in other processes wait instead of failing with SQLITE_BUSY.
+  const raw = createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
+  return url.startsWith('file:') ? gateWrites(raw) : raw;
 }
 
 export const databaseUrl = process.env.DATABASE_URL || DEFAULT_DATABASE_URL;

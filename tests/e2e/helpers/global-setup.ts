@@ -4,7 +4,8 @@ import { startServer, type RunningServer } from '../../helpers/server';
 let server: RunningServer | null = null;
 
 export async function setup(project: TestProject) {
-  server = await startServer({ SEED_DEMO: '1' });
+  // Every browser signs in from 127.0.0.1; the sign-in limit itself is tested in tests/integration.
+  server = await startServer({ SEED_DEMO: '1', SIGN_IN_MAX_ATTEMPTS: '1000' });
   project.provide('baseUrl', server.baseUrl);
   project.provide('databaseUrl', server.databaseUrl);
 }
