@@ -6,7 +6,6 @@ import type { CommandCopy, CommandCreate, CommandUpdate } from '../../schemas/co
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import { diffSnapshots, definedOnly } from '../vault/diff';
-import { writeTx } from '../vault/tx';
 import { findOwner, liveProfileId, type CommandOwner } from './owners';
 import { commandNotFound, findCommand, snapshotOf, staleCommand, updateCommandVersioned, writeCommandRevision, type CommandRow } from './records';
 
@@ -63,7 +62,7 @@ export async function getCommandForDevice(ctx: TeamContext, deviceId: string, id
 }
 
 export async function createCommand(ctx: TeamContext, input: CommandCreate): Promise<CommandView> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const owner = await findOwner(tx, ctx, input);
     const { deviceId: _d, profileId: _p, ...fields } = input;
     const [row] = await tx
@@ -78,7 +77,7 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
 
 export async function updateCommand(ctx: TeamContext, id: string, input: CommandUpdate): Promise<CommandView> {
   const { version, ...patch } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>);
     return view(row, await findOwner(tx, ctx, row));
   });
@@ -86,7 +85,7 @@ export async function updateCommand(ctx: TeamContext, id: string, input: Command
 
 /** Moves a command to the trash (its history stays; restoring a revision brings it back). */
 export async function trashCommand(ctx: TeamContext, id: string, version?: number) {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const row = await findCommand(tx, ctx, id);
     if (version !== undefined && row.version !== version) throw staleCommand(row, version);
     const res = await tx
@@ -101,7 +100,7 @@ export async function trashCommand(ctx: TeamContext, id: string, version?: numbe
 
 /** A new command on another device or profile of the team with the same template, values and notes. */
 export async function copyCommand(ctx: TeamContext, id: string, input: CommandCopy): Promise<CommandView> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const source = await findCommand(tx, ctx, id);
     const owner = await findOwner(tx, ctx, input);
     const fields = { ...snapshotOf(source), name: input.name ?? source.name } as Omit<CommandRow, 'id'>;

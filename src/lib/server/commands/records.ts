@@ -1,11 +1,10 @@
 /**
  * Versioned writes and revisions for commands. The vault's `updateVersioned` writes into the vault's
  * own revision table (typed to vault records, restored through SPECS), so commands keep a small
- * equivalent over `command_revision`; the field diff (`diffSnapshots`) and the write queue
- * (`writeTx`) are the vault's.
+ * equivalent over `command_revision`; the field diff (`diffSnapshots`) is the vault's.
  */
 import { and, eq, isNull } from 'drizzle-orm';
-import type { DbOrTx } from '../../../db/client';
+import { db, type DbOrTx } from '../../../db/client';
 import { command, commandRevision, type CommandAction, type FieldChange } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';

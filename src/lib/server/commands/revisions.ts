@@ -4,7 +4,6 @@ import { db } from '../../../db/client';
 import { commandRevision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
-import { writeTx } from '../vault/tx';
 import { SNAPSHOT_KEYS, findCommand, updateCommandVersioned, type CommandRow } from './records';
 
 export type CommandRevisionRow = typeof commandRevision.$inferSelect;
@@ -25,7 +24,7 @@ export async function listCommandRevisions(ctx: TeamContext, id: string): Promis
  * saw it (stale: 409). A command in the trash comes back out of it.
  */
 export async function restoreCommandRevision(ctx: TeamContext, id: string, revisionId: string, version: number) {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await findCommand(tx, ctx, id, { trashed: true });
     const [rev] = await tx
       .select()

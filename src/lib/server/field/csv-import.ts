@@ -6,7 +6,6 @@ import { device, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { newId } from '../ids';
-import { writeTx } from '../vault/tx';
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
@@ -77,7 +76,7 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
 
 /** Writes every valid device and port (and their creation revisions) in one transaction; with errors, only when skipInvalid. */
 export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): Promise<CsvPreview> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const p = await plan(tx, ctx, req);
     if (p.errors.length && !req.skipInvalid) throw new HttpError(422, `${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
     const stamp = { teamId: ctx.team.id, updatedBy: ctx.user.id };

@@ -8,7 +8,6 @@ import { attachment, fieldLogAnnotation, fieldLogEntry } from '../../../db/schem
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { newId } from '../ids';
-import { writeTx } from '../vault/tx';
 import type { FieldLogCreate } from '../../schemas/field';
 import { cardRevision } from './cards';
 import { liveDevice } from './scope';
@@ -43,7 +42,7 @@ export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 2
 /** Writes the entry and claims its photos (uploaded beforehand to the device, not yet in any entry) in one transaction. */
 export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate): Promise<FieldLogEntryView> {
   const id = newId('flog');
-  await writeTx(async (tx) => {
+  await db.transaction(async (tx) => {
     await liveDevice(ctx, deviceId, tx);
     const rev = await cardRevision(ctx, deviceId);
     if (input.kind === 'replacement' && input.appliedVersion > rev.number) {
@@ -74,7 +73,7 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
 }
 
 export async function annotateEntry(ctx: TeamContext, entryId: string, note: string): Promise<AnnotationRow> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const [entry] = await tx.select({ id: fieldLogEntry.id, deviceId: fieldLogEntry.deviceId }).from(fieldLogEntry)
       .where(and(eq(fieldLogEntry.id, entryId), eq(fieldLogEntry.teamId, ctx.team.id)));
     if (!entry) throw new HttpError(404, 'No field-log entry with that id in this team.');

@@ -8,7 +8,6 @@ import { db, type DbOrTx } from '../../../db/client';
 import { command, device, deviceProfile, importMap, link, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
-import { writeTx } from '../vault/tx';
 import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
 import { writeImport } from './import-write';
@@ -66,7 +65,7 @@ export async function importDocument(ctx: TeamContext, raw: unknown, apply: bool
     if (apply) await writeImport(q, ctx, doc, known);
     return { applied: apply, source: doc.source, counts };
   };
-  return apply ? writeTx((tx) => run(tx)) : run(db);
+  return apply ? db.transaction((tx) => run(tx)) : run(db);
 }
 
 /** A new port on a device that is already here must not take the name of one of its live ports. */

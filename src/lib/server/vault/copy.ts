@@ -9,7 +9,6 @@ import { diffSnapshots } from './diff';
 import { findLive, updateVersioned } from './records';
 import { deviceSpec, portSpec, type PortRow } from './specs';
 import { livePorts } from './devices';
-import { writeTx } from './tx';
 
 export interface CopyPair {
   sourcePortId: string;
@@ -105,7 +104,7 @@ export async function previewCopy(ctx: TeamContext, opts: CopySettings): Promise
 export async function applyCopy(ctx: TeamContext, opts: CopySettings): Promise<CopyPreview> {
   const basedOn = opts.basedOn;
   if (!basedOn) throw new HttpError(422, 'basedOn: preview first and send the versions you saw', { fields: { basedOn: 'Preview first and send the target versions you saw.' } });
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const p = await plan(tx, ctx, opts);
     const stale = p.pairs.filter((x) => x.summary.changes.length > 0 && basedOn[x.target.id] !== x.target.version);
     if (stale.length) {

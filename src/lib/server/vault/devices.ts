@@ -13,7 +13,6 @@ import { deviceSpec, machineSpec, portSpec, profileSpec, type DeviceRow, type Po
 import { presentPort, shorthandOf, type PortView } from './present';
 import { definedOnly } from './diff';
 import { ftsQuery } from './search';
-import { writeTx } from './tx';
 
 export const DEVICE_SORTS = ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'machineName', 'siteName', 'updatedAt'] as const;
 
@@ -127,7 +126,7 @@ export async function insertPorts(
 
 export async function createDevice(ctx: TeamContext, input: z.infer<typeof deviceCreateSchema>): Promise<DeviceView> {
   const { ports, profileId, ...fields } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await findLive(tx, ctx, machineSpec, fields.machineId);
     const profile = profileId ? await findLive(tx, ctx, profileSpec, profileId) : null;
     const values = {
@@ -148,7 +147,7 @@ export async function createDevice(ctx: TeamContext, input: z.infer<typeof devic
 
 export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<typeof deviceUpdateSchema>): Promise<DeviceView> {
   const { version, ...values } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     if (values.machineId) await findLive(tx, ctx, machineSpec, values.machineId);
     await updateVersioned(tx, ctx, deviceSpec, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
     return getDevice(ctx, id, tx);

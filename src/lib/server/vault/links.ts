@@ -12,7 +12,6 @@ import { linkSpec, machineSpec, type LinkRow } from './specs';
 import { assertMemberPorts, loadMembers, replaceMembers, storedMembers, type MemberView } from './link-members';
 import { reportFor, type VaultLinkReport } from './link-report';
 import { definedOnly } from './diff';
-import { writeTx } from './tx';
 
 export const LINK_SORTS = ['name', 'kind', 'updatedAt'] as const;
 
@@ -67,7 +66,7 @@ export async function getLink(ctx: TeamContext, id: string, q: DbOrTx = db): Pro
 
 export async function createLink(ctx: TeamContext, input: z.infer<typeof linkCreateSchema>): Promise<LinkView> {
   const { members, ...fields } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await findLive(tx, ctx, machineSpec, fields.machineId);
     await assertMemberPorts(tx, ctx, members);
     const [row] = await tx.insert(link).values({ id: newId('link'), teamId: ctx.team.id, ...fields, updatedBy: ctx.user.id }).returning();
@@ -79,7 +78,7 @@ export async function createLink(ctx: TeamContext, input: z.infer<typeof linkCre
 
 export async function updateLink(ctx: TeamContext, id: string, input: z.infer<typeof linkUpdateSchema>): Promise<LinkView> {
   const { version, ...values } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     if (values.members) await assertMemberPorts(tx, ctx, values.members);
     const patch = definedOnly(values);
     if (patch.members) patch.members = storedMembers(patch.members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null })));

@@ -9,7 +9,6 @@ import type { machineCreateSchema, machineUpdateSchema } from '../../schemas/vau
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { machineSpec, siteSpec, type MachineRow } from './specs';
 import { definedOnly } from './diff';
-import { writeTx } from './tx';
 
 export const MACHINE_SORTS = ['name', 'code', 'siteName', 'updatedAt'] as const;
 
@@ -55,7 +54,7 @@ export async function getMachine(ctx: TeamContext, id: string): Promise<MachineR
 }
 
 export async function createMachine(ctx: TeamContext, input: z.infer<typeof machineCreateSchema>): Promise<MachineRow> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await findLive(tx, ctx, siteSpec, input.siteId);
     const [row] = await tx
       .insert(machine)
@@ -68,7 +67,7 @@ export async function createMachine(ctx: TeamContext, input: z.infer<typeof mach
 
 export async function updateMachine(ctx: TeamContext, id: string, input: z.infer<typeof machineUpdateSchema>): Promise<MachineRow> {
   const { version, ...values } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     if (values.siteId) await findLive(tx, ctx, siteSpec, values.siteId);
     return (await updateVersioned(tx, ctx, machineSpec, id, version, definedOnly(values))).row;
   });

@@ -10,7 +10,6 @@ import { deviceSpec, portSpec } from './specs';
 import { insertPorts, livePorts, uniqueName } from './devices';
 import { presentPort, type PortView } from './present';
 import { definedOnly } from './diff';
-import { writeTx } from './tx';
 
 export async function listPorts(ctx: TeamContext, deviceId: string): Promise<PortView[]> {
   await findLive(db, ctx, deviceSpec, deviceId);
@@ -25,7 +24,7 @@ export async function getPort(ctx: TeamContext, id: string, q: DbOrTx = db): Pro
 
 export async function createPort(ctx: TeamContext, input: z.infer<typeof portCreateSchema>): Promise<PortView> {
   const { deviceId, ...fields } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await findLive(tx, ctx, deviceSpec, deviceId);
     const [last] = await tx
       .select({ n: sql<number>`coalesce(max(${port.position}) + 1, 0)` })
@@ -38,7 +37,7 @@ export async function createPort(ctx: TeamContext, input: z.infer<typeof portCre
 
 export async function updatePort(ctx: TeamContext, id: string, input: z.infer<typeof portUpdateSchema>): Promise<PortView> {
   const { version, ...values } = input;
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     try {
       const { row } = await updateVersioned(tx, ctx, portSpec, id, version, definedOnly(values), { present: (r) => presentPort(r) });
       return presentPort(row);

@@ -11,7 +11,6 @@ import { deviceSpec, profileSpec, type ProfileRow } from './specs';
 import { livePorts } from './devices';
 import { shorthandOf } from './present';
 import { definedOnly } from './diff';
-import { writeTx } from './tx';
 
 export const PROFILE_SORTS = ['name', 'role', 'maker', 'model', 'updatedAt'] as const;
 
@@ -49,7 +48,7 @@ export async function getProfile(ctx: TeamContext, id: string): Promise<ProfileV
 }
 
 export async function createProfile(ctx: TeamContext, input: z.infer<typeof profileCreateSchema>): Promise<ProfileView> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const [row] = await tx.insert(deviceProfile).values({ id: newId('prof'), teamId: ctx.team.id, ...input, updatedBy: ctx.user.id }).returning();
     await recordCreated(tx, ctx, profileSpec, row!);
     return view(row!, 0);
@@ -58,13 +57,13 @@ export async function createProfile(ctx: TeamContext, input: z.infer<typeof prof
 
 export async function updateProfile(ctx: TeamContext, id: string, input: z.infer<typeof profileUpdateSchema>): Promise<ProfileView> {
   const { version, ...values } = input;
-  await writeTx((tx) => updateVersioned(tx, ctx, profileSpec, id, version, definedOnly(values), { present: () => getProfile(ctx, id) }));
+  await db.transaction((tx) => updateVersioned(tx, ctx, profileSpec, id, version, definedOnly(values), { present: () => getProfile(ctx, id) }));
   return getProfile(ctx, id);
 }
 
 /** "Save as profile": the device's role, maker, model and ports (addresses cleared) become a new profile. */
 export async function profileFromDevice(ctx: TeamContext, deviceId: string, name: string): Promise<ProfileView> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const dev = await findLive(tx, ctx, deviceSpec, deviceId);
     const ports = (await livePorts(tx, deviceId)).map((p) => ({
       name: p.name,

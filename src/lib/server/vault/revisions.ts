@@ -8,7 +8,6 @@ import { countWhere, notFound, updateVersioned, type Page } from './records';
 import { SPECS } from './specs';
 import { uniqueName } from './devices';
 import type { StoredMember } from './link-members';
-import { writeTx } from './tx';
 
 export type RevisionRow = typeof revision.$inferSelect;
 
@@ -71,7 +70,7 @@ async function restorable(q: DbOrTx, ctx: TeamContext, type: EntityType, snap: R
  * as the user saw it: a stale one answers 409 with the current record.
  */
 export async function restoreRevision(ctx: TeamContext, id: string, version: number) {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const rev = await getRevision(ctx, id, tx);
     const spec = SPECS[rev.entityType];
     const current = await findAny(tx, ctx, rev.entityType, rev.entityId);

@@ -8,7 +8,6 @@ import { newId } from '../ids';
 import type { siteCreateSchema, siteUpdateSchema } from '../../schemas/vault';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { siteSpec, type SiteRow } from './specs';
-import { writeTx } from './tx';
 import { definedOnly } from './diff';
 
 export const SITE_SORTS = ['name', 'customer', 'updatedAt'] as const;
@@ -51,7 +50,7 @@ export function getSite(ctx: TeamContext, id: string): Promise<SiteRow> {
 }
 
 export async function createSite(ctx: TeamContext, input: z.infer<typeof siteCreateSchema>): Promise<SiteRow> {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const [row] = await tx
       .insert(site)
       .values({ id: newId('site'), teamId: ctx.team.id, ...input, updatedBy: ctx.user.id })
@@ -63,5 +62,5 @@ export async function createSite(ctx: TeamContext, input: z.infer<typeof siteCre
 
 export async function updateSite(ctx: TeamContext, id: string, input: z.infer<typeof siteUpdateSchema>): Promise<SiteRow> {
   const { version, ...values } = input;
-  return writeTx(async (tx) => (await updateVersioned(tx, ctx, siteSpec, id, version, definedOnly(values))).row);
+  return db.transaction(async (tx) => (await updateVersioned(tx, ctx, siteSpec, id, version, definedOnly(values))).row);
 }

@@ -10,7 +10,6 @@ import { HttpError } from '../http';
 import { findLive, now, staleError, writeRevision, type Page } from './records';
 import { SPECS } from './specs';
 import { findAny } from './revisions';
-import { writeTx } from './tx';
 
 const TABLES = [site, machine, device, port, link, deviceProfile] as const;
 
@@ -40,7 +39,7 @@ async function cascade(tx: DbOrTx, ctx: TeamContext, type: EntityType, id: strin
 /** Moves a record and its contents to the trash. `version`, when given, must be current (else 409). */
 export async function moveToTrash(ctx: TeamContext, type: EntityType, id: string, version?: number) {
   const spec = SPECS[type];
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const row = (await findLive(tx, ctx, spec as never, id)) as Record<string, unknown> & { version: number };
     if (version !== undefined && row.version !== version) throw staleError(spec as never, row, version);
     const stamp = { deletedAt: now(), deletedBy: ctx.user.id, trashId: id };
@@ -100,7 +99,7 @@ async function trashedRoot(q: DbOrTx, ctx: TeamContext, type: EntityType, id: st
 
 export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: string) {
   const spec = SPECS[type];
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     const row = await trashedRoot(tx, ctx, type, id);
     const parent = PARENT[type];
     if (parent) {
@@ -127,7 +126,7 @@ export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: s
 
 /** Removes a trashed record, everything moved with it, and their history. */
 export async function purge(ctx: TeamContext, type: EntityType, id: string) {
-  return writeTx(async (tx) => {
+  return db.transaction(async (tx) => {
     await trashedRoot(tx, ctx, type, id);
     const ids: string[] = [];
     for (const t of TABLES) {
