@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 // `npm test`: build the app, run unit and integration tests (vitest), then browser tests in Debian's Chromium.
-import { existsSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 
 const chromium = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -23,7 +23,19 @@ function run(label, cmd, args) {
   }
 }
 
+mkdirSync('test-results', { recursive: true });
+const reporters = (name) => ['--reporter=default', '--reporter=json', `--outputFile.json=test-results/${name}.json`];
+
 run('build', 'node_modules/.bin/astro', ['build']);
-run('unit and integration tests', 'node_modules/.bin/vitest', ['run']);
-run('browser tests', 'node_modules/.bin/vitest', ['run', '--config', 'tests/e2e/vitest.config.ts']);
+run('unit and integration tests', 'node_modules/.bin/vitest', ['run', ...reporters('unit')]);
+run('browser tests', 'node_modules/.bin/vitest', ['run', '--config', 'tests/e2e/vitest.config.ts', ...reporters('e2e')]);
+
+const totals = { passed: 0, failed: 0, skipped: 0 };
+for (const name of ['unit', 'e2e']) {
+  const r = JSON.parse(readFileSync(`test-results/${name}.json`, 'utf8'));
+  totals.passed += r.numPassedTests;
+  totals.failed += r.numFailedTests;
+  totals.skipped += r.numPendingTests + r.numTodoTests;
+}
 console.log('\nAll test stages passed.');
+console.log(`Tests: ${totals.passed} passed, ${totals.failed} failed, ${totals.skipped} skipped`);
