@@ -182,3 +182,32 @@ describe('public tools API limits', () => {
     expect((await new TestClient().post('/api/tools/convert', { from: 'hex', text: '41' })).status).toBe(200);
   });
 });
+
+describe('session lookup', () => {
+  it('ends with sign-out and with expiry, and extends a session used after a day', async () => {
+    const c = await new TestClient().signUp('session');
+    await c.post('/api/teams', { name: 'Session team' });
+    expect((await c.get('/api/teams/current')).status).toBe(200);
+
+    const db = testDb();
+    const day = 86_400_000;
+    // Last extended a day and a minute ago: the next request extends it and sends a fresh cookie.
+    const stale = Date.now() + 14 * day - day - 60_000;
+    await db.execute({ sql: 'UPDATE session SET expires_at = ? WHERE user_id = ?', args: [stale, c.user!.id] });
+    const extended = await c.get('/api/teams/current');
+    expect(extended.status).toBe(200);
+    expect(extended.headers.getSetCookie().some((l) => l.includes('session_token='))).toBe(true);
+    const after = await db.execute({ sql: 'SELECT expires_at FROM session WHERE user_id = ?', args: [c.user!.id] });
+    expect(Number(after.rows[0]!.expires_at)).toBeGreaterThan(stale + day / 2);
+
+    await db.execute({ sql: 'UPDATE session SET expires_at = ? WHERE user_id = ?', args: [Date.now() - 1000, c.user!.id] });
+    expect((await c.get('/api/teams/current')).status).toBe(401);
+    db.close();
+
+    const d = await new TestClient().signUp('signout');
+    const saved = new Map(d.cookies);
+    expect((await d.post('/api/auth/sign-out', {})).status).toBe(200);
+    d.cookies = saved;
+    expect((await d.get('/api/members')).status).toBe(401);
+  });
+});

@@ -117,9 +117,10 @@ export const device = sqliteTable(
     ...bookkeeping(),
   },
   (t) => [
-    index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag),
-    index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt),
-    index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag),
+    // `id` breaks ties in every list order, so the page can be read straight off the index.
+    index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag, t.id),
+    index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt, t.id),
+    index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag, t.id),
   ],
 );
 

@@ -7,6 +7,9 @@ import { CLIENT_IP_HEADER } from './client-ip';
 import { linkMessage, sendMail } from './mail';
 
 export const MIN_PASSWORD_LENGTH = 10;
+/** Session lifetime and how often using it extends it, in seconds. */
+export const SESSION_EXPIRES_IN = 60 * 60 * 24 * 14;
+export const SESSION_UPDATE_AGE = 60 * 60 * 24;
 
 export const auth = betterAuth({
   appName: 'Baudbook',
@@ -42,13 +45,7 @@ export const auth = betterAuth({
       );
     },
   },
-  session: {
-    expiresIn: 60 * 60 * 24 * 14,
-    updateAge: 60 * 60 * 24,
-    // A signed copy of the session in a cookie spares a database read per request for a minute;
-    // team membership and role are still read from the database on every request.
-    cookieCache: { enabled: true, maxAge: 60 },
-  },
+  session: { expiresIn: SESSION_EXPIRES_IN, updateAge: SESSION_UPDATE_AGE },
   rateLimit: {
     enabled: true,
     storage: 'database',

@@ -1,5 +1,5 @@
 import type { MiddlewareHandler } from 'astro';
-import { auth } from '../auth';
+import { readSession } from '../session';
 import { listTeamsOf } from '../teams';
 import { secureCookies } from '../config';
 
@@ -15,15 +15,16 @@ export const fillLocals: MiddlewareHandler = async (context, next) => {
   if (url.pathname.startsWith('/_astro/') || url.pathname.startsWith('/api/auth/') || url.pathname.startsWith('/api/tools/')) {
     return next();
   }
-  const session = await auth.api.getSession({ headers: request.headers });
-  if (session) {
-    locals.user = { id: session.user.id, name: session.user.name, email: session.user.email };
-    locals.sessionId = session.session.id;
-    locals.teams = await listTeamsOf(session.user.id);
-    const wanted = context.cookies.get(TEAM_COOKIE)?.value;
-    locals.team = locals.teams.find((t) => t.id === wanted) ?? locals.teams[0] ?? null;
-  }
-  return next();
+  const session = await readSession(request.headers);
+  if (!session) return next();
+  locals.user = session.user;
+  locals.sessionId = session.sessionId;
+  locals.teams = await listTeamsOf(session.user.id);
+  const wanted = context.cookies.get(TEAM_COOKIE)?.value;
+  locals.team = locals.teams.find((t) => t.id === wanted) ?? locals.teams[0] ?? null;
+  const response = await next();
+  for (const cookie of session.setCookies) response.headers.append('set-cookie', cookie);
+  return response;
 };
 
 /** Remembers the active team for the team switcher (validated against membership on every request). */
