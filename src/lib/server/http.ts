@@ -26,8 +26,22 @@ export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Pr
   if (!type.includes('application/json')) {
     throw new HttpError(415, 'Send the body as JSON (content-type: application/json).');
   }
+  const bytes = await readBodyBytes(request, limit, () => new HttpError(413, `Request body is larger than ${limit} bytes.`));
+  const text = new TextDecoder().decode(bytes);
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new HttpError(400, 'Request body is not valid JSON.');
+  }
+}
+
+/**
+ * Reads the whole body, refusing it with `tooLarge()` as soon as it passes `limit` bytes
+ * (the declared Content-Length is checked first, the streamed byte count after).
+ */
+export async function readBodyBytes(request: Request, limit: number, tooLarge: () => HttpError): Promise<Uint8Array> {
   const declared = Number(request.headers.get('content-length') ?? '0');
-  if (declared > limit) throw new HttpError(413, `Request body is larger than ${limit} bytes.`);
+  if (declared > limit) throw tooLarge();
   const reader = request.body?.getReader();
   if (!reader) throw new HttpError(400, 'Request body is empty.');
   const chunks: Uint8Array[] = [];
@@ -38,16 +52,11 @@ export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Pr
     size += value.byteLength;
     if (size > limit) {
       await reader.cancel();
-      throw new HttpError(413, `Request body is larger than ${limit} bytes.`);
+      throw tooLarge();
     }
     chunks.push(value);
   }
-  const text = new TextDecoder().decode(concat(chunks, size));
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw new HttpError(400, 'Request body is not valid JSON.');
-  }
+  return concat(chunks, size);
 }
 
 function concat(chunks: Uint8Array[], size: number): Uint8Array {

@@ -1,5 +1,5 @@
 /** Reads an upload body with the size limit enforced while streaming: multipart/form-data, or the raw file bytes. */
-import { HttpError } from '../http';
+import { HttpError, readBodyBytes } from '../http';
 import { formatBytes } from '../../field/files';
 
 /** Room for multipart boundaries and the small text fields around the file. */
@@ -13,30 +13,8 @@ export interface UploadBody {
 
 const tooLarge = (max: number) => new HttpError(413, `The file is larger than the ${formatBytes(max)} limit.`, { maxBytes: max });
 
-async function readLimited(request: Request, limit: number, max: number): Promise<Uint8Array> {
-  const declared = Number(request.headers.get('content-length') ?? '0');
-  if (declared > limit) throw tooLarge(max);
-  const reader = request.body?.getReader();
-  if (!reader) throw new HttpError(400, 'The request has no body; send the file.');
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    size += value.byteLength;
-    if (size > limit) {
-      await reader.cancel();
-      throw tooLarge(max);
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(size);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
+function readLimited(request: Request, limit: number, max: number): Promise<Uint8Array> {
+  return readBodyBytes(request, limit, () => tooLarge(max));
 }
 
 /**
