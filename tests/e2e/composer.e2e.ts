@@ -1,18 +1,9 @@
 /** The command composer in Chromium: the acceptance example built through the UI, copy, reply decoding, the public workbench. */
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { DESKTOP, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+import { browserPool, DESKTOP, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
 
-let browsers: Browser[] = [];
-async function browser(options?: Parameters<typeof openBrowser>[0]) {
-  const b = await openBrowser(options);
-  browsers.push(b);
-  return b;
-}
-afterEach(async () => {
-  await Promise.all(browsers.map((b) => b.close()));
-  browsers = [];
-});
+const browser = browserPool();
 
 const DRIVE = '/vault/devices/dev_demo_drv501/commands';
 const notation = (page: Page, id: string) => page.getByTestId(`notation-${id}`).textContent();
@@ -159,7 +150,6 @@ describe('command composer in the browser', () => {
       expect(await link.getAttribute('href')).toBe('/sign-in?next=%2Fworkbench');
       await shot(page, `workbench-${name}`);
       await b.close();
-      browsers = browsers.filter((x) => x !== b);
     }
   });
 });

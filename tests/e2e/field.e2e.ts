@@ -1,22 +1,14 @@
 /** Field work in the browser: a technician on a phone at the cabinet, a customer through a share link, the printed door cards. */
-import { afterEach, describe, expect, it } from 'vitest';
-import { DESKTOP, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+import { describe, expect, it } from 'vitest';
+import { browserPool, DESKTOP, PHONE, shot, signIn, visit } from './helpers/browser';
 
 const MACHINE = 'mach_demo_churn';
 const DEVICE = 'dev_demo_drv201';
 /** A 1×1 PNG built from its bytes, for the photo upload. */
 const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8DwHwAFBQIAX8jx0gAAAABJRU5ErkJggg==', 'base64');
 
-let browsers: Browser[] = [];
-async function browser(viewport = DESKTOP) {
-  const b = await openBrowser({ viewport });
-  browsers.push(b);
-  return b;
-}
-afterEach(async () => {
-  await Promise.all(browsers.map((b) => b.close()));
-  browsers = [];
-});
+const openInPool = browserPool();
+const browser = (viewport = DESKTOP) => openInPool({ viewport });
 
 describe('field work in the browser', () => {
   it('a technician opens a card from its QR link, copies the settings and logs a replacement with a photo', async () => {

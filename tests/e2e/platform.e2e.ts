@@ -1,17 +1,8 @@
-import { afterEach, describe, expect, it } from 'vitest';
-import { hydrated, openBrowser, outboxLink, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+import { describe, expect, it } from 'vitest';
+import { browserPool, hydrated, outboxLink, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
 
 const stamp = Date.now().toString(36);
-let browsers: Browser[] = [];
-async function browser(options?: Parameters<typeof openBrowser>[0]) {
-  const b = await openBrowser(options);
-  browsers.push(b);
-  return b;
-}
-afterEach(async () => {
-  await Promise.all(browsers.map((b) => b.close()));
-  browsers = [];
-});
+const browser = browserPool();
 
 async function signUp(b: Browser, name: string, email: string, password: string, open = true) {
   if (open) await visit(b.page, '/sign-up');

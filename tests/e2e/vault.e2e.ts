@@ -1,20 +1,15 @@
 /** The vault in the browser: build a site → machine → device → link, edit a port, see a finding, restore, resolve a conflict. */
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { DESKTOP, hydrated, openBrowser, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
+import { browserPool, DESKTOP, hydrated, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
 
 const stamp = Date.now().toString(36).slice(-5).toUpperCase();
-let browsers: Browser[] = [];
-async function browser(options?: Parameters<typeof openBrowser>[0]) {
-  const b = await openBrowser(options);
-  browsers.push(b);
+const openInPool = browserPool();
+async function browser(options?: Parameters<typeof openInPool>[0]): Promise<Browser> {
+  const b = await openInPool(options);
   b.page.on('dialog', (d) => d.accept());
   return b;
 }
-afterEach(async () => {
-  await Promise.all(browsers.map((b) => b.close()));
-  browsers = [];
-});
 
 async function create(page: Page, button: string, fields: Record<string, string>) {
   await page.getByRole('button', { name: button }).click();

@@ -3,7 +3,7 @@ import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { inject } from 'vitest';
+import { afterEach, inject } from 'vitest';
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 export const DEMO_PASSWORD = 'baudbook-demo';
@@ -84,4 +84,18 @@ export async function outboxLink(page: Page, to: string): Promise<string> {
   await page.goto('/dev/outbox');
   const link = page.locator(`li[data-to="${to}"]`).first().locator('a').first();
   return (await link.getAttribute('href'))!;
+}
+
+/** For one test file: opens browsers on demand and closes every one of them after each test. */
+export function browserPool(): (options?: Parameters<typeof openBrowser>[0]) => Promise<Browser> {
+  let open: Browser[] = [];
+  afterEach(async () => {
+    await Promise.all(open.map((b) => b.close()));
+    open = [];
+  });
+  return async (options) => {
+    const b = await openBrowser(options);
+    open.push(b);
+    return b;
+  };
 }
