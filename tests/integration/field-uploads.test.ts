@@ -94,6 +94,31 @@ describe('attachments in an S3 bucket', () => {
   });
 });
 
+describe('purging from the trash', () => {
+  it('removes the attachments of everything purged, rows and stored bytes', async () => {
+    const owner = await ownerOn(app.baseUrl, 's3-purge');
+    const d = await makeDevice(owner);
+    const onDevice = await upload(owner, { ownerType: 'device', ownerId: d.id, kind: 'photo' }, PNG_BYTES, 'cabinet.png', 'image/png');
+    const onMachine = await upload(owner, { ownerType: 'machine', ownerId: d.machineId, kind: 'manual' }, PDF_BYTES, 'line.pdf', 'application/pdf');
+    expect(onDevice.status).toBe(201);
+    expect(onMachine.status).toBe(201);
+    const db = new (await import('@libsql/client')).createClient({ url: app.databaseUrl });
+    const keysOf = async () =>
+      (await db.execute({ sql: 'SELECT storage_key FROM attachment WHERE id IN (?, ?)', args: [onDevice.body.id, onMachine.body.id] })).rows.map((r) => String(r.storage_key));
+    const keys = await keysOf();
+    expect(keys).toHaveLength(2);
+    for (const key of keys) expect(await objectExists(key)).toBe(true);
+
+    expectOk(await owner.del(`/api/sites/${d.siteId}`));
+    // In the trash, nothing is removed yet.
+    for (const key of keys) expect(await objectExists(key)).toBe(true);
+    expectOk(await owner.del(`/api/trash/site/${d.siteId}`));
+    expect(await keysOf()).toEqual([]);
+    for (const key of keys) expect(await objectExists(key)).toBe(false);
+    db.close();
+  });
+});
+
 describe('attachments in the local folder', () => {
   let team: TeamFixture;
   beforeAll(async () => {

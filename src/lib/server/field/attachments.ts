@@ -1,7 +1,7 @@
 /** Files on devices and machines: checked by content, stored through the storage backend, served by team and role. */
 import { createHash } from 'node:crypto';
-import { and, desc, eq, isNull } from 'drizzle-orm';
-import { db } from '../../../db/client';
+import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { db, type Tx } from '../../../db/client';
 import { attachment } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError, validate } from '../http';
@@ -92,4 +92,27 @@ export async function deleteAttachment(ctx: TeamContext, id: string): Promise<{ 
   await db.delete(attachment).where(and(eq(attachment.id, id), eq(attachment.teamId, ctx.team.id), isNull(attachment.entryId)));
   await storage().delete(row.storageKey);
   return { id, deleted: true };
+}
+
+/**
+ * Deletes, inside `tx`, the attachment rows of records that are being purged; returns their storage
+ * keys so the bytes can be removed once the transaction has committed.
+ */
+export async function detachPurged(tx: Tx, ctx: TeamContext, ownerIds: string[]): Promise<string[]> {
+  if (ownerIds.length === 0) return [];
+  const owned = and(eq(attachment.teamId, ctx.team.id), inArray(attachment.ownerId, ownerIds));
+  const rows = await tx.select({ key: attachment.storageKey }).from(attachment).where(owned);
+  await tx.delete(attachment).where(owned);
+  return rows.map((r) => r.key);
+}
+
+/** Removes stored bytes after their rows are gone; a failure leaves an unreachable file, never a broken row. */
+export async function removeStoredFiles(keys: string[]): Promise<void> {
+  for (const key of keys) {
+    try {
+      await storage().delete(key);
+    } catch (err) {
+      console.error(`Could not remove stored file ${key}:`, err);
+    }
+  }
 }

@@ -3,7 +3,7 @@
  * the same set back; purging (admins) removes it for good, with its history.
  */
 import { and, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
-import { db, type DbOrTx } from '../../../db/client';
+import { db, type DbOrTx, type Tx } from '../../../db/client';
 import { device, deviceProfile, link, machine, port, revision, site, type EntityType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
@@ -124,8 +124,16 @@ export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: s
   });
 }
 
-/** Removes a trashed record, everything moved with it, and their history. */
-export async function purge(ctx: TeamContext, type: EntityType, id: string) {
+/**
+ * Removes a trashed record, everything moved with it, and their history. `beforeDelete` runs in the same
+ * transaction with the ids about to go, so records kept elsewhere about them (attachments) go too.
+ */
+export async function purge(
+  ctx: TeamContext,
+  type: EntityType,
+  id: string,
+  hooks: { beforeDelete?: (tx: Tx, ids: string[]) => Promise<void> } = {},
+) {
   return db.transaction(async (tx) => {
     await trashedRoot(tx, ctx, type, id);
     const ids: string[] = [];
@@ -133,6 +141,7 @@ export async function purge(ctx: TeamContext, type: EntityType, id: string) {
       const rows = await tx.select({ id: t.id }).from(t).where(and(eq(t.teamId, ctx.team.id), eq(t.trashId, id), isNotNull(t.deletedAt)));
       ids.push(...rows.map((r) => r.id));
     }
+    await hooks.beforeDelete?.(tx, ids);
     const t = SPECS[type].table;
     await tx.delete(t).where(and(eq(t.id, id), eq(t.teamId, ctx.team.id)));
     for (const tbl of TABLES) await tx.delete(tbl).where(and(eq(tbl.teamId, ctx.team.id), eq(tbl.trashId, id)));

@@ -3,6 +3,7 @@ import { json, route } from '../../../../lib/server/http';
 import { guard } from '../../../../lib/server/guard';
 import { purge, restoreFromTrash } from '../../../../lib/server/vault/trash';
 import { entityTypeParam } from '../../../../lib/server/vault/params';
+import { detachPurged, removeStoredFiles } from '../../../../lib/server/field/attachments';
 
 /** Restore from the trash (with everything that was moved along). */
 export const POST: APIRoute = route(async ({ locals, params }) => {
@@ -10,8 +11,15 @@ export const POST: APIRoute = route(async ({ locals, params }) => {
   return json(await restoreFromTrash(ctx, entityTypeParam(params.type), params.id!));
 });
 
-/** Purge for good (admins): the record, its contents and their history. */
+/** Purge for good (admins): the record, its contents, their history and their attachments. */
 export const DELETE: APIRoute = route(async ({ locals, params }) => {
   const ctx = guard(locals, 'trash:purge');
-  return json(await purge(ctx, entityTypeParam(params.type), params.id!));
+  let storedFiles: string[] = [];
+  const result = await purge(ctx, entityTypeParam(params.type), params.id!, {
+    beforeDelete: async (tx, ids) => {
+      storedFiles = await detachPurged(tx, ctx, ids);
+    },
+  });
+  await removeStoredFiles(storedFiles);
+  return json(result);
 });
