@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { GetObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { createClient } from '@libsql/client';
 // @ts-expect-error s3rver ships no types
 import S3rver from 's3rver';
 import { createTeamWithRoles, TestClient, type TeamFixture } from '../helpers/client';
@@ -64,7 +65,7 @@ describe('attachments in an S3 bucket', () => {
     const put = await upload(owner, { ownerType: 'device', ownerId: d.id, kind: 'photo' }, PNG_BYTES, '../../etc/cabinet photo?.png', 'image/png');
     expect(put.status, JSON.stringify(put.body)).toBe(201);
     expect(put.body.fileName).toBe('cabinet photo_.png');
-    const db = new (await import('@libsql/client')).createClient({ url: app.databaseUrl });
+    const db = createClient({ url: app.databaseUrl });
     const key = String((await db.execute({ sql: 'SELECT storage_key FROM attachment WHERE id = ?', args: [put.body.id] })).rows[0]!.storage_key);
     db.close();
     expect(await objectExists(key)).toBe(true);
@@ -102,7 +103,7 @@ describe('purging from the trash', () => {
     const onMachine = await upload(owner, { ownerType: 'machine', ownerId: d.machineId, kind: 'manual' }, PDF_BYTES, 'line.pdf', 'application/pdf');
     expect(onDevice.status).toBe(201);
     expect(onMachine.status).toBe(201);
-    const db = new (await import('@libsql/client')).createClient({ url: app.databaseUrl });
+    const db = createClient({ url: app.databaseUrl });
     const keysOf = async () =>
       (await db.execute({ sql: 'SELECT storage_key FROM attachment WHERE id IN (?, ?)', args: [onDevice.body.id, onMachine.body.id] })).rows.map((r) => String(r.storage_key));
     const keys = await keysOf();
