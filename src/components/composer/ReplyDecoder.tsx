@@ -1,32 +1,18 @@
 /** Paste a received reply in any notation: decoded fields, the checksum verdict and findings. */
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { decodeReply } from '../../lib/frame/decode-reply';
 import { formatChecksumValue, findChecksumAlgorithm } from '../../lib/frame/checksum';
 import type { Template } from '../../lib/frame/template';
-import { NOTATION_LABELS, readReply, REPLY_NOTATIONS, type ReplyNotation } from '../../lib/composer/reply';
+import { BytesInput, useBytesInput } from './BytesInput';
 import { FindingsList } from './FindingsList';
 
 export function ReplyDecoder({ template }: { template: Template }) {
-  const [text, setText] = useState('');
-  const [notation, setNotation] = useState<ReplyNotation>('auto');
-  const read = useMemo(() => (text ? readReply(text, notation) : null), [text, notation]);
+  const input = useBytesInput();
+  const { read } = input;
   const decoded = useMemo(() => (read?.ok ? decodeReply(template, read.bytes) : null), [read, template]);
   return (
     <div className="grid gap-3">
-      <div className="grid gap-2 sm:grid-cols-[1fr_14rem]">
-        <div>
-          <label htmlFor="reply-text" className="label">Received reply</label>
-          <textarea id="reply-text" className="input mono" rows={2} value={text} onChange={(e) => setText(e.target.value)} placeholder="e.g. 1=STA:+0004500,R*14$0D" />
-        </div>
-        <div>
-          <label htmlFor="reply-notation" className="label">Written as</label>
-          <select id="reply-notation" className="input" value={notation} onChange={(e) => setNotation(e.target.value as ReplyNotation)}>
-            {REPLY_NOTATIONS.map((n) => <option key={n} value={n}>{n === 'auto' ? 'Recognise automatically' : NOTATION_LABELS[n]}</option>)}
-          </select>
-          {read && <p className="text-xs text-muted mt-1">Read as {NOTATION_LABELS[read.notation]}.</p>}
-        </div>
-      </div>
-      {read && !read.ok && <p className="notice notice-bad text-sm" role="alert">Character {read.error.position}: {read.error.message}</p>}
+      <BytesInput input={input} id="reply" label="Received reply" placeholder="e.g. 1=STA:+0004500,R*14$0D" />
       {decoded && (
         <div className="grid gap-3" data-testid="reply-result">
           {decoded.checksums.map((c) => {

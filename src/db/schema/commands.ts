@@ -7,7 +7,7 @@ import { sql } from 'drizzle-orm';
 import { sqliteTable, text, integer, index, check } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
 import { user } from './auth';
-import { device, deviceProfile, type FieldChange } from './vault';
+import { device, deviceProfile, versionedColumns, type FieldChange } from './vault';
 import type { FieldValues, Template } from '../../lib/frame/template';
 
 export const COMMAND_ACTIONS = ['create', 'update', 'delete', 'revert', 'copy'] as const;
@@ -37,12 +37,7 @@ export const command = sqliteTable(
     notes: text('notes').notNull().default(''),
     /** The command moves machinery: the composer shows the safety caution above it. */
     movesMachinery: integer('moves_machinery', { mode: 'boolean' }).notNull().default(false),
-    version: integer('version').notNull().default(1),
-    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
-    updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
-    updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
-    deletedAt: integer('deleted_at', { mode: 'timestamp_ms' }),
-    deletedBy: text('deleted_by').references(() => user.id, { onDelete: 'set null' }),
+    ...versionedColumns(),
   },
   (t) => [
     index('command_device_idx').on(t.deviceId, t.deletedAt, t.name),

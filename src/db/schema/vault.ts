@@ -39,15 +39,17 @@ const teamId = () =>
     .notNull()
     .references(() => team.id, { onDelete: 'cascade' });
 
-const bookkeeping = () => ({
+/** Version, timestamps and trash columns shared by every versioned record (vault records, commands). */
+export const versionedColumns = () => ({
   version: integer('version').notNull().default(1),
   createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
   updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
   updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
   deletedAt: integer('deleted_at', { mode: 'timestamp_ms' }),
   deletedBy: text('deleted_by').references(() => user.id, { onDelete: 'set null' }),
-  trashId: text('trash_id'),
 });
+
+const bookkeeping = () => ({ ...versionedColumns(), trashId: text('trash_id') });
 
 export const site = sqliteTable(
   'site',
