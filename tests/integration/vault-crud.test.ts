@@ -187,6 +187,66 @@ describe('lists', () => {
     expect(bySite.total).toBe(3);
   });
 
+  it('orders by every sort field both ways, pages without gaps, and leaves out the trash', async () => {
+    const u = uid();
+    const word = `Sorter${u}`;
+    const zeta = await makeSite(eng, `Zeta ${u}`);
+    const alpha = await makeSite(eng, `Alpha ${u}`);
+    const inZeta = expectOk(await eng.post('/api/machines', { siteId: zeta.id, name: `Aline ${u}` }), 201);
+    const inAlpha = expectOk(await eng.post('/api/machines', { siteId: alpha.id, name: `Zline ${u}` }), 201);
+    const specs = [
+      { machineId: inZeta.id, tag: `K-${u}`, role: 'scale', maker: 'Brindle', model: 'B-2', serialNumber: 'S-9' },
+      { machineId: inAlpha.id, tag: `B-${u}`, role: 'drive', maker: 'Aldous', model: 'Z-1', serialNumber: 'S-1' },
+      { machineId: inZeta.id, tag: `X-${u}`, role: 'plc', maker: 'Brindle', model: 'A-7', serialNumber: 'S-5' },
+      { machineId: inAlpha.id, tag: `D-${u}`, role: 'drive', maker: 'Corvel', model: 'B-2', serialNumber: 'S-5' },
+      { machineId: inZeta.id, tag: `T-${u}`, role: 'reader', maker: 'Aldous', model: 'M-3', serialNumber: 'S-0' },
+    ];
+    const made = [];
+    for (const [i, s] of specs.entries()) {
+      made.push(expectOk(await eng.post('/api/devices', {
+        ...s,
+        name: `${word} ${'edcba'[i]}`,
+        ports: [{ name: 'P1', settings: rs485({ baud: 9600 }) }, { name: 'P2', settings: { interface: 'rs232', baud: 19200 } }, { name: 'P3', settings: { interface: 'rs232', baud: 38400 } }],
+      }), 201));
+    }
+    // One device in the trash, and the middle port of another: neither may appear.
+    expectOk(await eng.del(`/api/devices/${made[4].id}?version=${made[4].version}`));
+    expectOk(await eng.del(`/api/ports/${made[0].ports[1].id}?version=${made[0].ports[1].version}`));
+
+    const all = expectOk(await eng.get(`/api/devices?q=${word}&pageSize=200`));
+    expect(all.total).toBe(4);
+    expect(all.items.map((d: { id: string }) => d.id)).not.toContain(made[4].id);
+    const first = all.items.find((d: { id: string }) => d.id === made[0].id);
+    expect(first).toMatchObject({ tag: `K-${u}`, machineId: inZeta.id, machineName: `Aline ${u}`, siteId: zeta.id, siteName: `Zeta ${u}`, version: 1 });
+    expect(new Date(first.updatedAt).getTime()).toBe(new Date(made[0].updatedAt).getTime());
+    expect(first.ports.map((p: { name: string; shorthand: string }) => `${p.name} ${p.shorthand}`)).toEqual(['P1 9600 8-E-1', 'P3 38400 8-N-1']);
+
+    // Byte order with id breaking ties, as SQLite's BINARY collation compares ASCII text.
+    const cmp = (a: string | number, b: string | number) => (a < b ? -1 : a > b ? 1 : 0);
+    const keyOf = (d: Record<string, string>, sort: string) => (sort === 'updatedAt' ? new Date(d.updatedAt).getTime() : d[sort]!);
+    for (const sort of ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'machineName', 'siteName', 'updatedAt']) {
+      for (const dir of ['asc', 'desc'] as const) {
+        const expected = [...all.items]
+          .sort((a, b) => (dir === 'asc' ? 1 : -1) * cmp(keyOf(a, sort), keyOf(b, sort)) || cmp(a.id, b.id))
+          .map((d: { id: string }) => d.id);
+        const got = expectOk(await eng.get(`/api/devices?q=${word}&sort=${sort}&dir=${dir}&pageSize=200`));
+        expect(got.items.map((d: { id: string }) => d.id), `${sort} ${dir}`).toEqual(expected);
+        const paged: string[] = [];
+        for (let page = 1; page <= 3; page++) {
+          const p = expectOk(await eng.get(`/api/devices?q=${word}&sort=${sort}&dir=${dir}&pageSize=3&page=${page}`));
+          expect(p.total).toBe(4);
+          paged.push(...p.items.map((d: { id: string }) => d.id));
+        }
+        expect(paged, `${sort} ${dir} in pages of 3`).toEqual(expected);
+      }
+    }
+    const bySite = expectOk(await eng.get(`/api/devices?q=${word}&siteId=${alpha.id}&sort=tag`));
+    expect(bySite.items.map((d: { tag: string }) => d.tag)).toEqual([`B-${u}`, `D-${u}`]);
+    expect(bySite.total).toBe(2);
+    const past = expectOk(await eng.get(`/api/devices?q=${word}&page=9`));
+    expect(past).toMatchObject({ items: [], total: 4, page: 9 });
+  });
+
   it('refuses unknown sort fields, page sizes over 200 and unknown parameters', async () => {
     for (const q of ['sort=password', 'pageSize=201', 'page=0', 'dir=up', 'colour=red']) {
       const res = await eng.get(`/api/devices?${q}`);

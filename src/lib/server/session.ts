@@ -1,35 +1,50 @@
-import { eq } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import { getSessionCookie } from 'better-auth/cookies';
 import { db } from '../../db/client';
-import { session, user } from '../../db/schema';
+import type { Role } from '../permissions';
 import { auth, SESSION_EXPIRES_IN, SESSION_UPDATE_AGE } from './auth';
+
+export interface TeamOfUser {
+  id: string;
+  name: string;
+  role: Role;
+}
 
 export interface CurrentSession {
   sessionId: string;
   user: { id: string; name: string; email: string };
+  /** The user's teams, oldest membership first. */
+  teams: TeamOfUser[];
   /** Set-Cookie headers to pass on when the auth layer extended the session. */
   setCookies: string[];
 }
 
 /**
- * The signed-in user for a request, in one indexed query: the session cookie's token is looked up
- * directly (it is a random secret of its own; revocation and sign-out take effect at once). When the
- * session is due for its daily extension, the auth layer does that and returns fresh cookies.
+ * The signed-in user and their teams for a request, in one indexed query: the session cookie's token
+ * is looked up directly (it is a random secret of its own; revocation and sign-out take effect at
+ * once), and the memberships come along as JSON. When the session is due for its daily extension,
+ * the auth layer does that and returns fresh cookies.
  */
 export async function readSession(headers: Headers): Promise<CurrentSession | null> {
   const signed = getSessionCookie(headers);
   if (!signed) return null;
   const token = decodeURIComponent(signed).split('.')[0];
   if (!token) return null;
-  const [row] = await db
-    .select({ sessionId: session.id, expiresAt: session.expiresAt, id: user.id, name: user.name, email: user.email })
-    .from(session)
-    .innerJoin(user, eq(user.id, session.userId))
-    .where(eq(session.token, token));
+  const [row] = await db.all<{ sessionId: string; expiresAt: number; id: string; name: string; email: string; teams: string }>(sql`
+    SELECT s.id AS sessionId, s.expires_at AS expiresAt, u.id AS id, u.name AS name, u.email AS email,
+      (SELECT json_group_array(json_object('id', t.id, 'name', t.name, 'role', m.role) ORDER BY m.created_at, t.id)
+       FROM membership m JOIN team t ON t.id = m.team_id WHERE m.user_id = u.id) AS teams
+    FROM session s JOIN user u ON u.id = s.user_id
+    WHERE s.token = ${token}`);
   const now = Date.now();
-  if (!row || row.expiresAt.getTime() <= now) return null;
-  const current = { sessionId: row.sessionId, user: { id: row.id, name: row.name, email: row.email }, setCookies: [] as string[] };
-  const refreshDue = row.expiresAt.getTime() - SESSION_EXPIRES_IN * 1000 + SESSION_UPDATE_AGE * 1000 <= now;
+  if (!row || Number(row.expiresAt) <= now) return null;
+  const current: CurrentSession = {
+    sessionId: row.sessionId,
+    user: { id: row.id, name: row.name, email: row.email },
+    teams: JSON.parse(row.teams) as TeamOfUser[],
+    setCookies: [],
+  };
+  const refreshDue = Number(row.expiresAt) - SESSION_EXPIRES_IN * 1000 + SESSION_UPDATE_AGE * 1000 <= now;
   if (refreshDue) {
     const refreshed = await auth.api.getSession({ headers, returnHeaders: true });
     if (!refreshed.response) return null;

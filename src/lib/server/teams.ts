@@ -8,15 +8,6 @@ import { baseUrl, invitationDays } from './config';
 import { linkMessage, sendMail } from './mail';
 import { newId, randomToken, sha256 } from './ids';
 
-export async function listTeamsOf(userId: string) {
-  return db
-    .select({ id: team.id, name: team.name, role: membership.role })
-    .from(membership)
-    .innerJoin(team, eq(team.id, membership.teamId))
-    .where(eq(membership.userId, userId))
-    .orderBy(asc(membership.createdAt));
-}
-
 export async function createTeam(userId: string, name: string) {
   const id = newId('team');
   await db.batch([

@@ -1,25 +1,22 @@
 /** CSV export of a vault list with the same filters and sort as its list endpoint (all pages). */
 import Papa from 'papaparse';
-import { z } from 'zod';
 import { and, asc, desc, eq, isNull } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { device, machine, port } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
-import { parseList, type Page } from '../vault/records';
-import { idFilter } from '../vault/params';
-import { listSites, SITE_SORTS } from '../vault/sites';
-import { listMachines, MACHINE_SORTS } from '../vault/machines';
-import { listDevices, DEVICE_SORTS } from '../vault/devices';
-import { listLinks, LINK_SORTS } from '../vault/links';
-import { listProfiles, PROFILE_SORTS } from '../vault/profiles';
-import { DEVICE_ROLES } from '../../schemas/vault';
+import type { Page } from '../vault/records';
+import { deviceListParams, linkListParams, machineListParams, portExportParams, profileListParams, siteListParams } from '../vault/list-params';
+import { listSites } from '../vault/sites';
+import { listMachines } from '../vault/machines';
+import { listDevices } from '../vault/devices';
+import { listLinks } from '../vault/links';
+import { listProfiles } from '../vault/profiles';
 import { cardShorthand } from '../../field/card';
 
 export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
 export type CsvTable = (typeof CSV_TABLES)[number];
 const MAX_ROWS = 100_000;
-const q = z.string().max(100).optional();
 
 /** Spreadsheets run cells starting with = + - @ as formulas; such text gets a leading apostrophe. */
 export function safeCell(v: unknown): string {
@@ -43,19 +40,18 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
   u.searchParams.delete('table');
   u.searchParams.delete('page');
   u.searchParams.set('pageSize', '200');
-  const list = <F extends z.ZodRawShape>(sorts: readonly string[], def: string, filters: F) => parseList(u, sorts, def, filters);
   if (table === 'sites') {
-    const o = list(SITE_SORTS, 'name', { q });
+    const o = siteListParams(u);
     const items = await allPages((page) => listSites(ctx, { ...o, page }));
     return { columns: ['id', 'name', 'customer', 'address', 'machines', 'devices', 'version', 'updatedAt'], rows: items.map((s) => [s.id, s.name, s.customer, s.address, s.machineCount, s.deviceCount, s.version, s.updatedAt]) };
   }
   if (table === 'machines') {
-    const o = list(MACHINE_SORTS, 'name', { siteId: idFilter, q });
+    const o = machineListParams(u);
     const items = await allPages((page) => listMachines(ctx, { ...o, page }));
     return { columns: ['id', 'site', 'name', 'code', 'devices', 'links', 'version', 'updatedAt'], rows: items.map((m) => [m.id, m.siteName, m.name, m.code, m.deviceCount, m.linkCount, m.version, m.updatedAt]) };
   }
   if (table === 'devices') {
-    const o = list(DEVICE_SORTS, 'tag', { machineId: idFilter, siteId: idFilter, role: z.enum(DEVICE_ROLES).optional(), q });
+    const o = deviceListParams(u);
     const items = await allPages((page) => listDevices(ctx, { ...o, page }));
     return {
       columns: ['id', 'site', 'machine', 'tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'firmware', 'location', 'ports', 'version', 'updatedAt'],
@@ -63,17 +59,17 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
     };
   }
   if (table === 'links') {
-    const o = list(LINK_SORTS, 'name', { machineId: idFilter, q });
+    const o = linkListParams(u);
     const items = await allPages((page) => listLinks(ctx, { ...o, page }));
     return { columns: ['id', 'name', 'kind', 'cableType', 'cableLengthM', 'members', 'version', 'updatedAt'], rows: items.map((l) => [l.id, l.name, l.kind, l.cableType, l.cableLengthM, l.members.length, l.version, l.updatedAt]) };
   }
   if (table === 'profiles') {
-    const o = list(PROFILE_SORTS, 'name', { q, role: z.enum(DEVICE_ROLES).optional() });
+    const o = profileListParams(u);
     const items = await allPages((page) => listProfiles(ctx, { ...o, page }));
     return { columns: ['id', 'name', 'role', 'maker', 'model', 'ports', 'devices', 'version', 'updatedAt'], rows: items.map((f) => [f.id, f.name, f.role, f.maker, f.model, f.shorthands.join('; '), f.deviceCount, f.version, f.updatedAt]) };
   }
   // Ports have no list endpoint of their own: every live port of the team, or of one device or machine.
-  const o = parseList(u, ['tag'], 'tag', { deviceId: idFilter, machineId: idFilter });
+  const o = portExportParams(u);
   const rows = await db.select({ port, tag: device.tag, machineName: machine.name }).from(port)
     .innerJoin(device, eq(device.id, port.deviceId)).innerJoin(machine, eq(machine.id, device.machineId))
     .where(and(eq(port.teamId, ctx.team.id), isNull(port.deletedAt), isNull(device.deletedAt), o.deviceId ? eq(port.deviceId, o.deviceId) : undefined, o.machineId ? eq(device.machineId, o.machineId) : undefined))

@@ -1,6 +1,5 @@
 import type { MiddlewareHandler } from 'astro';
 import { readSession } from '../session';
-import { listTeamsOf } from '../teams';
 import { secureCookies } from '../config';
 
 export const TEAM_COOKIE = 'bb_team';
@@ -19,7 +18,7 @@ export const fillLocals: MiddlewareHandler = async (context, next) => {
   if (!session) return next();
   locals.user = session.user;
   locals.sessionId = session.sessionId;
-  locals.teams = await listTeamsOf(session.user.id);
+  locals.teams = session.teams;
   const wanted = context.cookies.get(TEAM_COOKIE)?.value;
   locals.team = locals.teams.find((t) => t.id === wanted) ?? locals.teams[0] ?? null;
   const response = await next();

@@ -1,5 +1,5 @@
 /** Devices and their ports: one transaction writes a device, its ports and their revisions. */
-import { and, asc, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, eq, isNull, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
@@ -8,7 +8,7 @@ import { HttpError } from '../http';
 import { newId } from '../ids';
 import type { deviceCreateSchema, deviceUpdateSchema, PortInput } from '../../schemas/vault';
 import type { PortSettings } from '../../frame/port-settings';
-import { countWhere, findLive, orderBy, recordCreated, updateVersioned, type Page } from './records';
+import { findLive, recordCreated, updateVersioned, type Page } from './records';
 import { deviceSpec, machineSpec, portSpec, profileSpec, type DeviceRow, type PortRow } from './specs';
 import { presentPort, shorthandOf, type PortView } from './present';
 import { definedOnly } from './diff';
@@ -30,55 +30,72 @@ export interface DeviceView extends DeviceRow {
   ports: PortView[];
 }
 
-const listColumns = {
-  id: device.id, tag: device.tag, name: device.name, role: device.role, maker: device.maker, model: device.model,
-  serialNumber: device.serialNumber, firmware: device.firmware, location: device.location, version: device.version,
-  updatedAt: device.updatedAt, machineId: device.machineId, machineName: machine.name, siteId: machine.siteId, siteName: site.name,
+/** Each list order as SQL; `id` breaks ties. Orders on machine or site names join those tables into the page query. */
+const SORT_SQL: Record<(typeof DEVICE_SORTS)[number], { key: SQL; joins: 'none' | 'machine' | 'site' }> = {
+  tag: { key: sql`device.tag`, joins: 'none' },
+  name: { key: sql`device.name`, joins: 'none' },
+  role: { key: sql`device.role`, joins: 'none' },
+  maker: { key: sql`device.maker`, joins: 'none' },
+  model: { key: sql`device.model`, joins: 'none' },
+  serialNumber: { key: sql`device.serial_number`, joins: 'none' },
+  updatedAt: { key: sql`device.updated_at`, joins: 'none' },
+  machineName: { key: sql`machine.name`, joins: 'machine' },
+  siteName: { key: sql`site.name`, joins: 'site' },
 };
 
+const JOIN_MACHINE = sql`JOIN machine ON machine.id = device.machine_id`;
+const JOIN_SITE = sql`JOIN site ON site.id = machine.site_id`;
+
+/**
+ * One page of the team's devices with the total and each device's port shorthand, in one statement:
+ * the page's ids come straight off a list-order index, then SQLite assembles the page (device, machine,
+ * site and ports) as one JSON text. One round trip and one JSON.parse replace three queries and their
+ * row mapping, which is where the device list's time went (docs/vault.md, "Performance").
+ */
 export async function listDevices(
   ctx: TeamContext,
   opts: { page: number; pageSize: number; sort: string; dir: 'asc' | 'desc'; machineId?: string; siteId?: string; role?: DeviceRow['role']; q?: string },
 ): Promise<Page<DeviceListItem>> {
   const match = opts.q ? ftsQuery(opts.q) : null;
-  const where = and(
-    eq(device.teamId, ctx.team.id),
-    isNull(device.deletedAt),
-    opts.machineId ? eq(device.machineId, opts.machineId) : undefined,
-    opts.siteId ? eq(machine.siteId, opts.siteId) : undefined,
-    opts.role ? eq(device.role, opts.role) : undefined,
-    match ? sql`${device.id} IN (SELECT device_id FROM device_search WHERE device_search MATCH ${match} AND team_id = ${ctx.team.id})` : undefined,
-  );
-  const col = { ...listColumns }[opts.sort as (typeof DEVICE_SORTS)[number]];
-  const joined = (fields: Record<string, unknown>) =>
-    db.select(fields as typeof listColumns).from(device).innerJoin(machine, eq(machine.id, device.machineId)).innerJoin(site, eq(site.id, machine.siteId));
-  const needsJoinForCount = !!opts.siteId;
-  const [rows, total] = await Promise.all([
-    joined(listColumns).where(where).orderBy(...orderBy(col, opts.dir, device.id)).limit(opts.pageSize).offset((opts.page - 1) * opts.pageSize),
-    needsJoinForCount
-      ? db.select({ n: sql<number>`count(*)` }).from(device).innerJoin(machine, eq(machine.id, device.machineId)).where(where).then((r) => Number(r[0]?.n ?? 0))
-      : countWhere(device, where),
-  ]);
-  const ports = rows.length ? await portSummaries(rows.map((r) => r.id)) : new Map();
-  const items = rows.map((r) => ({ ...r, ports: ports.get(r.id) ?? [] }));
-  return { items, page: opts.page, pageSize: opts.pageSize, total, sort: opts.sort, dir: opts.dir };
-}
-
-/** Name and shorthand of every live port of `deviceIds`, in one query. */
-export async function portSummaries(deviceIds: string[]): Promise<Map<string, DeviceListItem['ports']>> {
-  // Parsing the settings JSON here is cheaper than six json_extract calls per port in SQL.
-  const rows = await db.all<{ id: string; deviceId: string; name: string; settings: string }>(sql`
-    SELECT id, device_id AS deviceId, name, settings
-    FROM port WHERE device_id IN (${sql.join(deviceIds.map((id) => sql`${id}`), sql`, `)}) AND deleted_at IS NULL
-    ORDER BY device_id, position`);
-  const out = new Map<string, DeviceListItem['ports']>();
-  for (const r of rows) {
-    const settings = JSON.parse(r.settings) as PortSettings;
-    const list = out.get(r.deviceId) ?? [];
-    list.push({ id: r.id, name: r.name, shorthand: shorthandOf(settings), interface: settings.interface });
-    out.set(r.deviceId, list);
-  }
-  return out;
+  const conditions = [
+    sql`device.team_id = ${ctx.team.id} AND device.deleted_at IS NULL`,
+    opts.machineId ? sql`device.machine_id = ${opts.machineId}` : undefined,
+    opts.siteId ? sql`machine.site_id = ${opts.siteId}` : undefined,
+    opts.role ? sql`device.role = ${opts.role}` : undefined,
+    match ? sql`device.id IN (SELECT device_id FROM device_search WHERE device_search MATCH ${match} AND team_id = ${ctx.team.id})` : undefined,
+  ].filter((c): c is SQL => c !== undefined);
+  const where = sql.join(conditions, sql` AND `);
+  const order = SORT_SQL[opts.sort as (typeof DEVICE_SORTS)[number]] ?? SORT_SQL.tag;
+  const dir = sql.raw(opts.dir === 'desc' ? 'DESC' : 'ASC');
+  const needsMachine = order.joins !== 'none' || !!opts.siteId;
+  const joins = sql.join([needsMachine ? JOIN_MACHINE : undefined, order.joins === 'site' ? JOIN_SITE : undefined].filter((j): j is SQL => !!j), sql` `);
+  const countJoins = opts.siteId ? JOIN_MACHINE : sql``;
+  const row = await db.get<{ total: number; items: string }>(sql`
+    WITH page AS (
+      SELECT device.id AS id, ${order.key} AS k FROM device ${joins} WHERE ${where}
+      ORDER BY k ${dir}, device.id LIMIT ${opts.pageSize} OFFSET ${(opts.page - 1) * opts.pageSize}
+    )
+    SELECT
+      (SELECT count(*) FROM device ${countJoins} WHERE ${where}) AS total,
+      (SELECT json_group_array(json_object(
+         'id', device.id, 'tag', device.tag, 'name', device.name, 'role', device.role, 'maker', device.maker,
+         'model', device.model, 'serialNumber', device.serial_number, 'firmware', device.firmware,
+         'location', device.location, 'version', device.version, 'updatedAt', device.updated_at,
+         'machineId', device.machine_id, 'machineName', machine.name, 'siteId', machine.site_id, 'siteName', site.name,
+         'ports', (SELECT json_group_array(json_object('id', port.id, 'name', port.name, 'settings', json(port.settings)) ORDER BY port.position, port.id)
+                   FROM port WHERE port.device_id = device.id AND port.deleted_at IS NULL)
+       ) ORDER BY page.k ${dir}, page.id)
+       FROM page JOIN device ON device.id = page.id ${JOIN_MACHINE} ${JOIN_SITE}) AS items`);
+  const raw = JSON.parse(row!.items) as (Omit<DeviceListItem, 'updatedAt' | 'ports'> & {
+    updatedAt: number;
+    ports: { id: string; name: string; settings: PortSettings }[];
+  })[];
+  const items: DeviceListItem[] = raw.map((d) => ({
+    ...d,
+    updatedAt: new Date(d.updatedAt),
+    ports: d.ports.map((p) => ({ id: p.id, name: p.name, shorthand: shorthandOf(p.settings), interface: p.settings.interface })),
+  }));
+  return { items, page: opts.page, pageSize: opts.pageSize, total: Number(row!.total), sort: opts.sort, dir: opts.dir };
 }
 
 export async function livePorts(q: DbOrTx, deviceId: string): Promise<PortRow[]> {

@@ -155,19 +155,22 @@ export interface Page<T> {
 }
 
 /**
- * Validates `?page=&pageSize=&sort=&dir=` plus the endpoint's own filters (unknown parameters
- * answer 422); `sort` must be one of `sortable`.
+ * A parser for `?page=&pageSize=&sort=&dir=` plus an endpoint's own filters (unknown parameters
+ * answer 422); `sort` must be one of `sortable`. Build it once per endpoint, at module level: zod
+ * compiles a schema on its first parse, so a schema made per request pays that on every request.
  */
-export function parseList<F extends z.ZodRawShape>(url: URL, sortable: readonly string[], defaultSort: string, filters: F) {
-  const raw: Record<string, string> = {};
-  for (const [k, v] of url.searchParams) raw[k] = v;
+export function listParser<F extends z.ZodRawShape>(sortable: readonly string[], defaultSort: string, filters: F) {
   const schema = listQuerySchema.extend(filters);
-  const parsed = validate(schema, raw) as z.infer<typeof listQuerySchema> & z.infer<z.ZodObject<F>>;
-  const sort = parsed.sort ?? defaultSort;
-  if (!sortable.includes(sort)) {
-    throw new HttpError(422, `sort: choose one of ${sortable.join(', ')}`, { fields: { sort: `Sort by one of ${sortable.join(', ')}.` } });
-  }
-  return { ...parsed, sort };
+  return (url: URL) => {
+    const raw: Record<string, string> = {};
+    for (const [k, v] of url.searchParams) raw[k] = v;
+    const parsed = validate(schema, raw) as z.infer<typeof listQuerySchema> & z.infer<z.ZodObject<F>>;
+    const sort = parsed.sort ?? defaultSort;
+    if (!sortable.includes(sort)) {
+      throw new HttpError(422, `sort: choose one of ${sortable.join(', ')}`, { fields: { sort: `Sort by one of ${sortable.join(', ')}.` } });
+    }
+    return { ...parsed, sort };
+  };
 }
 
 export function orderBy(column: SQLiteColumn | SQL, dir: 'asc' | 'desc', tieBreak: SQLiteColumn): SQL[] {

@@ -1,15 +1,13 @@
 import type { APIRoute } from 'astro';
 import { json, readJson, route, validate } from '../../../lib/server/http';
 import { guard } from '../../../lib/server/guard';
-import { parseList } from '../../../lib/server/vault/records';
-import { createDevice, listDevices, DEVICE_SORTS } from '../../../lib/server/vault/devices';
-import { deviceCreateSchema, DEVICE_ROLES } from '../../../lib/schemas/vault';
-import { idFilter } from '../../../lib/server/vault/params';
-import { z } from 'zod';
+import { deviceListParams } from '../../../lib/server/vault/list-params';
+import { createDevice, listDevices } from '../../../lib/server/vault/devices';
+import { deviceCreateSchema } from '../../../lib/schemas/vault';
 
 export const GET: APIRoute = route(async ({ locals, url }) => {
   const ctx = guard(locals, 'device:read');
-  return json(await listDevices(ctx, parseList(url, DEVICE_SORTS, 'tag', { machineId: idFilter, siteId: idFilter, role: z.enum(DEVICE_ROLES).optional(), q: z.string().max(100).optional() })));
+  return json(await listDevices(ctx, deviceListParams(url)));
 });
 
 export const POST: APIRoute = route(async ({ locals, request }) => {

@@ -1,14 +1,13 @@
 import type { APIRoute } from 'astro';
 import { json, readJson, route, validate } from '../../../lib/server/http';
 import { guard } from '../../../lib/server/guard';
-import { parseList } from '../../../lib/server/vault/records';
-import { createProfile, listProfiles, PROFILE_SORTS } from '../../../lib/server/vault/profiles';
-import { profileCreateSchema, DEVICE_ROLES } from '../../../lib/schemas/vault';
-import { z } from 'zod';
+import { profileListParams } from '../../../lib/server/vault/list-params';
+import { createProfile, listProfiles } from '../../../lib/server/vault/profiles';
+import { profileCreateSchema } from '../../../lib/schemas/vault';
 
 export const GET: APIRoute = route(async ({ locals, url }) => {
   const ctx = guard(locals, 'profile:read');
-  return json(await listProfiles(ctx, parseList(url, PROFILE_SORTS, 'name', { q: z.string().max(100).optional(), role: z.enum(DEVICE_ROLES).optional() })));
+  return json(await listProfiles(ctx, profileListParams(url)));
 });
 
 export const POST: APIRoute = route(async ({ locals, request }) => {
