@@ -201,7 +201,7 @@ describe('lists', () => {
       { machineId: inAlpha.id, tag: `D-${u}`, role: 'drive', maker: 'Corvel', model: 'B-2', serialNumber: 'S-5' },
       { machineId: inZeta.id, tag: `T-${u}`, role: 'reader', maker: 'Aldous', model: 'M-3', serialNumber: 'S-0' },
     ];
-    const made = [];
+    const made: any[] = [];
     for (const [i, s] of specs.entries()) {
       made.push(expectOk(await eng.post('/api/devices', {
         ...s,
@@ -218,7 +218,7 @@ describe('lists', () => {
     expect(all.items.map((d: { id: string }) => d.id)).not.toContain(made[4].id);
     const first = all.items.find((d: { id: string }) => d.id === made[0].id);
     expect(first).toMatchObject({ tag: `K-${u}`, machineId: inZeta.id, machineName: `Aline ${u}`, siteId: zeta.id, siteName: `Zeta ${u}`, version: 1 });
-    expect(new Date(first.updatedAt).getTime()).toBe(new Date(made[0].updatedAt).getTime());
+    expect(first.updatedAt).toBe(made[0].updatedAt); // the same ISO text as the device's own answer
     expect(first.ports.map((p: { name: string; shorthand: string }) => `${p.name} ${p.shorthand}`)).toEqual(['P1 9600 8-E-1', 'P3 38400 8-N-1']);
 
     // Byte order with id breaking ties, as SQLite's BINARY collation compares ASCII text.
@@ -262,6 +262,39 @@ describe('lists', () => {
     expect(d.ports[0].text).toContain('Parity: even');
     const list = expectOk(await eng.get(`/api/devices?machineId=${d.machineId}`));
     expect(list.items[0].ports.map((p: { shorthand: string }) => p.shorthand)).toEqual(['9600 8-E-1', '19200 8-N-1']);
+  });
+
+  it('gives every port the same shorthand in the list as on the device', async () => {
+    // The list builds shorthands in SQL, the device answer in JS: both must agree on every parity,
+    // stop bits, data bits and interface, and on TCP's host and port.
+    const settings: Record<string, unknown>[] = [];
+    for (const parity of ['none', 'even', 'odd', 'mark', 'space']) {
+      for (const stopBits of [1, 1.5, 2]) settings.push({ interface: 'rs232', baud: 1200, dataBits: 7, parity, stopBits });
+    }
+    settings.push({ interface: 'ttl', baud: 110, dataBits: 5 }, { interface: 'usb-vcp', baud: 100_000_000, dataBits: 6 });
+    settings.push({ interface: 'tcp', tcpHost: 'gw-7.fernhollow.test', tcpPort: 4001, baud: 74880 });
+    settings.push(rs485({ baud: 250000, parity: 'odd', stopBits: 2 }));
+    const fromDevices: string[] = [];
+    const fromList: string[] = [];
+    const interfaces: [string, string][] = [];
+    const list = async () => expectOk(await eng.get(`/api/devices?machineId=${parents.machineId}&pageSize=200`));
+    for (let start = 0; start < settings.length; start += 16) { // at most 16 ports a device
+      const d = expectOk(await eng.post('/api/devices', {
+        machineId: parents.machineId, tag: `SH-${uid()}`,
+        ports: settings.slice(start, start + 16).map((s, i) => ({ name: `P${String(start + i).padStart(2, '0')}`, settings: s })),
+      }), 201);
+      fromDevices.push(...d.ports.map((p: { name: string; shorthand: string }) => `${p.name} ${p.shorthand}`));
+      const item = (await list()).items.find((i: { id: string }) => i.id === d.id);
+      fromList.push(...item.ports.map((p: { name: string; shorthand: string }) => `${p.name} ${p.shorthand}`));
+      for (const [i, p] of item.ports.entries()) interfaces.push([p.interface, d.ports[i].settings.interface]);
+    }
+    expect(fromDevices).toHaveLength(settings.length);
+    expect(fromDevices).toContain('P00 1200 7-N-1');
+    expect(fromDevices).toContain('P04 1200 7-E-1.5');
+    expect(fromDevices).toContain('P14 1200 7-S-2');
+    expect(fromDevices).toContain('P17 74880 8-N-1 @ gw-7.fernhollow.test:4001');
+    expect(fromList).toEqual(fromDevices);
+    for (const [inList, onDevice] of interfaces) expect(inList).toBe(onDevice);
   });
 
   it('lists sites and machines with their counts', async () => {

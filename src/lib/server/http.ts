@@ -14,7 +14,12 @@ export class HttpError extends Error {
 }
 
 export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
-  return new Response(JSON.stringify(data), {
+  return jsonText(JSON.stringify(data), status, headers);
+}
+
+/** A JSON response from text that is JSON already (a page SQLite assembled, say). */
+export function jsonText(text: string, status = 200, headers: HeadersInit = {}): Response {
+  return new Response(text, {
     status,
     headers: { 'content-type': 'application/json; charset=utf-8', ...headers },
   });

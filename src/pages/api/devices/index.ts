@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
-import { json, readJson, route, validate } from '../../../lib/server/http';
+import { json, jsonText, readJson, route, validate } from '../../../lib/server/http';
 import { guard } from '../../../lib/server/guard';
 import { deviceListParams } from '../../../lib/server/vault/list-params';
-import { createDevice, listDevices } from '../../../lib/server/vault/devices';
+import { createDevice, listDevicesJson } from '../../../lib/server/vault/devices';
 import { deviceCreateSchema } from '../../../lib/schemas/vault';
 
 export const GET: APIRoute = route(async ({ locals, url }) => {
   const ctx = guard(locals, 'device:read');
-  return json(await listDevices(ctx, deviceListParams(url)));
+  return jsonText(await listDevicesJson(ctx, deviceListParams(url)));
 });
 
 export const POST: APIRoute = route(async ({ locals, request }) => {
