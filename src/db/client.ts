@@ -4,6 +4,7 @@ import { createClient, type Client } from '@libsql/client';
 import { drizzle } from 'drizzle-orm/libsql';
 import * as schema from './schema';
 import { gateWrites } from './write-gate';
+import { cacheReadStatements } from './statement-cache';
 
 /** Default database: a SQLite file relative to the working directory. */
 export const DEFAULT_DATABASE_URL = 'file:./data/baudbook.db';
@@ -13,6 +14,7 @@ function openClient(url: string): Client {
     const path = url.slice('file:'.length);
     if (path && path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
   }
+  cacheReadStatements();
   // `timeout` is SQLite's busy timeout in ms: writers in other processes wait instead of failing with SQLITE_BUSY.
   const raw = createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
   return url.startsWith('file:') ? gateWrites(raw) : raw;
