@@ -21,7 +21,9 @@ const ftsQuery = (text: string) => text.toLowerCase().match(/[\p{L}\p{N}]+/gu)!.
 
 async function baseline(url: string, port: number, teamId: string) {
   const db = createClient({ url, timeout: 5000 });
-  const { deviceListStatement } = await import('../src/lib/server/vault/devices');
+  const { deviceListStatement } = await import('../src/lib/server/vault/device-list-sql');
+  const { default: Database } = await import('libsql');
+  if (Database.prototype.prepare.name === 'cachedPrepare') throw new Error('The baseline must run the plain client, without the app\'s statement cache.');
   const dialect = new SQLiteAsyncDialect();
   const listStatement = (page: number) => {
     const q = dialect.sqlToQuery(deviceListStatement(teamId, { page, pageSize: 50, sort: 'tag', dir: 'asc' }));
@@ -33,7 +35,8 @@ async function baseline(url: string, port: number, teamId: string) {
     const u = new URL(req.url!, 'http://x');
     let body: unknown;
     if (u.pathname === '/api/devices') {
-      // The app's own statement (listDevicesJson), its JSON text sent as it comes.
+      // The app's own statement (src/lib/server/vault/device-list-sql.ts), its JSON text sent as it comes.
+      // That module opens no database, so this process keeps the plain client: no statement cache.
       const page = Number(u.searchParams.get('page') ?? 1);
       const r = await db.execute(listStatements.get(page) ?? listStatement(page));
       res.writeHead(200, { 'content-type': 'application/json' }).end(r.rows[0]!.page as string);

@@ -4,18 +4,9 @@ import { db } from '../../../db/client';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import type { Page } from './records';
+import { ftsQuery } from './fts';
 
 export const SEARCH_FIELDS = ['tag', 'name', 'maker', 'model', 'serialNumber', 'siteName', 'machineName'] as const;
-
-/**
- * An FTS5 query from what the user typed: every run of letters/digits must match the start of
- * a word in some field (`DRV-20` finds `DRV-201`). Null when nothing searchable was typed.
- */
-export function ftsQuery(text: string): string | null {
-  const tokens = text.toLowerCase().match(/[\p{L}\p{N}]+/gu)?.slice(0, 8) ?? [];
-  if (tokens.length === 0) return null;
-  return tokens.map((t) => `"${t}"*`).join(' ');
-}
 
 export interface SearchHit {
   id: string; tag: string; name: string; role: string; maker: string; model: string; serialNumber: string;
