@@ -6,8 +6,8 @@ declare namespace App {
     user: { id: string; name: string; email: string } | null;
     sessionId: string | null;
     /** Every team the user belongs to, with the role held there. */
-    teams: { id: string; name: string; role: import('./lib/permissions').Role }[];
+    teams: import('./lib/server/session').TeamOfUser[];
     /** The active team (chosen with the team switcher), or null when the user has none. */
-    team: { id: string; name: string; role: import('./lib/permissions').Role } | null;
+    team: import('./lib/server/session').TeamOfUser | null;
   }
 }

@@ -11,9 +11,7 @@ import { findLive, recordCreated, updateVersioned, type Page } from './records';
 import { deviceSpec, machineSpec, portSpec, profileSpec, type DeviceRow, type PortRow } from './specs';
 import { presentPort, type PortView } from './present';
 import { definedOnly } from './diff';
-import { deviceListStatement, DEVICE_SORTS, type DeviceListOptions } from './device-list-sql';
-
-export { DEVICE_SORTS };
+import { deviceListStatement, type DeviceListOptions } from './device-list-sql';
 
 export interface DeviceListItem {
   id: string; tag: string; name: string; role: DeviceRow['role']; maker: string; model: string; serialNumber: string;

@@ -8,7 +8,7 @@ import { listParser } from './records';
 import { idFilter } from './params';
 import { SITE_SORTS } from './sites';
 import { MACHINE_SORTS } from './machines';
-import { DEVICE_SORTS } from './devices';
+import { DEVICE_SORTS } from './device-list-sql';
 import { LINK_SORTS } from './links';
 import { PROFILE_SORTS } from './profiles';
 
