@@ -13,11 +13,15 @@ const extraHosts = (process.env.ALLOWED_HOSTS ?? '')
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
+  // Middleware mode: the built entry only exports a handler; server/serve.mjs owns the socket, the client
+  // address and static files, so nothing can start the app without them.
+  adapter: node({ mode: 'middleware' }),
   integrations: [react()],
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
   security: {
-    checkOrigin: true,
+    // Our middleware enforces the Origin rule (JSON answers, Sec-Fetch-Site, the public tools API exempt);
+    // Astro's own check would answer before it with 403 text/plain.
+    checkOrigin: false,
     allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, ...extraHosts],
   },
   // Sessions live in the database through the auth layer; Astro's own session store is unused.

@@ -123,7 +123,7 @@ async function main() {
     const appPort = await freePort();
     const app = `http://127.0.0.1:${appPort}`;
     let appLog = '';
-    const server = spawn(process.execPath, ['dist/server/entry.mjs'], {
+    const server = spawn(process.execPath, ['server/serve.mjs'], {
       env: { ...process.env, HOST: '127.0.0.1', PORT: String(appPort), BASE_URL: app, DATABASE_URL: url, SEED_DEMO: '0' },
       stdio: ['ignore', 'pipe', 'pipe'],
     });

@@ -9,5 +9,10 @@ declare namespace App {
     teams: import('./lib/server/session').TeamOfUser[];
     /** The active team (chosen with the team switcher), or null when the user has none. */
     team: import('./lib/server/session').TeamOfUser | null;
+    /**
+     * Who sent the request, resolved by server/serve.mjs before the app runs: the client address (the
+     * socket's unless TRUST_PROXY trusts proxies) and whether it is the person at this machine.
+     */
+    peer: { address: string; atMachine: boolean };
   }
 }

@@ -1,5 +1,5 @@
 import { sequence } from 'astro:middleware';
-import { prepare, securityHeaders, toolsQuota } from './lib/server/middleware/steps';
+import { originRule, prepare, securityHeaders, toolsQuota } from './lib/server/middleware/steps';
 import { fillLocals } from './lib/server/middleware/locals';
 
-export const onRequest = sequence(securityHeaders, prepare, toolsQuota, fillLocals);
+export const onRequest = sequence(securityHeaders, prepare, originRule, toolsQuota, fillLocals);

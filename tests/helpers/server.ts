@@ -24,8 +24,9 @@ export async function freePort(): Promise<number> {
   });
 }
 
-/** Built server entry; DIST_DIR lets parallel work trees build elsewhere (default dist). */
-const entry = join(process.env.DIST_DIR ?? 'dist', 'server/entry.mjs');
+/** Built app; DIST_DIR lets parallel work trees build elsewhere (default dist). Served by server/serve.mjs. */
+const distDir = process.env.DIST_DIR ?? 'dist';
+const entry = join(distDir, 'server/entry.mjs');
 
 export async function startServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
   if (!existsSync(entry)) {
@@ -36,7 +37,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
   const databaseUrl = `file:${join(dir, 'test.db')}`;
   /** Where the tests reach the server (BASE_URL in extraEnv may name a public https address instead). */
   const baseUrl = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(process.execPath, [entry], {
+  const child: ChildProcess = spawn(process.execPath, ['server/serve.mjs', distDir], {
     env: {
       ...process.env,
       HOST: '127.0.0.1',

@@ -1,5 +1,6 @@
 import { appendFileSync, existsSync, readFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
+import { outboxMode as resolveOutboxMode } from '../../../server/outbox.mjs';
 
 const ENV_FILE = '.env';
 
@@ -40,12 +41,11 @@ export const secureCookies = baseUrl.startsWith('https://');
 export const smtpUrl = process.env.SMTP_URL || null;
 export const mailFrom = process.env.MAIL_FROM ?? 'Baudbook <no-reply@baudbook.invalid>';
 /**
- * `development` (the default) shows the outbox page; `production` hides it.
- * The quick start runs the built server in development mode so the demo needs no mail server.
+ * Who may read the local outbox: `local` (everything, to the person at this machine only), `own` (each
+ * signed-in user their own mail) or `off`. The rules and defaults are in server/outbox.mjs and decision 007;
+ * `APP_MODE=production` turns the default off.
  */
-export const appMode: 'development' | 'production' =
-  process.env.APP_MODE === 'production' ? 'production' : 'development';
-export const outboxVisible = appMode === 'development' && !smtpUrl;
+export const outboxMode = resolveOutboxMode(process.env);
 
 /** Sign-in attempts allowed per window per client address. */
 export const signInLimit = {

@@ -1,8 +1,8 @@
 import nodemailer from 'nodemailer';
-import { desc } from 'drizzle-orm';
+import { desc, sql } from 'drizzle-orm';
 import { db } from '../../db/client';
 import { outboxMessage } from '../../db/schema';
-import { mailFrom, smtpUrl } from './config';
+import { mailFrom, outboxMode, smtpUrl } from './config';
 
 export interface MailMessage {
   to: string;
@@ -23,8 +23,21 @@ export async function sendMail(message: MailMessage): Promise<void> {
   await db.insert(outboxMessage).values({ id: crypto.randomUUID(), ...message });
 }
 
-export function listOutbox(limit = 50) {
-  return db.select().from(outboxMessage).orderBy(desc(outboxMessage.createdAt)).limit(limit);
+/** What of the outbox a request may read: every message, only mail to one address, or nothing. */
+export type OutboxView = { kind: 'all' } | { kind: 'own'; email: string } | null;
+
+/** Applies the outbox mode to one request (see server/outbox.mjs and decision 007). */
+export function outboxView(locals: App.Locals): OutboxView {
+  if (outboxMode === 'local') return locals.peer.atMachine ? { kind: 'all' } : null;
+  if (outboxMode === 'own') return locals.user ? { kind: 'own', email: locals.user.email } : null;
+  return null;
+}
+
+/** The newest messages the view allows, newest first. */
+export function listOutbox(view: Exclude<OutboxView, null>, limit = 50) {
+  const query = db.select().from(outboxMessage);
+  const scoped = view.kind === 'own' ? query.where(sql`lower(${outboxMessage.to}) = lower(${view.email})`) : query;
+  return scoped.orderBy(desc(outboxMessage.createdAt)).limit(limit);
 }
 
 const escapeHtml = (s: string) =>

@@ -1,7 +1,7 @@
 import type { MiddlewareHandler } from 'astro';
 import { startup } from '../startup';
-import { secureCookies, toolsRequestsPerMinute } from '../config';
-import { clientIp } from '../client-ip';
+import { baseUrl, secureCookies, toolsRequestsPerMinute, trustedOrigins } from '../config';
+import { clientIp, peerOf } from '../client-ip';
 import { takeQuota } from '../quota';
 import { json } from '../http';
 
@@ -31,10 +31,21 @@ export function contentSecurityPolicy(fromAstro: string | null): string {
   return [...BASE_CSP, scriptSrc ?? "script-src 'self'"].join('; ');
 }
 
-export const securityHeaders: MiddlewareHandler = async (_context, next) => {
+/** Signed-in requests carry this cookie (Secure-prefixed when BASE_URL is https). */
+const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?better-auth\.session_token=/;
+export function carriesSession(request: Request): boolean {
+  return SESSION_COOKIE.test(request.headers.get('cookie') ?? '');
+}
+
+export const securityHeaders: MiddlewareHandler = async (context, next) => {
   const response = await next();
   const headers = response.headers;
   try {
+    // Pages and data for a signed-in user are never kept by the browser's or a proxy's HTTP cache. (Field
+    // cards kept offline later go through the Cache API on the technician's request: decision 007.)
+    if (!headers.has('Cache-Control') && (context.locals.user || carriesSession(context.request))) {
+      headers.set('Cache-Control', 'no-store');
+    }
     headers.set('X-Content-Type-Options', 'nosniff');
     headers.set('Referrer-Policy', 'strict-origin-when-cross-origin');
     headers.set('X-Frame-Options', 'DENY');
@@ -45,19 +56,44 @@ export const securityHeaders: MiddlewareHandler = async (_context, next) => {
   } catch {
     // Immutable headers (e.g. a fetched response): copy into a new response.
     const copy = new Response(response.body, response);
-    return securityHeaders(_context, async () => copy) as Promise<Response>;
+    return securityHeaders(context, async () => copy) as Promise<Response>;
   }
 };
 
-export const prepare: MiddlewareHandler = async (_context, next) => {
+/** Migrates (once) and settles who sent the request, before anything reads it. */
+export const prepare: MiddlewareHandler = async (context, next) => {
   await startup();
+  context.locals.peer = peerOf(context.locals, () => context.clientAddress);
   return next();
+};
+
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+function forbidden(message: string): Response {
+  return json({ error: message }, 403);
+}
+
+/**
+ * The Origin rule for state-changing requests (docs/api.md): an Origin header must name one of the app's
+ * origins; a request without one passes only when the browser marks it same-origin (Sec-Fetch-Site) or when
+ * it carries no session. The public, stateless tools API is exempt, as its documented examples show.
+ */
+export const originRule: MiddlewareHandler = async (context, next) => {
+  const { request, url } = context;
+  if (!STATE_CHANGING.has(request.method) || url.pathname.startsWith('/api/tools/')) return next();
+  const origin = request.headers.get('origin');
+  if (origin && origin !== 'null') {
+    if (trustedOrigins.includes(origin)) return next();
+    return forbidden(`Requests from ${origin} are not accepted: send them from ${baseUrl}.`);
+  }
+  if (request.headers.get('sec-fetch-site') === 'same-origin' || !carriesSession(request)) return next();
+  return forbidden(`A signed-in ${request.method} needs an Origin header naming this app (${baseUrl}), as browsers send.`);
 };
 
 /** Public tools API: a per-address request budget shared by all servers through the database. */
 export const toolsQuota: MiddlewareHandler = async (context, next) => {
   if (!context.url.pathname.startsWith('/api/tools/')) return next();
-  const ip = clientIp(context.request, context.clientAddress);
+  const ip = clientIp(context.locals);
   const { allowed, retryAfter } = await takeQuota(`tools|${ip}`, toolsRequestsPerMinute, 60);
   if (!allowed) {
     return json({ error: `Too many requests: at most ${toolsRequestsPerMinute} a minute. Try again in ${retryAfter} s.` }, 429, {

@@ -1,0 +1,97 @@
+#!/usr/bin/env node
+// Baudbook's HTTP server: a small node:http server of ours in front of Astro's handler (the node adapter in
+// middleware mode). It owns what must be decided before the app runs: the client address (from the socket
+// unless TRUST_PROXY names trusted proxies), whether a request comes from the person at this machine, static
+// files with their headers, and where to listen. Usage: node server/serve.mjs [path/to/dist]
+import { existsSync } from 'node:fs';
+import { createServer } from 'node:http';
+import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import send from 'send';
+import { isLoopbackHost, parseTrustProxy, resolvePeer, scrubForwardingHeaders } from './peer.mjs';
+import { outboxMode } from './outbox.mjs';
+
+if (existsSync('.env')) process.loadEnvFile('.env');
+
+const distDir = resolve(process.argv[2] ?? process.env.DIST_DIR ?? 'dist');
+const entry = join(distDir, 'server/entry.mjs');
+const clientDir = join(distDir, 'client');
+if (!existsSync(entry)) {
+  console.error(`${entry} is missing: build first (npm run build, or npm start which builds).`);
+  process.exit(1);
+}
+
+let trustedHops;
+try {
+  trustedHops = parseTrustProxy(process.env.TRUST_PROXY);
+  outboxMode(process.env);
+} catch (err) {
+  console.error(err.message);
+  process.exit(1);
+}
+
+const port = Number(process.env.PORT ?? 4321);
+/**
+ * Listen on loopback unless told otherwise, or unless BASE_URL names a host other machines use: a demo on
+ * one's own machine is never reachable from the network by default.
+ */
+function defaultHost() {
+  const base = process.env.BASE_URL;
+  if (!base) return '127.0.0.1';
+  try {
+    return isLoopbackHost(new URL(base).host) ? '127.0.0.1' : '0.0.0.0';
+  } catch {
+    return '127.0.0.1';
+  }
+}
+const host = process.env.HOST || defaultHost();
+
+const { handler } = await import(pathToFileURL(entry).href);
+
+const ASSETS = '/_astro/';
+
+/** Serves a file from the built client folder; calls `fallThrough` when there is none. */
+function serveStatic(req, res, fallThrough) {
+  if (req.method !== 'GET' && req.method !== 'HEAD') return fallThrough();
+  const path = (req.url ?? '/').split('?')[0];
+  if (path === '/' || path.endsWith('/')) return fallThrough();
+  const immutable = path.startsWith(ASSETS);
+  const stream = send(req, path, { root: clientDir, index: false, dotfiles: 'deny', immutable, maxAge: immutable ? '365d' : 0 });
+  stream.on('directory', () => fallThrough());
+  stream.on('error', (err) => {
+    if (err.status === 404 || err.status === 403) return fallThrough();
+    res.statusCode = err.status ?? 500;
+    res.end();
+  });
+  stream.on('headers', (r) => {
+    r.setHeader('X-Content-Type-Options', 'nosniff');
+    r.setHeader('Referrer-Policy', 'strict-origin-when-cross-origin');
+    r.setHeader('Cross-Origin-Resource-Policy', 'same-origin');
+  });
+  stream.pipe(res);
+}
+
+const server = createServer((req, res) => {
+  try {
+    decodeURI(req.url ?? '/');
+  } catch {
+    res.writeHead(400, { 'content-type': 'text/plain; charset=utf-8' });
+    res.end('Bad request: the address is not valid.');
+    return;
+  }
+  const peer = resolvePeer(req, trustedHops);
+  scrubForwardingHeaders(req, peer, trustedHops);
+  serveStatic(req, res, () => handler(req, res, undefined, { peer }));
+});
+
+server.listen(port, host, () => {
+  console.log(`Baudbook listening on http://${host.includes(':') ? `[${host}]` : host}:${port}`);
+});
+
+for (const signal of ['SIGINT', 'SIGTERM']) {
+  process.on(signal, () => {
+    server.close(() => process.exit(0));
+    server.closeAllConnections?.();
+    setTimeout(() => process.exit(0), 2000).unref();
+  });
+}
