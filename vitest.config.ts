@@ -1,13 +1,31 @@
 /// <reference types="vitest/config" />
 import { getViteConfig } from 'astro/config';
 
+/**
+ * Two projects: `unit` (pure code and the local database layer: no build, no server) and `integration`
+ * (through the built server, which the global setup starts). `vitest run --project unit` needs no build.
+ */
 export default getViteConfig({
   test: {
-    include: ['tests/**/*.test.ts'],
-    exclude: ['tests/e2e/**', 'node_modules/**'],
     testTimeout: 20_000,
     hookTimeout: 30_000,
     pool: 'forks',
-    globalSetup: ['tests/helpers/global-setup.ts'],
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          include: ['tests/frame/**/*.test.ts', 'tests/composer/**/*.test.ts', 'tests/db/**/*.test.ts', 'tests/server/**/*.test.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'integration',
+          include: ['tests/integration/**/*.test.ts'],
+          globalSetup: ['tests/helpers/global-setup.ts'],
+        },
+      },
+    ],
   },
 });
