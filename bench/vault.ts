@@ -114,7 +114,7 @@ async function main() {
   const children: ChildProcess[] = [];
   try {
     const { ensureDatabase } = await import('../src/db/migrate');
-    const { seedLarge } = await import('../src/db/seed/large');
+    const { seedLarge } = await import('../src/lib/server/seed/large');
     const t0 = Date.now();
     await ensureDatabase();
     const team = await seedLarge();

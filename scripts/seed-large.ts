@@ -1,6 +1,6 @@
 /** `npm run seed:large`: a 10,000-device team in DATABASE_URL (default file:./data/baudbook.db). */
 import { ensureDatabase } from '../src/db/migrate';
-import { seedLarge } from '../src/db/seed/large';
+import { seedLarge } from '../src/lib/server/seed/large';
 
 const started = Date.now();
 await ensureDatabase();

@@ -1,5 +1,5 @@
 #!/usr/bin/env node
-// `npm test`: type-check, build the app, run unit and integration tests (vitest), then browser tests in Debian's Chromium.
+// `npm test`: type-check, check the layers (npm run lint), build the app, run unit and integration tests (vitest), then browser tests in Debian's Chromium.
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 
@@ -27,6 +27,7 @@ mkdirSync('test-results', { recursive: true });
 const reporters = (name) => ['--reporter=default', '--reporter=json', `--outputFile.json=test-results/${name}.json`];
 
 run('type check', 'node_modules/.bin/tsc', ['--noEmit', '-p', '.']);
+run('layer check', 'node_modules/.bin/depcruise', ['src', 'server', '--config', '.dependency-cruiser.cjs']);
 run('build', 'node_modules/.bin/astro', ['build']);
 run('unit and integration tests', 'node_modules/.bin/vitest', ['run', ...reporters('unit')]);
 run('browser tests', 'node_modules/.bin/vitest', ['run', '--config', 'tests/e2e/vitest.config.ts', ...reporters('e2e')]);

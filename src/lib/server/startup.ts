@@ -7,7 +7,7 @@ export function startup(): Promise<void> {
   ready ??= (async () => {
     await ensureDatabase();
     if (process.env.SEED_DEMO === '1') {
-      const { seedDemo } = await import('../../db/seed');
+      const { seedDemo } = await import('./seed');
       await seedDemo();
     }
   })().catch((err) => {

@@ -1,8 +1,8 @@
 /** Fixed-id insert helpers for the demo vault: every call is idempotent (onConflictDoNothing). */
-import { db } from '../client';
-import { device, deviceProfile, link, linkMember, machine, port, revision, site, type ProfilePort, type WiringRow } from '../schema';
-import { portSettingsSchema, type PortSettingsInput } from '../../lib/frame/port-settings';
-import type { DeviceRole, EntityType } from '../schema';
+import { db } from '../../../db/client';
+import { device, deviceProfile, link, linkMember, machine, port, revision, site, type ProfilePort, type WiringRow } from '../../../db/schema';
+import { portSettingsSchema, type PortSettingsInput } from '../../frame/port-settings';
+import type { DeviceRole, EntityType } from '../../../db/schema';
 
 export interface SeedCtx {
   teamId: string;

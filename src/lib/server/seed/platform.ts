@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
-import { db } from '../client';
-import { membership, team, user } from '../schema';
-import { auth } from '../../lib/server/auth';
-import type { Role } from '../../lib/permissions';
+import { db } from '../../../db/client';
+import { membership, team, user } from '../../../db/schema';
+import { auth } from '../auth';
+import type { Role } from '../../permissions';
 
 /** Shared password of every demo account (documented in the README; demo data only). */
 export const DEMO_PASSWORD = 'baudbook-demo';

@@ -2,13 +2,13 @@
  * Demo commands on the seamer drive DRV-501, in the demo drive syntax of src/lib/composer/demo.ts
  * (our own invention). The drive gets a service port at 9600 8-N-1 for them. Fixed ids: idempotent.
  */
-import { db } from '../client';
-import { command, commandRevision, port, revision } from '../schema';
-import { portSettingsSchema } from '../../lib/frame/port-settings';
-import { indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../lib/composer/demo';
-import { snapshotOf } from '../../lib/server/commands/records';
+import { db } from '../../../db/client';
+import { command, commandRevision, port, revision } from '../../../db/schema';
+import { portSettingsSchema } from '../../frame/port-settings';
+import { indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
+import { snapshotOf } from '../commands/records';
 import { DEMO_ACCOUNTS, DEMO_TEAM_ID } from './platform';
-import type { Role } from '../../lib/permissions';
+import type { Role } from '../../permissions';
 
 export const DEMO_DRIVE_ID = 'dev_demo_drv501';
 export const DEMO_SERVICE_PORT = 'Service RS-232';

@@ -3,7 +3,7 @@
  * with one RS-485 drive bus that has a deliberate fault (DRV-203 left at 19200 on a 9600 bus) and one
  * sensor bus missing a terminator, for the link check to find. Fixed ids: safe to run on every start.
  */
-import type { Role } from '../../lib/permissions';
+import type { Role } from '../../permissions';
 import { DEMO_ACCOUNTS, DEMO_CUSTOMER_TEAM_ID, DEMO_TEAM_ID } from './platform';
 import { addDevice, addLink, addMachine, addProfile, addSite, type SeedCtx } from './vault-builders';
 

@@ -3,11 +3,11 @@
  * device with one or two ports. Batched inserts in one transaction; skipped if the team exists.
  */
 import { eq } from 'drizzle-orm';
-import { db } from '../client';
-import { device, machine, membership, port, site, team, user } from '../schema';
-import { auth } from '../../lib/server/auth';
-import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
-import { DEVICE_ROLES } from '../schema';
+import { db } from '../../../db/client';
+import { device, machine, membership, port, site, team, user } from '../../../db/schema';
+import { auth } from '../auth';
+import { defaultPortSettings, type PortSettings } from '../../frame/port-settings';
+import { DEVICE_ROLES } from '../../../db/schema';
 
 export const LARGE_TEAM_ID = 'team_large_10k';
 export const LARGE_EMAIL = 'large@baudbook.test';
