@@ -143,8 +143,9 @@ export const port = sqliteTable(
   },
   (t) => [
     index('port_device_idx').on(t.deviceId, t.deletedAt, t.position),
-    // Two live ports of one device never share a name (the trash may hold an old one).
-    uniqueIndex('port_device_name_uq').on(t.deviceId, t.name).where(sql`deleted_at IS NULL`),
+    // Two live ports of one device never share a name, letter case of A–Z aside (`nameKey` in
+    // src/lib/schemas/vault.ts is the same rule for imports); the trash may hold an old one.
+    uniqueIndex('port_device_name_nocase_uq').on(t.deviceId, sql`${t.name} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
   ],
 );
 

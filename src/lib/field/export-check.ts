@@ -1,4 +1,5 @@
 /** Checks on an export document that a schema cannot express, and the id-free form used to compare two exports. */
+import { nameKey } from '../schemas/vault';
 
 interface Doc {
   sites: { id: string }[];
@@ -38,7 +39,7 @@ export function documentProblems(doc: Doc, max = 20): string[] {
   const names = new Set<string>();
   for (const p of doc.ports) {
     if (!devices.has(p.deviceId)) add(`port ${p.name}: its device ${p.deviceId} is not in the document`);
-    const key = `${p.deviceId}\u0000${p.name.toLowerCase()}`;
+    const key = `${p.deviceId}\u0000${nameKey(p.name)}`;
     if (names.has(key)) add(`port ${p.name}: two ports of device ${p.deviceId} have this name`);
     names.add(key);
     portDevice.set(p.id, p.deviceId);

@@ -6,6 +6,7 @@ import { device, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { newId } from '../ids';
+import { nameKey } from '../../schemas/vault';
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
@@ -51,7 +52,7 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
     if (existing.has(key)) return errors.push({ row, column: mapping.tag!, message: `Device ${r.value.device.tag} is already on ${m.name}; this import adds new devices only.` });
     const d = devices.get(key) ?? { device: r.value.device, ports: [] };
     if (r.value.port) {
-      if (d.ports.some((p) => p.name.toLowerCase() === r.value.port!.name.toLowerCase())) {
+      if (d.ports.some((p) => nameKey(p.name) === nameKey(r.value.port!.name))) {
         return errors.push({ row, column: mapping.portName ?? '', message: `Device ${d.device.tag} already has a port named ${r.value.port.name} in this file.` });
       }
       if (d.ports.length >= 16) return errors.push({ row, column: mapping.portName ?? '', message: 'At most 16 ports per device.' });

@@ -10,6 +10,7 @@ import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
+import { nameKey } from '../../schemas/vault';
 import { writeImport } from './import-write';
 
 export const SECTIONS = ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const;
@@ -75,7 +76,7 @@ async function portNameClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument,
   const targets = [...new Set(fresh.map((p) => known.devices.get(p.deviceId)!))];
   const live = await q.select({ deviceId: port.deviceId, name: port.name }).from(port)
     .where(and(eq(port.teamId, ctx.team.id), inArray(port.deviceId, targets), isNull(port.deletedAt)));
-  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${p.name.toLowerCase()}`));
-  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${p.name.toLowerCase()}`));
+  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${nameKey(p.name)}`));
+  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${nameKey(p.name)}`));
   if (clash) throw new HttpError(409, `A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
 }

@@ -5,6 +5,7 @@ import { db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
+import { isUniqueViolation } from '../db-errors';
 import { newId } from '../ids';
 import type { deviceCreateSchema, deviceUpdateSchema, PortInput } from '../../schemas/vault';
 import { findLive, recordCreated, updateVersioned, type Page } from './records';
@@ -116,12 +117,13 @@ export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<
   });
 }
 
-/** Maps the unique (device, port name) index to a field message; other errors pass through. */
+/**
+ * Maps a unique-index failure of a port write to a field message (the only unique index on ports is the one
+ * on (device, name ignoring case)); other errors pass through.
+ */
 export function uniqueName(err: unknown, field: string): unknown {
-  const e = err as { message?: string; cause?: { message?: string } };
-  const text = `${e?.message ?? ''} ${e?.cause?.message ?? ''}`;
-  if (!/UNIQUE constraint failed: port\.device_id, port\.name/.test(text)) return err;
-  return new HttpError(422, `${field}: another port on this device already has this name`, {
-    fields: { [field]: 'Another port on this device already has this name.' },
+  if (!isUniqueViolation(err)) return err;
+  return new HttpError(422, `${field}: another port on this device already has this name (letter case aside)`, {
+    fields: { [field]: 'Another port on this device already has this name (letter case aside).' },
   });
 }
