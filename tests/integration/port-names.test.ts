@@ -1,6 +1,7 @@
 /**
- * One rule for port names on a device, everywhere: unique ignoring the letter case of A–Z. The API refuses
- * what the imports refuse, the database index enforces the same, and the migration renames old clashes.
+ * One rule for port names on a device and device tags on a machine, everywhere: unique ignoring the letter
+ * case of A–Z. The API refuses what the imports refuse, the database indexes enforce the same, and the
+ * migrations rename old clashes.
  */
 import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -57,7 +58,59 @@ describe('port names on one device', () => {
   });
 });
 
-describe('the migration to names unique ignoring case', () => {
+describe('device tags on one machine', () => {
+  it('refuses a tag another device of the machine has in other letters, on create, move and rename', async () => {
+    const m = await makeMachine(eng);
+    const first = await makeDevice(eng, m.id, { tag: 'DRV-1' });
+    const second = await eng.post('/api/devices', { machineId: m.id, tag: 'drv-1' });
+    expect(second.status).toBe(422);
+    expect(second.body.fields.tag).toMatch(/already has this tag/);
+    const elsewhere = await makeDevice(eng, undefined, { tag: 'drv-1' });
+    const moved = await eng.patch(`/api/devices/${elsewhere.id}`, { version: 1, machineId: m.id });
+    expect(moved.status).toBe(422);
+    expect(moved.body.fields.tag).toMatch(/already has this tag/);
+    const other = await makeDevice(eng, m.id, { tag: 'DRV-2' });
+    expect((await eng.patch(`/api/devices/${other.id}`, { version: 1, tag: 'Drv-1' })).status).toBe(422);
+    expect(expectOk(await eng.patch(`/api/devices/${first.id}`, { version: 1, tag: 'drv-1' })).tag).toBe('drv-1');
+  });
+
+  it('refuses bringing back a device, from the trash or an old revision, whose tag was taken meanwhile', async () => {
+    const m = await makeMachine(eng);
+    const d = await makeDevice(eng, m.id, { tag: 'T-1' });
+    expectOk(await eng.del(`/api/devices/${d.id}`));
+    await makeDevice(eng, m.id, { tag: 't-1' });
+    const back = await eng.post(`/api/trash/device/${d.id}`);
+    expect(back.status).toBe(409);
+    expect(back.body.error).toMatch(/same tag/);
+
+    const r = await makeDevice(eng, m.id, { tag: 'R-1' });
+    const [v1] = expectOk(await eng.get(`/api/revisions?entityType=device&entityId=${r.id}`)).items;
+    expectOk(await eng.patch(`/api/devices/${r.id}`, { version: 1, tag: 'R-2' }));
+    await makeDevice(eng, m.id, { tag: 'r-1' });
+    const restored = await eng.post(`/api/revisions/${v1.id}/restore`, { version: 2 });
+    expect(restored.status).toBe(422);
+    expect(restored.body.fields.tag).toMatch(/already has this tag/);
+  });
+
+  it('refuses an export document with two devices of one machine tagged alike, and a new device whose tag is taken here', async () => {
+    const owner = team.members.owner;
+    const d = await makeDevice(owner, undefined, { tag: 'IMP-1' });
+    const doc = expectOk(await owner.get(`/api/export?siteId=${d.siteId}`));
+    const twice = { ...doc, devices: [...doc.devices, { ...doc.devices[0], id: 'dev_twin', tag: 'imp-1' }] };
+    const res = await eng.post('/api/import', { document: twice });
+    expect(res.status).toBe(422);
+    expect(res.body.error).toMatch(/two devices of machine .* have this tag/);
+
+    const other = await createTeamWithRoles('port-names-import');
+    expectOk(await other.members.owner.post('/api/import', { document: doc, apply: true }), 201);
+    const later = { ...doc, devices: [{ ...doc.devices[0], id: 'dev_later', tag: 'Imp-1' }], ports: [], links: [], commands: [] };
+    const clash = await other.members.owner.post('/api/import', { document: later, apply: true });
+    expect(clash.status).toBe(409);
+    expect(clash.body.error).toMatch(/tagged Imp-1 is already on the machine/);
+  });
+});
+
+describe('the migrations to names unique ignoring case', () => {
   it('renames later clashing ports deterministically, with a revision, and the index then refuses new clashes', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'baudbook-migrate-'));
     const before = join(dir, 'drizzle-0005');
@@ -81,7 +134,7 @@ describe('the migration to names unique ignoring case', () => {
         { sql: `INSERT INTO team (id, name, created_at) VALUES ('t1', 'Old team', ?)`, args: [now] },
         { sql: `INSERT INTO site (id, team_id, name, created_at, updated_at) VALUES ('s1', 't1', 'Old site', ?, ?)`, args: [now, now] },
         { sql: `INSERT INTO machine (id, team_id, site_id, name, created_at, updated_at) VALUES ('m1', 't1', 's1', 'Old line', ?, ?)`, args: [now, now] },
-        { sql: `INSERT INTO device (id, team_id, machine_id, tag, created_at, updated_at) VALUES ('d1', 't1', 'm1', 'OLD-1', ?, ?), ('d2', 't1', 'm1', 'OLD-2', ?, ?)`, args: [now, now, now, now] },
+        { sql: `INSERT INTO device (id, team_id, machine_id, tag, created_at, updated_at) VALUES ('d1', 't1', 'm1', 'OLD-1', ?, ?), ('d2', 't1', 'm1', 'OLD-2', ?, ?), ('d3', 't1', 'm1', 'old-1', ?, ?)`, args: [now, now, now, now, now + 1, now + 1] },
         port('p1', 'd1', 'RS-485', 0),
         port('p2', 'd1', 'rs-485', 1),
         port('p3', 'd1', 'Rs-485 (2)', 2),
@@ -114,6 +167,13 @@ describe('the migration to names unique ignoring case', () => {
         expect(revs.map((r) => [r.entity_id, Number(r.version), r.action])).toEqual([['p2', 2, 'update'], ['p5', 2, 'update'], ['p8', 2, 'update']]);
         expect(JSON.parse(String(revs[1]!.changes))).toEqual([{ field: 'name', from: 'c', to: 'c (2)' }]);
         expect(JSON.parse(String(revs[1]!.snapshot))).toMatchObject({ name: 'c (2)', position: 4, settings: { baud: 9600 }, wiring: [] });
+        const devices = (await after.execute('SELECT id, tag, version FROM device ORDER BY id')).rows.map((r) => [r.id, r.tag, Number(r.version)]);
+        expect(devices).toEqual([['d1', 'OLD-1', 1], ['d2', 'OLD-2', 1], ['d3', 'old-1 (2)', 2]]);
+        const devRev = (await after.execute(`SELECT changes, snapshot FROM revision WHERE entity_id = 'd3'`)).rows;
+        expect(JSON.parse(String(devRev[0]!.changes))).toEqual([{ field: 'tag', from: 'old-1', to: 'old-1 (2)' }]);
+        expect(JSON.parse(String(devRev[0]!.snapshot))).toMatchObject({ machineId: 'm1', tag: 'old-1 (2)', profileId: null });
+        expect((await after.execute(`SELECT tag FROM device_search WHERE device_id = 'd3'`)).rows[0]!.tag).toBe('old-1 (2)');
+        await expect(after.execute(`INSERT INTO device (id, team_id, machine_id, tag, created_at, updated_at) VALUES ('d4', 't1', 'm1', 'old-2', 0, 0)`)).rejects.toMatchObject({ code: 'SQLITE_CONSTRAINT' });
         await expect(after.execute(`INSERT INTO port (id, team_id, device_id, name, settings, wiring, created_at, updated_at) VALUES ('p10', 't1', 'd2', 'C', '{}', '[]', 0, 0)`)).rejects.toMatchObject({ code: 'SQLITE_CONSTRAINT' });
       } finally {
         after.close();

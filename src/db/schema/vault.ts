@@ -123,6 +123,8 @@ export const device = sqliteTable(
     index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag, t.id),
     index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt, t.id),
     index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag, t.id),
+    // Two live devices of one machine never share a tag, letter case of A–Z aside (as port names on a device).
+    uniqueIndex('device_machine_tag_nocase_uq').on(t.machineId, sql`${t.tag} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
   ],
 );
 

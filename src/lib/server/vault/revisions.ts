@@ -6,7 +6,7 @@ import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { countWhere, notFound, updateVersioned, type Page } from './records';
 import { SPECS } from './specs';
-import { uniqueName } from './devices';
+import { uniqueName, uniqueTag } from './devices';
 import type { StoredMember } from './link-members';
 import { missingReferences, missingReferencesError, type Reference } from './references';
 
@@ -90,7 +90,7 @@ export async function restoreRevision(ctx: TeamContext, id: string, version: num
       });
       return { entityType: rev.entityType, entityId: rev.entityId, restoredVersion: rev.version, record: row as Record<string, unknown>, changed: changes.length };
     } catch (err) {
-      throw uniqueName(err, 'name');
+      throw rev.entityType === 'device' ? uniqueTag(err) : uniqueName(err, 'name');
     }
   });
 }

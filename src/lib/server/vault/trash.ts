@@ -97,8 +97,21 @@ async function trashedRoot(q: DbOrTx, ctx: TeamContext, type: EntityType, id: st
   return row;
 }
 
-/** 409 when a port coming back would share its name (letter case aside) with a live port of its device. */
+/**
+ * 409 when a device coming back would share its tag with a live device of its machine, or a port its name
+ * with a live port of its device (letter case aside, as the unique indexes compare them).
+ */
 async function refuseNameClashes(tx: DbOrTx, ctx: TeamContext, trashId: string) {
+  const [tag] = await tx.all<{ tag: string; taken: string; machine: string }>(sql`
+    SELECT r.tag, l.tag AS taken, m.name AS machine FROM device r
+    JOIN device l ON l.machine_id = r.machine_id AND l.deleted_at IS NULL AND l.tag = r.tag COLLATE NOCASE
+    JOIN machine m ON m.id = r.machine_id
+    WHERE r.team_id = ${ctx.team.id} AND r.trash_id = ${trashId} LIMIT 1`);
+  if (tag) {
+    throw new HttpError(409, `Machine ${tag.machine} now has a device tagged "${tag.taken}", the same tag as "${tag.tag}" (letter case aside); change one of the tags first.`, {
+      clash: { tag: tag.tag, taken: tag.taken, machine: tag.machine },
+    });
+  }
   const [clash] = await tx.all<{ name: string; taken: string; tag: string }>(sql`
     SELECT r.name, l.name AS taken, d.tag FROM port r
     JOIN port l ON l.device_id = r.device_id AND l.deleted_at IS NULL AND l.name = r.name COLLATE NOCASE
