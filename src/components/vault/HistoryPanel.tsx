@@ -33,7 +33,7 @@ export function HistoryList({ type, id, canRestore, reload }: { type: string; id
   if (q.isError) return <ErrorNotice error={q.error} />;
   return (
     <div>
-      {restore.isError && <ErrorNotice error={isConflict(restore.error) ? new Error('Someone changed this record meanwhile; look at the newest version and try again.') : restore.error} />}
+      {restore.isError && <ErrorNotice error={isConflict(restore.error) && 'current' in restore.error.body ? new Error('Someone changed this record meanwhile; look at the newest version and try again.') : restore.error} />}
       <ol className="grid gap-2" data-testid="history">
         {q.data.items.map((r) => (
           <li key={r.id} className="border border-line rounded p-2 bg-white" data-version={r.version}>

@@ -123,6 +123,8 @@ export const device = sqliteTable(
     index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag, t.id),
     index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt, t.id),
     index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag, t.id),
+    // Two live devices of one machine never share a tag, letter case of A–Z aside (as port names on a device).
+    uniqueIndex('device_machine_tag_nocase_uq').on(t.machineId, sql`${t.tag} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
   ],
 );
 
@@ -143,8 +145,9 @@ export const port = sqliteTable(
   },
   (t) => [
     index('port_device_idx').on(t.deviceId, t.deletedAt, t.position),
-    // Two live ports of one device never share a name (the trash may hold an old one).
-    uniqueIndex('port_device_name_uq').on(t.deviceId, t.name).where(sql`deleted_at IS NULL`),
+    // Two live ports of one device never share a name, letter case of A–Z aside (`nameKey` in
+    // src/lib/schemas/vault.ts is the same rule for imports); the trash may hold an old one.
+    uniqueIndex('port_device_name_nocase_uq').on(t.deviceId, sql`${t.name} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
   ],
 );
 

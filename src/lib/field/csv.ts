@@ -1,5 +1,29 @@
-/** CSV import of devices and ports: the fields a column can map to, and one row turned into a device and a port. */
+/**
+ * CSV import of devices and ports: the fields a column can map to, and one row turned into a device and a port.
+ * Also the formula guard that the CSV export puts on text cells and the import takes off again.
+ */
 import { portSettingsInputSchema, DEVICE_ROLES } from '../schemas/vault';
+
+/**
+ * A text cell a spreadsheet would run as a formula: it starts with `=`, `+`, `-`, `@`, tab or carriage
+ * return (OWASP "CSV Injection"), possibly after apostrophes of a guard already there.
+ */
+const FORMULA_START = /^'*[=+\-@\t\r]/;
+
+/**
+ * One exported cell: numbers as they are (they stay numbers in a spreadsheet), text that starts a formula
+ * with a leading apostrophe, which spreadsheets show as text and `unguardCell` removes on import.
+ */
+export function guardCell(v: unknown): string {
+  if (typeof v === 'number' || typeof v === 'bigint') return String(v);
+  const s = v === null || v === undefined ? '' : v instanceof Date ? v.toISOString() : String(v);
+  return FORMULA_START.test(s) ? `'${s}` : s;
+}
+
+/** Takes `guardCell`'s apostrophe off again, and only that: `'hello` stays as it is. */
+export function unguardCell(s: string): string {
+  return s.startsWith("'") && FORMULA_START.test(s) ? s.slice(1) : s;
+}
 
 export const CSV_FIELDS = [
   { key: 'tag', label: 'Device tag', required: true, hints: ['tag', 'device tag', 'device'] },
@@ -52,7 +76,7 @@ export type CsvRowError = { column: string; message: string };
 /** One CSV row (header → cell) read through the mapping; errors name the CSV column at fault. */
 export function readCsvRow(row: Record<string, string | undefined>, mapping: CsvMapping): { ok: true; value: CsvRowResult } | { ok: false; errors: CsvRowError[] } {
   const errors: CsvRowError[] = [];
-  const cell = (k: CsvField) => (mapping[k] ? (row[mapping[k]!] ?? '').trim() : '');
+  const cell = (k: CsvField) => (mapping[k] ? unguardCell(row[mapping[k]!] ?? '').trim() : '');
   const fail = (k: CsvField | '_', message: string) => errors.push({ column: k === '_' ? '' : (mapping[k as CsvField] ?? k), message });
   const tag = cell('tag');
   if (!tag) fail('tag', 'The device tag is empty.');

@@ -1,4 +1,5 @@
 /** Checks on an export document that a schema cannot express, and the id-free form used to compare two exports. */
+import { nameKey } from '../schemas/vault';
 
 interface Doc {
   sites: { id: string }[];
@@ -10,7 +11,7 @@ interface Doc {
   commands: { id: string; deviceId: string | null; profileId: string | null; name: string }[];
 }
 
-/** Every reference resolves inside the document, ids are unique and port names are unique per device. Answers problems in words. */
+/** Every reference resolves inside the document, ids are unique, tags are unique per machine and port names per device (`nameKey`). Answers problems in words. */
 export function documentProblems(doc: Doc, max = 20): string[] {
   const out: string[] = [];
   const add = (msg: string) => out.length < max && out.push(msg);
@@ -30,7 +31,11 @@ export function documentProblems(doc: Doc, max = 20): string[] {
   unique(doc.links, 'link');
   unique(doc.commands, 'command');
   for (const m of doc.machines) if (!sites.has(m.siteId)) add(`machine ${m.id}: its site ${m.siteId} is not in the document`);
+  const tags = new Set<string>();
   for (const d of doc.devices) {
+    const key = `${d.machineId}\u0000${nameKey(d.tag)}`;
+    if (tags.has(key)) add(`device ${d.tag}: two devices of machine ${d.machineId} have this tag`);
+    tags.add(key);
     if (!machines.has(d.machineId)) add(`device ${d.tag}: its machine ${d.machineId} is not in the document`);
     if (d.profileId && !profiles.has(d.profileId)) add(`device ${d.tag}: its profile ${d.profileId} is not in the document`);
   }
@@ -38,7 +43,7 @@ export function documentProblems(doc: Doc, max = 20): string[] {
   const names = new Set<string>();
   for (const p of doc.ports) {
     if (!devices.has(p.deviceId)) add(`port ${p.name}: its device ${p.deviceId} is not in the document`);
-    const key = `${p.deviceId}\u0000${p.name.toLowerCase()}`;
+    const key = `${p.deviceId}\u0000${nameKey(p.name)}`;
     if (names.has(key)) add(`port ${p.name}: two ports of device ${p.deviceId} have this name`);
     names.add(key);
     portDevice.set(p.id, p.deviceId);

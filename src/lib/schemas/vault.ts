@@ -44,6 +44,27 @@ const portFields = {
   notes: text(5000).default(''),
 };
 export const portInputSchema = z.strictObject(portFields);
+
+/**
+ * How port names compare where two on one device must differ: the letter case of A–Z is ignored, exactly as
+ * SQLite's NOCASE collation of the unique index on (device, name) does; other letters compare as written.
+ * Imports use the same key, so whatever the vault holds, its own export imports again.
+ */
+export const nameKey = (name: string) => name.replace(/[A-Z]/g, (c) => c.toLowerCase());
+
+/** A device's or profile's list of ports: at most `max`, names unique by `nameKey`. */
+const portList = (max: number, what: string) =>
+  z
+    .array(portInputSchema)
+    .max(max, `At most ${max} ports per ${what}.`)
+    .superRefine((ports, ctx) => {
+      const seen = new Set<string>();
+      ports.forEach((p, i) => {
+        const key = nameKey(p.name);
+        if (seen.has(key)) ctx.addIssue({ code: 'custom', path: [i, 'name'], message: 'Another port here already has this name (letter case aside).' });
+        seen.add(key);
+      });
+    });
 export const portCreateSchema = z.strictObject({ deviceId: id, ...portFields });
 export const portUpdateSchema = z.strictObject({ version: versionSchema, ...partial(portFields) });
 
@@ -65,7 +86,7 @@ export const deviceCreateSchema = z.strictObject({
   profileId: id.nullable().optional(),
   ...deviceFields,
   role: z.enum(DEVICE_ROLES, { error: 'Choose a role.' }).optional(),
-  ports: z.array(portInputSchema).max(16, 'At most 16 ports per device.').optional(),
+  ports: portList(16, 'device').optional(),
 });
 export const deviceUpdateSchema = z.strictObject({ version: versionSchema, machineId: id.optional(), ...partial(deviceFields) });
 
@@ -98,7 +119,7 @@ const profileFields = {
   maker: text(120).default(''),
   model: text(120).default(''),
   notes: text(5000).default(''),
-  ports: z.array(portInputSchema).max(16, 'At most 16 ports per profile.').default([]),
+  ports: portList(16, 'profile').default([]),
 };
 export const profileCreateSchema = z.strictObject(profileFields);
 export const profileUpdateSchema = z.strictObject({ version: versionSchema, ...partial(profileFields) });

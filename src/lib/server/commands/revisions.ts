@@ -4,6 +4,7 @@ import { db } from '../../../db/client';
 import { commandRevision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
+import { missingReferences, missingReferencesError, type Reference } from '../vault/references';
 import { SNAPSHOT_KEYS, findCommand, updateCommandVersioned, type CommandRow } from './records';
 
 export type CommandRevisionRow = typeof commandRevision.$inferSelect;
@@ -21,11 +22,17 @@ export async function listCommandRevisions(ctx: TeamContext, id: string): Promis
 
 /**
  * Puts the command back as it stood at `revisionId`; `version` is its current version as the user
- * saw it (stale: 409). A command in the trash comes back out of it.
+ * saw it (stale: 409). A command in the trash comes back out of it. Refused (409) while its device
+ * or profile is in the trash: a live command under a trashed owner would be out of everyone's reach.
  */
 export async function restoreCommandRevision(ctx: TeamContext, id: string, revisionId: string, version: number) {
   return db.transaction(async (tx) => {
-    await findCommand(tx, ctx, id, { trashed: true });
+    const current = await findCommand(tx, ctx, id, { trashed: true });
+    const owner: Reference = current.deviceId
+      ? { type: 'device', id: current.deviceId, field: 'deviceId' }
+      : { type: 'profile', id: current.profileId ?? '', field: 'profileId' };
+    const missing = await missingReferences(tx, ctx, [owner]);
+    if (missing.length) throw missingReferencesError('This command', missing);
     const [rev] = await tx
       .select()
       .from(commandRevision)

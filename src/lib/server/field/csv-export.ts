@@ -13,16 +13,11 @@ import { listDevices } from '../vault/devices';
 import { listLinks } from '../vault/links';
 import { listProfiles } from '../vault/profiles';
 import { cardShorthand } from '../../field/card';
+import { guardCell } from '../../field/csv';
 
 export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
 export type CsvTable = (typeof CSV_TABLES)[number];
 const MAX_ROWS = 100_000;
-
-/** Spreadsheets run cells starting with = + - @ as formulas; such text gets a leading apostrophe. */
-export function safeCell(v: unknown): string {
-  const s = v === null || v === undefined ? '' : v instanceof Date ? v.toISOString() : String(v);
-  return /^[=+@\t\r]|^-[^\d]/.test(s) ? `'${s}` : s;
-}
 
 async function allPages<T>(fetch: (page: number) => Promise<Page<T>>): Promise<T[]> {
   const out: T[] = [];
@@ -86,6 +81,6 @@ export async function exportCsv(ctx: TeamContext, url: URL): Promise<{ filename:
     throw new HttpError(422, `table: choose one of ${CSV_TABLES.join(', ')}`, { fields: { table: `One of ${CSV_TABLES.join(', ')}.` } });
   }
   const { columns, rows } = await tableRows(ctx, table as CsvTable, url);
-  const csv = Papa.unparse({ fields: columns, data: rows.map((r) => r.map(safeCell)) }, { newline: '\r\n' });
+  const csv = Papa.unparse({ fields: columns, data: rows.map((r) => r.map(guardCell)) }, { newline: '\r\n' });
   return { filename: `${table}-${new Date().toISOString().slice(0, 10)}.csv`, csv: `\ufeff${csv}` };
 }

@@ -6,6 +6,7 @@ import { device, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { newId } from '../ids';
+import { nameKey } from '../../schemas/vault';
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
@@ -39,7 +40,7 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
   }
   if (!mapping.tag) throw new HttpError(422, 'mapping.tag: choose the column with the device tag', { fields: { 'mapping.tag': 'Choose the column with the device tag.' } });
   if (parsed.data.length > CSV_MAX_ROWS) throw new HttpError(413, `At most ${CSV_MAX_ROWS} rows per file; split the file.`);
-  const existing = new Set((await q.select({ tag: device.tag }).from(device).where(and(eq(device.machineId, m.id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)))).map((d) => d.tag.toLowerCase()));
+  const existing = new Set((await q.select({ tag: device.tag }).from(device).where(and(eq(device.machineId, m.id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)))).map((d) => nameKey(d.tag)));
   const errors: CsvPreview['errors'] = [];
   const devices = new Map<string, Planned>();
   for (const e of parsed.errors) if (e.row !== undefined) errors.push({ row: e.row + 2, column: '', message: e.message });
@@ -47,11 +48,11 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
     const row = i + 2;
     const r = readCsvRow(raw, mapping);
     if (!r.ok) return errors.push(...r.errors.map((e) => ({ ...e, row })));
-    const key = r.value.device.tag.toLowerCase();
+    const key = nameKey(r.value.device.tag);
     if (existing.has(key)) return errors.push({ row, column: mapping.tag!, message: `Device ${r.value.device.tag} is already on ${m.name}; this import adds new devices only.` });
     const d = devices.get(key) ?? { device: r.value.device, ports: [] };
     if (r.value.port) {
-      if (d.ports.some((p) => p.name.toLowerCase() === r.value.port!.name.toLowerCase())) {
+      if (d.ports.some((p) => nameKey(p.name) === nameKey(r.value.port!.name))) {
         return errors.push({ row, column: mapping.portName ?? '', message: `Device ${d.device.tag} already has a port named ${r.value.port.name} in this file.` });
       }
       if (d.ports.length >= 16) return errors.push({ row, column: mapping.portName ?? '', message: 'At most 16 ports per device.' });

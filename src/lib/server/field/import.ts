@@ -10,6 +10,7 @@ import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
+import { nameKey } from '../../schemas/vault';
 import { writeImport } from './import-write';
 
 export const SECTIONS = ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const;
@@ -61,11 +62,24 @@ export async function importDocument(ctx: TeamContext, raw: unknown, apply: bool
       const existing = doc[s].filter((r) => known[s].has(r.id)).length;
       return [s, { create: doc[s].length - existing, existing }];
     })) as ImportResult['counts'];
+    await tagClashes(q, ctx, doc, known);
     await portNameClashes(q, ctx, doc, known);
     if (apply) await writeImport(q, ctx, doc, known);
     return { applied: apply, source: doc.source, counts };
   };
   return apply ? db.transaction((tx) => run(tx)) : run(db);
+}
+
+/** A new device on a machine that is already here must not take the tag of one of its live devices. */
+async function tagClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>) {
+  const fresh = doc.devices.filter((d) => !known.devices.has(d.id) && known.machines.has(d.machineId));
+  if (!fresh.length) return;
+  const targets = [...new Set(fresh.map((d) => known.machines.get(d.machineId)!))];
+  const live = await q.select({ machineId: device.machineId, tag: device.tag }).from(device)
+    .where(and(eq(device.teamId, ctx.team.id), inArray(device.machineId, targets), isNull(device.deletedAt)));
+  const taken = new Set(live.map((d) => `${d.machineId}\u0000${nameKey(d.tag)}`));
+  const clash = fresh.find((d) => taken.has(`${known.machines.get(d.machineId)}\u0000${nameKey(d.tag)}`));
+  if (clash) throw new HttpError(409, `A device tagged ${clash.tag} is already on the machine imported before as ${clash.machineId}; change one of the tags first.`);
 }
 
 /** A new port on a device that is already here must not take the name of one of its live ports. */
@@ -75,7 +89,7 @@ async function portNameClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument,
   const targets = [...new Set(fresh.map((p) => known.devices.get(p.deviceId)!))];
   const live = await q.select({ deviceId: port.deviceId, name: port.name }).from(port)
     .where(and(eq(port.teamId, ctx.team.id), inArray(port.deviceId, targets), isNull(port.deletedAt)));
-  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${p.name.toLowerCase()}`));
-  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${p.name.toLowerCase()}`));
+  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${nameKey(p.name)}`));
+  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${nameKey(p.name)}`));
   if (clash) throw new HttpError(409, `A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
 }

@@ -5,6 +5,7 @@ import { db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
+import { isUniqueViolation } from '../db-errors';
 import { newId } from '../ids';
 import type { deviceCreateSchema, deviceUpdateSchema, PortInput } from '../../schemas/vault';
 import { findLive, recordCreated, updateVersioned, type Page } from './records';
@@ -97,10 +98,15 @@ export async function createDevice(ctx: TeamContext, input: z.infer<typeof devic
       maker: fields.maker || profile?.maker || '',
       model: fields.model || profile?.model || '',
     };
-    const [row] = await tx
-      .insert(device)
-      .values({ id: newId('dev'), teamId: ctx.team.id, profileId: profile?.id ?? null, ...values, updatedBy: ctx.user.id })
-      .returning();
+    let row: DeviceRow | undefined;
+    try {
+      [row] = await tx
+        .insert(device)
+        .values({ id: newId('dev'), teamId: ctx.team.id, profileId: profile?.id ?? null, ...values, updatedBy: ctx.user.id })
+        .returning();
+    } catch (err) {
+      throw uniqueTag(err);
+    }
     await recordCreated(tx, ctx, deviceSpec, row!, profile ? `Created device ${row!.tag} from profile ${profile.name}` : undefined);
     await insertPorts(tx, ctx, row!.id, ports ?? profile?.ports ?? []);
     return getDevice(ctx, row!.id, tx);
@@ -111,17 +117,33 @@ export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<
   const { version, ...values } = input;
   return db.transaction(async (tx) => {
     if (values.machineId) await findLive(tx, ctx, machineSpec, values.machineId);
-    await updateVersioned(tx, ctx, deviceSpec, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
+    try {
+      await updateVersioned(tx, ctx, deviceSpec, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
+    } catch (err) {
+      throw uniqueTag(err);
+    }
     return getDevice(ctx, id, tx);
   });
 }
 
-/** Maps the unique (device, port name) index to a field message; other errors pass through. */
+/**
+ * Maps a unique-index failure of a device write to a field message (the only unique index on devices is the one
+ * on (machine, tag ignoring case)); other errors pass through.
+ */
+export function uniqueTag(err: unknown, field = 'tag'): unknown {
+  if (!isUniqueViolation(err)) return err;
+  return new HttpError(422, `${field}: another device on this machine already has this tag (letter case aside)`, {
+    fields: { [field]: 'Another device on this machine already has this tag (letter case aside).' },
+  });
+}
+
+/**
+ * Maps a unique-index failure of a port write to a field message (the only unique index on ports is the one
+ * on (device, name ignoring case)); other errors pass through.
+ */
 export function uniqueName(err: unknown, field: string): unknown {
-  const e = err as { message?: string; cause?: { message?: string } };
-  const text = `${e?.message ?? ''} ${e?.cause?.message ?? ''}`;
-  if (!/UNIQUE constraint failed: port\.device_id, port\.name/.test(text)) return err;
-  return new HttpError(422, `${field}: another port on this device already has this name`, {
-    fields: { [field]: 'Another port on this device already has this name.' },
+  if (!isUniqueViolation(err)) return err;
+  return new HttpError(422, `${field}: another port on this device already has this name (letter case aside)`, {
+    fields: { [field]: 'Another port on this device already has this name (letter case aside).' },
   });
 }

@@ -1,13 +1,14 @@
 /** History: list the revisions of a record and restore any of them (which writes a new revision). */
-import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, desc, eq } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
-import { machine, port, revision, type EntityType } from '../../../db/schema';
+import { revision, type EntityType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { HttpError } from '../http';
 import { countWhere, notFound, updateVersioned, type Page } from './records';
 import { SPECS } from './specs';
-import { uniqueName } from './devices';
+import { uniqueName, uniqueTag } from './devices';
 import type { StoredMember } from './link-members';
+import { missingReferences, missingReferencesError, type Reference } from './references';
 
 export type RevisionRow = typeof revision.$inferSelect;
 
@@ -46,23 +47,26 @@ export async function getRevision(ctx: TeamContext, id: string, q: DbOrTx = db):
   return row;
 }
 
-/** Values to write back from a snapshot, leaving out references that no longer resolve. */
-async function restorable(q: DbOrTx, ctx: TeamContext, type: EntityType, snap: Record<string, unknown>): Promise<Record<string, unknown>> {
-  const values = { ...snap };
-  if (type === 'device' && typeof values.machineId === 'string') {
-    const [m] = await q.select({ id: machine.id }).from(machine).where(and(eq(machine.id, values.machineId), eq(machine.teamId, ctx.team.id), isNull(machine.deletedAt)));
-    if (!m) delete values.machineId;
+/**
+ * The records a snapshot points at that the record does not point at now: restoring must not write a
+ * reference to something in the trash or purged (a reference the record already holds stays as it is).
+ */
+function newReferences(type: EntityType, snap: Record<string, unknown>, current: Record<string, unknown>): Reference[] {
+  const refs: Reference[] = [];
+  const single = (field: string, refType: EntityType) => {
+    const id = snap[field];
+    if (typeof id === 'string' && id !== current[field]) refs.push({ type: refType, id, field });
+  };
+  if (type === 'device') {
+    single('machineId', 'machine');
+    single('profileId', 'profile');
   }
-  if (type === 'machine') delete values.siteId;
-  if (type === 'link' && Array.isArray(values.members)) {
-    const members = values.members as StoredMember[];
-    const ids = members.map((m) => m.portId);
-    const live = ids.length
-      ? new Set((await q.select({ id: port.id }).from(port).where(and(inArray(port.id, ids), eq(port.teamId, ctx.team.id), isNull(port.deletedAt)))).map((r) => r.id))
-      : new Set<string>();
-    values.members = members.filter((m) => live.has(m.portId));
+  if (type === 'machine') single('siteId', 'site');
+  if (type === 'link' && Array.isArray(snap.members)) {
+    const now = new Set(((current.members ?? []) as StoredMember[]).map((m) => m.portId));
+    for (const m of snap.members as StoredMember[]) if (!now.has(m.portId)) refs.push({ type: 'port', id: m.portId, field: 'members' });
   }
-  return values;
+  return refs;
 }
 
 /**
@@ -75,7 +79,10 @@ export async function restoreRevision(ctx: TeamContext, id: string, version: num
     const spec = SPECS[rev.entityType];
     const current = await findAny(tx, ctx, rev.entityType, rev.entityId);
     if (current.deletedAt) throw new HttpError(409, `This ${spec.noun} is in the trash; restore it from the trash first.`, { current });
-    const values = await restorable(tx, ctx, rev.entityType, rev.snapshot);
+    const hydrated = spec.hydrate ? await spec.hydrate(tx, current as never) : current;
+    const missing = await missingReferences(tx, ctx, newReferences(rev.entityType, rev.snapshot, hydrated as Record<string, unknown>));
+    if (missing.length) throw missingReferencesError(`Version ${rev.version} of this ${spec.noun}`, missing);
+    const values = { ...rev.snapshot };
     try {
       const { row, changes } = await updateVersioned(tx, ctx, spec as never, rev.entityId, version, values, {
         action: 'revert',
@@ -83,7 +90,7 @@ export async function restoreRevision(ctx: TeamContext, id: string, version: num
       });
       return { entityType: rev.entityType, entityId: rev.entityId, restoredVersion: rev.version, record: row as Record<string, unknown>, changed: changes.length };
     } catch (err) {
-      throw uniqueName(err, 'name');
+      throw rev.entityType === 'device' ? uniqueTag(err) : uniqueName(err, 'name');
     }
   });
 }

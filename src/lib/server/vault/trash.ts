@@ -97,6 +97,33 @@ async function trashedRoot(q: DbOrTx, ctx: TeamContext, type: EntityType, id: st
   return row;
 }
 
+/**
+ * 409 when a device coming back would share its tag with a live device of its machine, or a port its name
+ * with a live port of its device (letter case aside, as the unique indexes compare them).
+ */
+async function refuseNameClashes(tx: DbOrTx, ctx: TeamContext, trashId: string) {
+  const [tag] = await tx.all<{ tag: string; taken: string; machine: string }>(sql`
+    SELECT r.tag, l.tag AS taken, m.name AS machine FROM device r
+    JOIN device l ON l.machine_id = r.machine_id AND l.deleted_at IS NULL AND l.tag = r.tag COLLATE NOCASE
+    JOIN machine m ON m.id = r.machine_id
+    WHERE r.team_id = ${ctx.team.id} AND r.trash_id = ${trashId} LIMIT 1`);
+  if (tag) {
+    throw new HttpError(409, `Machine ${tag.machine} now has a device tagged "${tag.taken}", the same tag as "${tag.tag}" (letter case aside); change one of the tags first.`, {
+      clash: { tag: tag.tag, taken: tag.taken, machine: tag.machine },
+    });
+  }
+  const [clash] = await tx.all<{ name: string; taken: string; tag: string }>(sql`
+    SELECT r.name, l.name AS taken, d.tag FROM port r
+    JOIN port l ON l.device_id = r.device_id AND l.deleted_at IS NULL AND l.name = r.name COLLATE NOCASE
+    JOIN device d ON d.id = r.device_id
+    WHERE r.team_id = ${ctx.team.id} AND r.trash_id = ${trashId} LIMIT 1`);
+  if (clash) {
+    throw new HttpError(409, `Device ${clash.tag} now has a port named "${clash.taken}", the same name as "${clash.name}" (letter case aside); rename one of them first.`, {
+      clash: { port: clash.name, taken: clash.taken, deviceTag: clash.tag },
+    });
+  }
+}
+
 export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: string) {
   const spec = SPECS[type];
   return db.transaction(async (tx) => {
@@ -106,15 +133,9 @@ export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: s
       const p = await findAny(tx, ctx, parent.type, String(row[parent.key]));
       if (p.deletedAt) throw new HttpError(409, `Its ${SPECS[parent.type].noun} is in the trash too; restore that first.`, { parent: { type: parent.type, id: p.id } });
     }
+    await refuseNameClashes(tx, ctx, id);
     const clear = { deletedAt: null, deletedBy: null, trashId: null };
-    try {
-      for (const t of TABLES) await tx.update(t).set(clear).where(and(eq(t.teamId, ctx.team.id), eq(t.trashId, id)));
-    } catch (err) {
-      if (/UNIQUE constraint failed: port/.test(`${(err as Error).message} ${(err as { cause?: Error }).cause?.message ?? ''}`)) {
-        throw new HttpError(409, 'A port with the same name now exists on that device; rename one of them first.');
-      }
-      throw err;
-    }
+    for (const t of TABLES) await tx.update(t).set(clear).where(and(eq(t.teamId, ctx.team.id), eq(t.trashId, id)));
     const t = spec.table;
     await tx.update(t).set({ version: row.version + 1, updatedAt: now(), updatedBy: ctx.user.id }).where(eq(t.id, id));
     const live = (await findLive(tx, ctx, spec as never, id)) as Record<string, unknown>;
