@@ -6,12 +6,11 @@ import { QueryProvider } from './QueryProvider';
 import { FormField } from './FormField';
 import { api, ApiError } from '../lib/client/api';
 import { forgotPasswordSchema, resetPasswordSchema, signInSchema, signUpSchema } from '../lib/schemas/platform';
+import { safeNextPath } from '../lib/auth/next-path';
 
 type Mode = 'sign-in' | 'sign-up' | 'forgot' | 'reset';
 
-function safeNext(next: string | undefined): string {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/';
-}
+const nextPath = (next: string | undefined) => safeNextPath(next, location.origin);
 
 function authMessage(err: unknown): string {
   if (err instanceof ApiError) {
@@ -30,7 +29,7 @@ function SignIn({ next }: { next?: string }) {
   const form = useForm({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
   const m = useMutation({
     mutationFn: (v: { email: string; password: string }) => api('/api/auth/sign-in/email', { body: v }),
-    onSuccess: () => location.assign(safeNext(next)),
+    onSuccess: () => location.assign(nextPath(next) ?? '/'),
   });
   const e = form.formState.errors;
   return (
@@ -51,7 +50,7 @@ function SignUp({ next }: { next?: string }) {
   const form = useForm({ resolver: zodResolver(signUpSchema), defaultValues: { name: '', email: '', password: '' } });
   const m = useMutation({
     mutationFn: (v: { name: string; email: string; password: string }) => api('/api/auth/sign-up/email', { body: v }),
-    onSuccess: () => location.assign(next ? safeNext(next) : '/teams/new'),
+    onSuccess: () => location.assign(nextPath(next) ?? '/teams/new'),
   });
   const e = form.formState.errors;
   return (

@@ -1,0 +1,65 @@
+/** Sign-in redirects, the session cookie's signature, sign-up replies and invitation refusals. */
+import { describe, expect, it } from 'vitest';
+import { lastMailTo, TestClient } from '../helpers/client';
+
+const SESSION = 'better-auth.session_token';
+
+describe('the page after sign-in (next)', () => {
+  const cases: [string, string][] = [
+    ['/%5Cevil.test/x', '/'],
+    ['/%09/evil.test', '/'],
+    ['%2F%2Fevil.test', '/'],
+    ['//evil.test/x', '/'],
+    ['/.//evil.test', '/'],
+    ['https://evil.test/x', '/'],
+    ['javascript:alert(1)', '/'],
+    ['/team?tab=members', '/team?tab=members'],
+  ];
+
+  it('redirects a signed-in user only to a path of this site', async () => {
+    const c = await new TestClient().signUp('next');
+    for (const [next, location] of cases) {
+      const res = await c.get(`/sign-in?next=${next}`);
+      expect(res.status, next).toBe(302);
+      expect(res.headers.get('location'), next).toBe(location);
+    }
+    const own = await c.get(`/sign-in?next=${encodeURIComponent(`${c.baseUrl}/team`)}`);
+    expect(own.headers.get('location')).toBe('/team');
+  });
+
+  it('hands the sign-in and sign-up forms only a path of this site', async () => {
+    const c = new TestClient();
+    for (const page of ['/sign-in', '/sign-up']) {
+      const bad = await c.get(`${page}?next=/%5Cevil.test/x`);
+      expect(bad.status).toBe(200);
+      expect(bad.body).not.toContain('evil.test');
+      const good = await c.get(`${page}?next=${encodeURIComponent('/invitations/accept?token=abc')}`);
+      expect(good.body).toContain('/invitations/accept?token=abc');
+    }
+  });
+});
+
+describe('the session cookie', () => {
+  function withCookie(c: TestClient, value: string): TestClient {
+    const other = new TestClient(c.baseUrl);
+    other.cookies.set(SESSION, value);
+    return other;
+  }
+
+  it('works as issued, and not with a forged or missing signature', async () => {
+    const c = await new TestClient().signUp('signed');
+    await c.post('/api/teams', { name: 'Signed team' });
+    const issued = c.cookies.get(SESSION)!;
+    const token = decodeURIComponent(issued).split('.')[0]!;
+    expect((await withCookie(c, issued).get('/api/teams/current')).status).toBe(200);
+
+    const forgedShape = `${token}.${'A'.repeat(43)}=`;
+    for (const value of [`${token}.forgedsignature`, encodeURIComponent(forgedShape), token, `${token}.`, '%', '%E0%A4%A']) {
+      const res = await withCookie(c, value).get('/api/teams/current');
+      expect(res.status, value).toBe(401);
+      const page = await withCookie(c, value).get('/team');
+      expect(page.status, value).toBe(302);
+      expect(page.headers.get('location')).toBe('/sign-in?next=%2Fteam');
+    }
+  });
+});
