@@ -63,3 +63,27 @@ describe('the session cookie', () => {
     }
   });
 });
+
+describe('invitations accepted by the wrong account', () => {
+  it('do not reveal the invited address, in the API or on the page', async () => {
+    const owner = await new TestClient().signUp('inv-owner');
+    await owner.post('/api/teams', { name: 'Address team' });
+    const invited = `hidden-${Date.now().toString(36)}@example.test`;
+    expect((await owner.post('/api/invitations', { email: invited, role: 'viewer' })).status).toBe(201);
+    const link = new URL((await lastMailTo(invited)).link!);
+    const token = link.searchParams.get('token')!;
+
+    const stranger = await new TestClient().signUp('inv-stranger');
+    const refused = await stranger.post('/api/invitations/accept', { token });
+    expect(refused.status).toBe(403);
+    expect(JSON.stringify(refused.body)).not.toContain(invited);
+    expect(JSON.stringify(refused.body)).not.toContain('hidden-');
+    expect(refused.body.error).toMatch(/another e-mail address/);
+
+    for (const c of [stranger, new TestClient()]) {
+      const page = await c.get(link.pathname + link.search);
+      expect(page.status).toBe(200);
+      expect(page.body).not.toContain(invited);
+    }
+  });
+});
