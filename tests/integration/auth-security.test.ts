@@ -87,3 +87,44 @@ describe('invitations accepted by the wrong account', () => {
     }
   });
 });
+
+describe('sign-up does not tell whether an address has an account', () => {
+  it('answers a registered address as it answers a new one, and mails the owner instead', async () => {
+    const owner = await new TestClient().signUp('taken');
+    const fresh = `fresh-${Date.now().toString(36)}@example.test`;
+    const tryIt = (email: string) =>
+      new TestClient().post('/api/auth/sign-up/email', { email, name: 'Someone Else', password: 'another-password-1', callbackURL: '/teams/new' });
+    const [taken, free] = [await tryIt(owner.user!.email), await tryIt(fresh)];
+    for (const res of [taken, free]) {
+      expect(res.status).toBe(200);
+      expect(res.body.token).toBeNull();
+      expect(res.headers.getSetCookie().some((l) => l.includes('session_token='))).toBe(false);
+    }
+    expect(Object.keys(taken.body.user).sort()).toEqual(Object.keys(free.body.user).sort());
+    expect(taken.body.user.email).toBe(owner.user!.email);
+
+    const warned = await lastMailTo(owner.user!.email);
+    expect(warned.subject).toBe('Someone tried to create a Baudbook account with your address');
+    expect(warned.link).toMatch(/\/forgot-password$/);
+
+    const confirm = await lastMailTo(fresh);
+    expect(confirm.subject).toBe('Confirm your e-mail address for Baudbook');
+
+    // Before the address is confirmed, the new password is refused exactly like a wrong one
+    // (and the address gets a fresh link).
+    const early = await new TestClient().post('/api/auth/sign-in/email', { email: fresh, password: 'another-password-1' });
+    const wrong = await new TestClient().post('/api/auth/sign-in/email', { email: owner.user!.email, password: 'another-password-1' });
+    expect(early.status).toBe(401);
+    expect(wrong.status).toBe(401);
+    expect(early.body).toEqual(wrong.body);
+    expect((await lastMailTo(fresh)).link).not.toBe(confirm.link);
+
+    const c = new TestClient();
+    const link = new URL(confirm.link!);
+    const landed = await c.get(link.pathname + link.search);
+    expect(landed.status).toBe(302);
+    expect(landed.headers.get('location')).toBe('/teams/new');
+    expect((await c.get('/api/teams/current')).status).toBe(404);
+    expect((await new TestClient().post('/api/auth/sign-in/email', { email: fresh, password: 'another-password-1' })).status).toBe(200);
+  });
+});
