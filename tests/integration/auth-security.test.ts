@@ -1,6 +1,6 @@
 /** Sign-in redirects, the session cookie's signature, sign-up replies and invitation refusals. */
 import { describe, expect, it } from 'vitest';
-import { lastMailTo, TestClient } from '../helpers/client';
+import { confirmationLink, lastMailTo, TestClient } from '../helpers/client';
 
 const SESSION = 'better-auth.session_token';
 
@@ -126,5 +126,19 @@ describe('sign-up does not tell whether an address has an account', () => {
     expect(landed.headers.get('location')).toBe('/teams/new');
     expect((await c.get('/api/teams/current')).status).toBe(404);
     expect((await new TestClient().post('/api/auth/sign-in/email', { email: fresh, password: 'another-password-1' })).status).toBe(200);
+  });
+});
+
+describe('the confirmation link', () => {
+  it('opens the page the sign-up form was heading for, such as an invitation', async () => {
+    const email = `invited-${Date.now().toString(36)}@example.test`;
+    const next = '/invitations/accept?token=abc_DEF-123';
+    const c = new TestClient();
+    expect((await c.post('/api/auth/sign-up/email', { email, name: 'Invited', password: 'another-password-1', callbackURL: next })).status).toBe(200);
+    const link = await confirmationLink(email);
+    const landed = await c.get(link.pathname + link.search);
+    expect(landed.status).toBe(302);
+    expect(landed.headers.get('location')).toBe(next);
+    expect((await c.get('/api/teams/current')).status).toBe(404);
   });
 });
