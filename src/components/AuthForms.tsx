@@ -6,19 +6,18 @@ import { QueryProvider } from './QueryProvider';
 import { FormField } from './FormField';
 import { api, ApiError } from '../lib/client/api';
 import { forgotPasswordSchema, resetPasswordSchema, signInSchema, signUpSchema } from '../lib/schemas/platform';
+import { safeNextPath } from '../lib/auth/next-path';
+import { CONFIRM_LINK_HOURS } from '../lib/auth/policy';
 
 type Mode = 'sign-in' | 'sign-up' | 'forgot' | 'reset';
 
-function safeNext(next: string | undefined): string {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/';
-}
+const nextPath = (next: string | undefined) => safeNextPath(next, location.origin);
 
 function authMessage(err: unknown): string {
   if (err instanceof ApiError) {
     if (err.status === 429) return 'Too many attempts. Wait a minute and try again.';
-    if (err.status === 401 || err.body.code === 'INVALID_EMAIL_OR_PASSWORD') return 'That e-mail and password do not match an account.';
-    if (err.body.code === 'USER_ALREADY_EXISTS' || err.body.code === 'USER_ALREADY_EXISTS_USE_ANOTHER_EMAIL') {
-      return 'An account with this e-mail already exists. Sign in instead.';
+    if (err.status === 401 || err.body.code === 'INVALID_EMAIL_OR_PASSWORD') {
+      return 'That e-mail and password do not match an account. Just created the account? Open the link we e-mailed you first.';
     }
     if (err.body.code === 'INVALID_TOKEN') return 'This reset link is invalid or has expired. Ask for a new one.';
     return err.message;
@@ -29,8 +28,8 @@ function authMessage(err: unknown): string {
 function SignIn({ next }: { next?: string }) {
   const form = useForm({ resolver: zodResolver(signInSchema), defaultValues: { email: '', password: '' } });
   const m = useMutation({
-    mutationFn: (v: { email: string; password: string }) => api('/api/auth/sign-in/email', { body: v }),
-    onSuccess: () => location.assign(safeNext(next)),
+    mutationFn: (v: { email: string; password: string }) => api('/api/auth/sign-in/email', { body: { ...v, callbackURL: nextPath(next) ?? '/' } }),
+    onSuccess: () => location.assign(nextPath(next) ?? '/'),
   });
   const e = form.formState.errors;
   return (
@@ -49,11 +48,21 @@ function SignIn({ next }: { next?: string }) {
 
 function SignUp({ next }: { next?: string }) {
   const form = useForm({ resolver: zodResolver(signUpSchema), defaultValues: { name: '', email: '', password: '' } });
+  // The same reply for a new address and a registered one: the next step is in the mailbox either way.
   const m = useMutation({
-    mutationFn: (v: { name: string; email: string; password: string }) => api('/api/auth/sign-up/email', { body: v }),
-    onSuccess: () => location.assign(next ? safeNext(next) : '/teams/new'),
+    mutationFn: (v: { name: string; email: string; password: string }) =>
+      api('/api/auth/sign-up/email', { body: { ...v, callbackURL: nextPath(next) ?? '/teams/new' } }),
   });
   const e = form.formState.errors;
+  if (m.isSuccess) {
+    return (
+      <div className="notice notice-ok" role="status">
+        <p className="font-semibold">Check your e-mail</p>
+        <p>We sent a message to {m.variables.email}. Open the link in it within {CONFIRM_LINK_HOURS} hours to confirm the address and sign in.</p>
+        <p>Already have an account with this address? The message says so; <a href="/sign-in">sign in</a> instead.</p>
+      </div>
+    );
+  }
   return (
     <form onSubmit={form.handleSubmit((v) => m.mutate(v))} noValidate>
       {m.isError && <p className="notice notice-bad mb-3" role="alert">{authMessage(m.error)}</p>}

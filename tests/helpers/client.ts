@@ -2,6 +2,7 @@
 import { inject } from 'vitest';
 import { createClient } from '@libsql/client';
 import type { Role } from '../../src/lib/permissions';
+import { startedServers } from './server';
 
 let ipCounter = 10;
 let userCounter = 0;
@@ -65,7 +66,57 @@ export class TestClient {
     const res = await this.post('/api/auth/sign-up/email', { email, name, password: PASSWORD });
     if (res.status !== 200) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
     this.user = { id: res.body.user.id, email, name };
+    await this.confirmAddress(email);
     return this;
+  }
+
+  /**
+   * Finishes a sign-up: follows the confirmation link from the outbox, which signs the client in. A server
+   * that sends mail over SMTP keeps no outbox: there the address is marked confirmed in its database and
+   * the client signs in with its password.
+   */
+  async confirmAddress(email: string, password = PASSWORD): Promise<void> {
+    const server = serverAt(this.baseUrl);
+    if (server.outbox) {
+      const link = await confirmationLink(email, server.databaseUrl);
+      const res = await this.get(link.pathname + link.search);
+      if (res.status !== 302 || !this.cookies.size) throw new Error(`confirming ${email} failed: ${res.status}`);
+      return;
+    }
+    const db = createClient({ url: server.databaseUrl });
+    try {
+      await db.execute({ sql: 'UPDATE user SET email_verified = 1 WHERE email = ?', args: [email] });
+    } finally {
+      db.close();
+    }
+    const res = await this.post('/api/auth/sign-in/email', { email, password });
+    if (res.status !== 200) throw new Error(`sign-in after sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+  }
+}
+
+function serverAt(baseUrl: string): { databaseUrl: string; outbox: boolean } {
+  const started = startedServers.get(baseUrl);
+  if (started) return started;
+  if (baseUrl === inject('baseUrl')) return { databaseUrl: inject('databaseUrl'), outbox: true };
+  throw new Error(`no test server known at ${baseUrl}: start it with startServer()`);
+}
+
+/** The link in the newest address-confirmation message to `to` in that server's outbox. */
+export async function confirmationLink(to: string, databaseUrl: string = inject('databaseUrl')): Promise<URL> {
+  const db = createClient({ url: databaseUrl });
+  try {
+    for (let i = 0; i < 40; i++) {
+      const rs = await db.execute({
+        sql: 'SELECT text FROM outbox_message WHERE "to" = ? AND subject = ? ORDER BY created_at DESC LIMIT 1',
+        args: [to, 'Confirm your e-mail address for Baudbook'],
+      });
+      const link = String(rs.rows[0]?.text ?? '').match(/https?:\/\/\S+/)?.[0];
+      if (link) return new URL(link);
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    throw new Error(`no confirmation mail to ${to}`);
+  } finally {
+    db.close();
   }
 }
 

@@ -24,6 +24,9 @@ export async function freePort(): Promise<number> {
   });
 }
 
+/** Where each server started in this process keeps its data, by base URL (for TestClient.signUp). */
+export const startedServers = new Map<string, { databaseUrl: string; outbox: boolean }>();
+
 /** Built app; DIST_DIR lets parallel work trees build elsewhere (default dist). Served by server/serve.mjs. */
 const distDir = process.env.DIST_DIR ?? 'dist';
 const entry = join(distDir, 'server/entry.mjs');
@@ -34,7 +37,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
   }
   const dir = mkdtempSync(join(tmpdir(), 'baudbook-test-'));
   const port = extraEnv.PORT ? Number(extraEnv.PORT) : await freePort();
-  const databaseUrl = `file:${join(dir, 'test.db')}`;
+  const databaseUrl = extraEnv.DATABASE_URL ?? `file:${join(dir, 'test.db')}`;
   /** Where the tests reach the server (BASE_URL in extraEnv may name a public https address instead). */
   const baseUrl = `http://127.0.0.1:${port}`;
   const child: ChildProcess = spawn(process.execPath, ['server/serve.mjs', distDir], {
@@ -70,11 +73,13 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
     }
     await new Promise((r) => setTimeout(r, 100));
   }
+  startedServers.set(baseUrl, { databaseUrl, outbox: !extraEnv.SMTP_URL });
   return {
     baseUrl,
     databaseUrl,
     dir,
     async stop() {
+      startedServers.delete(baseUrl);
       child.kill('SIGTERM');
       await new Promise((r) => setTimeout(r, 200));
       rmSync(dir, { recursive: true, force: true });

@@ -1,7 +1,7 @@
 /** Behind HTTPS (BASE_URL https://…) session cookies carry Secure and HSTS is sent. */
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { freePort, startServer, type RunningServer } from '../helpers/server';
-import { PASSWORD, TestClient } from '../helpers/client';
+import { confirmationLink, PASSWORD, TestClient } from '../helpers/client';
 
 let app: RunningServer;
 let publicOrigin: string;
@@ -18,15 +18,17 @@ afterAll(async () => {
 
 it('marks the session cookie Secure and sends Strict-Transport-Security', async () => {
   const c = new TestClient(app.baseUrl);
-  const res = await c.request(
-    'POST',
-    '/api/auth/sign-up/email',
-    { email: `secure-${Date.now()}@example.test`, name: 'Secure', password: PASSWORD },
-    { origin: publicOrigin },
-  );
+  const email = `secure-${Date.now()}@example.test`;
+  const res = await c.request('POST', '/api/auth/sign-up/email', { email, name: 'Secure', password: PASSWORD }, { origin: publicOrigin });
   expect(res.status).toBe(200);
-  const cookie = res.headers.getSetCookie().find((l) => l.includes('session_token='));
+  expect(res.headers.get('strict-transport-security')).toContain('max-age=');
+  const link = await confirmationLink(email, app.databaseUrl);
+  expect(link.origin).toBe(publicOrigin);
+  const confirmed = await c.get(link.pathname + link.search);
+  const cookie = confirmed.headers.getSetCookie().find((l) => l.includes('session_token='));
   expect(cookie).toMatch(/; Secure/i);
   expect(cookie).toMatch(/HttpOnly/i);
-  expect(res.headers.get('strict-transport-security')).toContain('max-age=');
+  // The Secure-prefixed cookie is read back by the session lookup.
+  expect((await c.get('/api/teams/current')).status).toBe(404);
+  expect((await new TestClient(app.baseUrl).get('/api/teams/current')).status).toBe(401);
 });

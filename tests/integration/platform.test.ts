@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createTeamWithRoles, joinTeam, lastMailTo, PASSWORD, TestClient, testDb } from '../helpers/client';
+import { confirmationLink, createTeamWithRoles, joinTeam, lastMailTo, PASSWORD, TestClient, testDb } from '../helpers/client';
 
 describe('security headers and sessions', () => {
   it('sets the security headers on pages and API responses', async () => {
@@ -32,7 +32,9 @@ describe('security headers and sessions', () => {
   it('issues an httpOnly session cookie', async () => {
     const c = new TestClient();
     const email = `cookie-${Date.now()}@example.test`;
-    const res = await c.post('/api/auth/sign-up/email', { email, name: 'Cookie', password: PASSWORD });
+    expect((await c.post('/api/auth/sign-up/email', { email, name: 'Cookie', password: PASSWORD })).status).toBe(200);
+    const link = await confirmationLink(email);
+    const res = await c.get(link.pathname + link.search);
     const cookie = res.headers.getSetCookie().find((l) => l.startsWith('better-auth.session_token='));
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Lax/i);

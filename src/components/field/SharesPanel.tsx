@@ -7,6 +7,20 @@ import { fieldKeys } from './keys';
 interface Share {
   id: string; scopeType: 'machine' | 'site'; scopeId: string; scopeName: string; label: string; createdByName: string;
   createdAt: string; expiresAt: string; revokedAt: string | null; accessCount: number; lastAccessAt: string | null; state: 'active' | 'expired' | 'revoked';
+  /** The link this one was e-mailed from; revoking a link ends its copies too. */
+  parentId: string | null;
+}
+
+/** How many active links were e-mailed from `id`, directly or from its copies. */
+function activeCopies(items: Share[], id: string): number {
+  const children = items.filter((s) => s.parentId === id);
+  return children.reduce((n, c) => n + (c.state === 'active' ? 1 : 0) + activeCopies(items, c.id), 0);
+}
+
+function revokeQuestion(items: Share[], s: Share): string {
+  const copies = activeCopies(items, s.id);
+  const also = copies === 0 ? 'It stops' : `It and the ${copies === 1 ? 'copy' : `${copies} copies`} e-mailed from it stop`;
+  return `Revoke the link to ${s.scopeName}? ${also} working at once.`;
 }
 interface Option { id: string; label: string }
 interface Props { machines: Option[]; sites: Option[]; initial?: { scopeType: 'machine' | 'site'; scopeId: string } }
@@ -92,7 +106,7 @@ function Panel(props: Props) {
               {s.state === 'active' && (
                 <div className="flex flex-wrap gap-3 items-center">
                   <EmailShare share={s} />
-                  <button className="btn btn-danger btn-sm" onClick={() => confirm(`Revoke the link to ${s.scopeName}? It stops working at once.`) && revoke.mutate(s.id)}>Revoke</button>
+                  <button className="btn btn-danger btn-sm" onClick={() => confirm(revokeQuestion(q.data.items, s)) && revoke.mutate(s.id)}>Revoke</button>
                 </div>
               )}
             </li>

@@ -103,8 +103,10 @@ export const shareLink = sqliteTable(
     revokedAt: integer('revoked_at', { mode: 'timestamp_ms' }),
     accessCount: integer('access_count').notNull().default(0),
     lastAccessAt: integer('last_access_at', { mode: 'timestamp_ms' }),
+    /** The link this one was e-mailed from (null for a link created directly); revoking a link revokes its copies. */
+    parentId: text('parent_id'),
   },
-  (t) => [index('share_team_idx').on(t.teamId, t.createdAt)],
+  (t) => [index('share_team_idx').on(t.teamId, t.createdAt), index('share_parent_idx').on(t.parentId)],
 );
 
 /** Which record an imported record became in this team, so importing the same file twice adds nothing. */

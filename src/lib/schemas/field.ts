@@ -50,12 +50,20 @@ export const attachmentFieldsSchema = z.strictObject({
 export const attachmentListSchema = z.strictObject({ ownerType: z.enum(ATTACHMENT_OWNERS), ownerId: id });
 
 // ---- share links ----
+/**
+ * A day that exists on the calendar (YYYY-MM-DD; 2027-02-30 or 2027-02-29 is refused, never rolled over
+ * into March), or a full ISO 8601 time with `Z` or an offset.
+ */
+export const dayOrTimeSchema = z.union([z.iso.date(), z.iso.datetime({ offset: true })], {
+  error: 'Enter a day that exists, as YYYY-MM-DD (or a full ISO time such as 2027-03-01T17:00:00Z).',
+});
+
 export const shareCreateSchema = z.strictObject({
   scopeType: z.enum(SHARE_SCOPES, { error: 'Share a machine or a site.' }),
   scopeId: id,
   label: text(120).default(''),
   /** Last day the link works (YYYY-MM-DD, through the end of that day UTC), or a full ISO time. */
-  expiresAt: z.string().max(40).optional(),
+  expiresAt: dayOrTimeSchema.optional(),
 });
 export const shareEmailSchema = z.strictObject({ to: emailSchema, message: text(1000).default('') });
 export const cardEmailSchema = z.strictObject({ deviceId: id, to: emailSchema, message: text(1000).default('') });
@@ -68,7 +76,7 @@ const recordId = z.string().min(1).max(64);
 export const exportDocumentSchema = z.strictObject({
   format: z.literal(EXPORT_FORMAT, { error: `format must be "${EXPORT_FORMAT}".` }),
   version: z.literal(EXPORT_VERSION, { error: `This server reads version ${EXPORT_VERSION} documents.` }),
-  exportedAt: z.string().max(40),
+  exportedAt: z.iso.datetime({ offset: true, error: 'Not a real time; exports write one like 2026-05-01T08:00:00.000Z.' }),
   source: z.strictObject({ team: text(200), scope: z.enum(['team', 'site']), siteId: recordId.nullable() }),
   sites: z.array(z.strictObject({ id: recordId, name: text(120).min(1), customer: text(120), address: text(300), notes: text(5000) })).max(5000),
   machines: z.array(z.strictObject({ id: recordId, siteId: recordId, name: text(120).min(1), code: text(60), notes: text(5000) })).max(20000),

@@ -1,8 +1,9 @@
 import { sql } from 'drizzle-orm';
-import { getSessionCookie } from 'better-auth/cookies';
+import { parseCookies } from 'better-auth/cookies';
 import { db } from '../../db/client';
 import type { Role } from '../permissions';
 import { auth, SESSION_EXPIRES_IN, SESSION_UPDATE_AGE } from './auth';
+import { verifySignedValue } from './signed-cookie';
 
 export interface TeamOfUser {
   id: string;
@@ -19,16 +20,23 @@ export interface CurrentSession {
   setCookies: string[];
 }
 
+/** The session token from the request's session cookie (the auth layer's name for it), once its signature checks out. */
+async function sessionToken(headers: Headers): Promise<string | null> {
+  const cookie = headers.get('cookie');
+  if (!cookie) return null;
+  const { authCookies, secret } = await auth.$context;
+  const signed = parseCookies(cookie).get(authCookies.sessionToken.name);
+  return signed ? verifySignedValue(signed, secret) : null;
+}
+
 /**
- * The signed-in user and their teams for a request, in one indexed query: the session cookie's token
- * is looked up directly (it is a random secret of its own; revocation and sign-out take effect at
- * once), and the memberships come along as JSON. When the session is due for its daily extension,
- * the auth layer does that and returns fresh cookies.
+ * The signed-in user and their teams for a request, in one indexed query: the session cookie's
+ * signature is checked as the auth layer checks it, then its token is looked up directly (revocation
+ * and sign-out take effect at once), and the memberships come along as JSON. When the session is due
+ * for its daily extension, the auth layer does that and returns fresh cookies.
  */
 export async function readSession(headers: Headers): Promise<CurrentSession | null> {
-  const signed = getSessionCookie(headers);
-  if (!signed) return null;
-  const token = decodeURIComponent(signed).split('.')[0];
+  const token = await sessionToken(headers);
   if (!token) return null;
   const [row] = await db.all<{ sessionId: string; expiresAt: number; id: string; name: string; email: string; teams: string }>(sql`
     SELECT s.id AS sessionId, s.expires_at AS expiresAt, u.id AS id, u.name AS name, u.email AS email,

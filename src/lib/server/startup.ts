@@ -1,8 +1,12 @@
 import { ensureDatabase } from '../../db/migrate';
+import { startOrphanSweep } from './field/orphan-sweep';
 
 let ready: Promise<void> | null = null;
 
-/** Migrates the database and, when SEED_DEMO=1, seeds the invented demo scenario (idempotent). */
+/**
+ * Migrates the database and, when SEED_DEMO=1, seeds the invented demo scenario (idempotent); then starts
+ * the background sweep of stored files left without an attachment record.
+ */
 export function startup(): Promise<void> {
   ready ??= (async () => {
     await ensureDatabase();
@@ -10,6 +14,7 @@ export function startup(): Promise<void> {
       const { seedDemo } = await import('./seed');
       await seedDemo();
     }
+    startOrphanSweep();
   })().catch((err) => {
     ready = null;
     throw err;

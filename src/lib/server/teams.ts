@@ -119,7 +119,8 @@ export async function acceptInvitation(currentUser: { id: string; email: string 
   if (!found.ok) throw new HttpError(410, found.reason);
   const inv = found.invitation;
   if (inv.email.toLowerCase() !== currentUser.email.toLowerCase()) {
-    throw new HttpError(403, `This invitation is for ${inv.email}; you are signed in as ${currentUser.email}.`);
+    // The invited address is not named: whoever holds a forwarded link learns nothing from trying it.
+    throw new HttpError(403, `This invitation was sent to another e-mail address; you are signed in as ${currentUser.email}. Sign in with the invited address to accept it.`);
   }
   await db.transaction(async (tx) => {
     await tx.insert(membership).values({ teamId: inv.teamId, userId: currentUser.id, role: inv.role }).onConflictDoNothing();

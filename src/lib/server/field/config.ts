@@ -38,6 +38,22 @@ export const s3Settings: S3Settings | null = process.env.S3_BUCKET
     }
   : null;
 
+function seconds(raw: string | undefined, fallback: number): number {
+  const n = Number(raw);
+  return raw !== undefined && raw !== '' && Number.isFinite(n) && n >= 0 ? n : fallback;
+}
+
+/**
+ * Sweeping stored files that no attachment row names (left by a crash between storing and recording):
+ * how often, in seconds (UPLOAD_SWEEP_INTERVAL_SECONDS, default 6 hours; 0 = only at start), and how old a
+ * file must be before it counts as left over (UPLOAD_SWEEP_GRACE_SECONDS, default 1 hour, so an upload in
+ * flight is never taken).
+ */
+export const uploadSweep = {
+  intervalSeconds: seconds(process.env.UPLOAD_SWEEP_INTERVAL_SECONDS, 6 * 3600),
+  graceSeconds: seconds(process.env.UPLOAD_SWEEP_GRACE_SECONDS, 3600),
+};
+
 /** Default and longest lifetime of a share link, days. */
 export const shareDefaultDays = positiveInt(process.env.SHARE_DEFAULT_DAYS, 30);
 export const shareMaxDays = 365;

@@ -69,24 +69,36 @@ export async function createShare(ctx: TeamContext, input: z.infer<typeof shareC
   return { ...present({ ...row!, scopeName: target.name }), url: shareUrl(token) };
 }
 
+/** Revokes the link and, in the same statement, every copy e-mailed from it (and copies of those). */
 export async function revokeShare(ctx: TeamContext, id: string): Promise<ShareView> {
-  const row = await findShare(ctx, id);
-  if (!row.revokedAt) await db.update(shareLink).set({ revokedAt: new Date() }).where(and(eq(shareLink.id, id), eq(shareLink.teamId, ctx.team.id)));
+  await findShare(ctx, id);
+  await db.run(sql`WITH RECURSIVE tree(id) AS (
+      SELECT ${id} UNION SELECT s.id FROM share_link s JOIN tree ON s.parent_id = tree.id)
+    UPDATE share_link SET revoked_at = ${Date.now()}
+    WHERE team_id = ${ctx.team.id} AND revoked_at IS NULL AND id IN (SELECT id FROM tree)`);
   return present(await findShare(ctx, id));
 }
 
 /**
  * E-mails a fresh link to the same cards with the same expiry (the original token is not kept, so it
- * cannot be re-sent); the new link is listed and revocable like any other.
+ * cannot be re-sent); the new link is listed as a copy of the one it was sent from and ends when
+ * that one is revoked.
  */
 export async function emailShare(ctx: TeamContext, id: string, to: string, message: string): Promise<{ sent: true; to: string; share: ShareView }> {
   const row = await findShare(ctx, id);
-  if (shareState(row) !== 'active') throw new HttpError(409, `This link is ${shareState(row)}; create a new one to send.`);
+  const refuse = (state: string) => new HttpError(409, `This link is ${state}; create a new one to send.`);
+  if (shareState(row) !== 'active') throw refuse(shareState(row));
   const token = randomToken();
   const [copy] = await db.insert(shareLink).values({
     id: newId('share'), teamId: ctx.team.id, scopeType: row.scopeType, scopeId: row.scopeId, label: row.label ? `${row.label} (e-mailed to ${to})` : `E-mailed to ${to}`,
-    tokenHash: sha256(token), createdBy: ctx.user.id, createdByName: ctx.user.name, expiresAt: row.expiresAt,
+    tokenHash: sha256(token), createdBy: ctx.user.id, createdByName: ctx.user.name, expiresAt: row.expiresAt, parentId: row.id,
   }).returning();
+  // A revocation that ran between the check above and the insert did not see the copy: end it here.
+  const [parent] = await db.select({ revokedAt: shareLink.revokedAt }).from(shareLink).where(eq(shareLink.id, row.id));
+  if (!parent || parent.revokedAt) {
+    await db.update(shareLink).set({ revokedAt: new Date() }).where(eq(shareLink.id, copy!.id));
+    throw refuse('revoked');
+  }
   const lines = [
     `${ctx.user.name} (${ctx.team.name}) shared the serial settings cards of ${row.scopeName} with you.`,
     ...(message ? [message] : []),
@@ -97,14 +109,20 @@ export async function emailShare(ctx: TeamContext, id: string, to: string, messa
   return { sent: true, to, share: present({ ...copy!, scopeName: row.scopeName }) };
 }
 
-/** The share a token opens, counting the visit; null for unknown, expired or revoked links. */
-export async function openShare(token: string): Promise<ShareRow | null> {
+/** The share a token opens, without counting a visit; null for unknown, expired or revoked links. */
+export async function findOpenShare(token: string): Promise<ShareRow | null> {
   if (!/^[A-Za-z0-9_-]{16,64}$/.test(token)) return null;
   const [row] = await db.select().from(shareLink).where(eq(shareLink.tokenHash, sha256(token)));
   if (!row || shareState(row) !== 'active') return null;
   const scope = row.scopeType === 'machine' ? machine : site;
   const [live] = await db.select({ id: scope.id }).from(scope).where(and(eq(scope.id, row.scopeId), eq(scope.teamId, row.teamId), sql`${scope.deletedAt} IS NULL`));
-  if (!live) return null;
+  return live ? row : null;
+}
+
+/** The share a token opens, counting the visit (a page view, GET); null as for `findOpenShare`. */
+export async function openShare(token: string): Promise<ShareRow | null> {
+  const row = await findOpenShare(token);
+  if (!row) return null;
   await db.update(shareLink).set({ accessCount: sql`${shareLink.accessCount} + 1`, lastAccessAt: new Date() }).where(eq(shareLink.id, row.id));
   return row;
 }

@@ -1,7 +1,7 @@
 /** Where attachment bytes live: one interface, a local folder or an S3-compatible bucket behind it. */
-import { mkdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { mkdir, readdir, readFile, rm, stat, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { DeleteObjectCommand, GetObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { s3Settings, uploadDir, type S3Settings } from './config';
 
 export interface FileStorage {
@@ -10,6 +10,13 @@ export interface FileStorage {
   /** The stored bytes, or null when nothing is stored under `key`. */
   get(key: string): Promise<Uint8Array | null>;
   delete(key: string): Promise<void>;
+  /** Every stored file with the time it was last written, in no particular order. */
+  list(): AsyncIterable<StoredFile>;
+}
+
+export interface StoredFile {
+  key: string;
+  modifiedAt: Date;
 }
 
 /** Keys look like `team/owner/id`; anything else is refused before touching the disk. */
@@ -46,6 +53,28 @@ export class LocalStorage implements FileStorage {
   async delete(key: string): Promise<void> {
     await rm(this.path(key), { force: true });
   }
+
+  async *list(): AsyncIterable<StoredFile> {
+    yield* this.walk(resolve(this.root), '');
+  }
+
+  private async *walk(dir: string, prefix: string): AsyncIterable<StoredFile> {
+    let entries;
+    try {
+      entries = await readdir(dir, { withFileTypes: true });
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'ENOENT') return;
+      throw err;
+    }
+    for (const entry of entries) {
+      const key = prefix ? `${prefix}/${entry.name}` : entry.name;
+      if (entry.isDirectory()) yield* this.walk(join(dir, entry.name), key);
+      else if (entry.isFile()) {
+        const info = await stat(join(dir, entry.name)).catch(() => null);
+        if (info) yield { key, modifiedAt: info.mtime };
+      }
+    }
+  }
 }
 
 export class S3Storage implements FileStorage {
@@ -77,6 +106,15 @@ export class S3Storage implements FileStorage {
 
   async delete(key: string): Promise<void> {
     await this.client.send(new DeleteObjectCommand({ Bucket: this.settings.bucket, Key: checkKey(key) }));
+  }
+
+  async *list(): AsyncIterable<StoredFile> {
+    let token: string | undefined;
+    do {
+      const page = await this.client.send(new ListObjectsV2Command({ Bucket: this.settings.bucket, ContinuationToken: token }));
+      for (const o of page.Contents ?? []) if (o.Key && o.LastModified) yield { key: o.Key, modifiedAt: o.LastModified };
+      token = page.IsTruncated ? page.NextContinuationToken : undefined;
+    } while (token);
   }
 }
 

@@ -5,7 +5,7 @@
 import { eq } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { device, machine, membership, port, site, team, user } from '../../../db/schema';
-import { auth } from '../auth';
+import { createConfirmedUser } from '../auth';
 import { defaultPortSettings, type PortSettings } from '../../frame/port-settings';
 import { DEVICE_ROLES } from '../../../db/schema';
 
@@ -31,7 +31,7 @@ export async function seedLarge(opts: { sites?: number; machinesPerSite?: number
   if (existing) return { teamId: LARGE_TEAM_ID, email: LARGE_EMAIL, password: LARGE_PASSWORD, created: false, devices: 0 };
 
   const [known] = await db.select({ id: user.id }).from(user).where(eq(user.email, LARGE_EMAIL));
-  const userId = known?.id ?? (await auth.api.signUpEmail({ body: { email: LARGE_EMAIL, name: 'Scale Tester', password: LARGE_PASSWORD } })).user.id;
+  const userId = known?.id ?? (await createConfirmedUser(LARGE_EMAIL, 'Scale Tester', LARGE_PASSWORD));
 
   const siteRows: (typeof site.$inferInsert)[] = [];
   const machineRows: (typeof machine.$inferInsert)[] = [];

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { membership, team, user } from '../../../db/schema';
-import { auth } from '../auth';
+import { createConfirmedUser } from '../auth';
 import type { Role } from '../../permissions';
 
 /** Shared password of every demo account (documented in the README; demo data only). */
@@ -21,8 +21,7 @@ export const DEMO_ACCOUNTS: { email: string; name: string; role: Role }[] = [
 async function ensureUser(email: string, name: string): Promise<string> {
   const [existing] = await db.select({ id: user.id }).from(user).where(eq(user.email, email));
   if (existing) return existing.id;
-  const created = await auth.api.signUpEmail({ body: { email, name, password: DEMO_PASSWORD } });
-  return created.user.id;
+  return createConfirmedUser(email, name, DEMO_PASSWORD);
 }
 
 export async function seedPlatform(): Promise<Record<Role, string>> {
