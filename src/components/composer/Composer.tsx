@@ -77,7 +77,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
             {portSlot ? portSlot(ownSettings, setOwnSettings) : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => patch({ portName })} />}
           </Section>
           <Section title="Segments" id="segments">
-            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
               onChange={(t) => patch({ template: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
             {request.error && <p className="notice notice-bad text-sm mt-2" role="alert">{request.error}</p>}
           </Section>
@@ -100,7 +100,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
       <Section title="Reply" id="reply"
         aside={!readOnly && (
           <label className="text-sm flex items-center gap-2">
-            <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules) : null })} />
+            <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules, settings.protocol) : null })} />
             The device answers this command
           </label>
         )}>
@@ -108,7 +108,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <div className="grid gap-4 lg:grid-cols-2">
             <div className="min-w-0">
               <h3 className="font-semibold mb-1">Expected reply</h3>
-              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
                 onChange={(t) => patch({ replyTemplate: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
               {reply.error && <p className="notice notice-bad text-sm mt-2" role="alert">{reply.error}</p>}
             </div>

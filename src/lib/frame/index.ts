@@ -13,7 +13,7 @@ export { type RegisterWords, type WordByteOrder, packRegisterWords, unpackRegist
 export {
   type ChecksumAlgorithm, type ChecksumKind, type ChecksumValue, type ChecksumEncoding, type ChecksumPlacement, type ByteOrder,
   type ChecksumInput, type CrcModel, type CrcParams, type CrcParamsInput, type CrcParamsText, CHECKSUM_ALGORITHMS, CRC_MODELS,
-  CUSTOM_CRC, createCrc, crcParamsSchema, customCrcAlgorithm, findChecksumAlgorithm, listChecksumAlgorithms, resolveChecksum,
+  CUSTOM_CRC, createCrc, crcParamsSchema, isCustomCrcName, customCrcAlgorithm, findChecksumAlgorithm, listChecksumAlgorithms, resolveChecksum,
   defaultChecksumByteOrder, checksumOfRange, computeChecksum, formatChecksumValue, checksumLength, placeChecksum, nmeaChecksum,
   lrc8, xor8, sum8, sum16,
 } from './checksum';
