@@ -67,6 +67,8 @@ for (const a of CHECKSUM_ALGORITHMS) for (const n of [a.name, ...a.aliases]) BY_
 
 /** Lookup over names and aliases, ASCII case-insensitive; `CRC-16/CCITT` finds CRC-16/KERMIT as the catalogue says. */
 export function findChecksumAlgorithm(name: string): ChecksumAlgorithm | undefined {
+  const exact = BY_NAME.get(name);
+  if (exact) return exact;
   const key = checksumNameKey(name);
   return key === undefined ? undefined : BY_NAME.get(key);
 }
