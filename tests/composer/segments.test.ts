@@ -1,7 +1,7 @@
 import * as ref from 'js-crc/models';
 import { describe, expect, it } from 'vitest';
 import { assembleFrame, portSettingsSchema, previewFrame, templateSchema, toHex, type Template } from '../../src/lib/frame';
-import { addSegment, duplicateSegment, nudgeSegment, removeSegment, starterTemplate } from '../../src/lib/composer/segments';
+import { addSegment, duplicateSegment, nudgeSegment, removeSegment, restartForPort, starterTemplate } from '../../src/lib/composer/segments';
 import { labelOfBytes, textOfHex, hexOfText, CONTROL_CHOICES } from '../../src/lib/composer/bytes-text';
 
 const hex = (t: Template, values = {}) => toHex(assembleFrame(templateSchema.parse(t), values).bytes);
@@ -94,6 +94,17 @@ describe('checksum defaults follow the port protocol', () => {
     const add = (algorithm: string) => addSegment(addSegment(starterTemplate({}, 'modbus-rtu'), 'text', {}, { text: 'AB' }), 'checksum', {}, { algorithm, protocol: 'modbus-rtu' }).segments[1];
     expect(add('CRC-32/ISCSI')).toMatchObject({ algorithm: 'CRC-32/ISCSI', encoding: 'binary', byteOrder: 'low-first' });
     expect(add('CRC-16/XMODEM')).toMatchObject({ algorithm: 'CRC-16/XMODEM', encoding: 'binary', byteOrder: 'high-first' });
+  });
+
+  it('an untouched starter follows a change of port; an edited template stays', () => {
+    const rtu = portSettingsSchema.parse({ protocol: 'modbus-rtu' });
+    const service = portSettingsSchema.parse({ protocol: 'ascii', frameRules: { terminator: '0D' } });
+    const fresh = starterTemplate(rtu.frameRules, rtu.protocol);
+    expect(restartForPort(fresh, rtu, service).segments).toEqual([{ type: 'terminator', id: 'end', bytes: '0D' }]);
+    const ascii = portSettingsSchema.parse({ protocol: 'modbus-ascii' });
+    expect(restartForPort(restartForPort(fresh, rtu, service), service, ascii).segments.map((s) => ('bytes' in s ? s.bytes : ''))).toEqual(['3A', '0D 0A']);
+    const edited = addSegment(fresh, 'text', {}, { text: 'A' });
+    expect(restartForPort(edited, rtu, service)).toBe(edited);
   });
 });
 

@@ -6,7 +6,7 @@ import { useMemo, useState, type ReactNode } from 'react';
 import { previewFrame } from '../../lib/frame/preview';
 import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
-import { starterTemplate } from '../../lib/composer/segments';
+import { restartForPort, starterTemplate } from '../../lib/composer/segments';
 import { timingSummary } from '../../lib/composer/timing';
 import { wireLayout } from '../../lib/composer/wire';
 import { decodeReplyLength } from '../../lib/composer/reply-length';
@@ -74,7 +74,12 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
       <div className="grid gap-4 lg:grid-cols-2 items-start">
         <div className="grid gap-4 min-w-0">
           <Section title="Port" id="port">
-            {portSlot ? portSlot(ownSettings, setOwnSettings) : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => patch({ portName })} />}
+            {portSlot
+              ? portSlot(ownSettings, (s) => { setOwnSettings(s); patch({ template: restartForPort(draft.template, ownSettings, s) }); })
+              : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => {
+                const next = ports.find((p) => p.name === portName);
+                patch({ portName, template: next ? restartForPort(draft.template, settings, next.settings) : draft.template });
+              }} />}
           </Section>
           <Section title="Segments" id="segments">
             <SegmentEditor idPrefix="req" template={draft.template} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}

@@ -37,6 +37,16 @@ export function starterTemplate(rules: FrameRulesInput = {}, protocol?: Protocol
   return { version: 1, segments };
 }
 
+/**
+ * The template for a newly chosen port: a template still equal to the old port's starter becomes the new
+ * port's starter (a new command on a Modbus RTU port moved to an ASCII port gains its terminator); any
+ * edited template is kept as it is.
+ */
+export function restartForPort(t: Template, from: Pick<PortSettings, 'frameRules' | 'protocol'>, to: Pick<PortSettings, 'frameRules' | 'protocol'>): Template {
+  const untouched = JSON.stringify(t.segments) === JSON.stringify(starterTemplate(from.frameRules, from.protocol).segments);
+  return untouched ? { ...t, segments: starterTemplate(to.frameRules, to.protocol).segments } : t;
+}
+
 function freeId(t: Template, prefix: string): string {
   const ids = new Set(t.segments.map((s) => s.id));
   for (let n = 1; ; n++) if (!ids.has(`${prefix}${n}`)) return `${prefix}${n}`;
