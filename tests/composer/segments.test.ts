@@ -1,6 +1,7 @@
+import * as ref from 'js-crc/models';
 import { describe, expect, it } from 'vitest';
-import { assembleFrame, templateSchema, toHex, type Template } from '../../src/lib/frame';
-import { addSegment, duplicateSegment, nudgeSegment, removeSegment, starterTemplate } from '../../src/lib/composer/segments';
+import { assembleFrame, portSettingsSchema, previewFrame, templateSchema, toHex, type Template } from '../../src/lib/frame';
+import { addSegment, duplicateSegment, nudgeSegment, removeSegment, restartForPort, starterTemplate } from '../../src/lib/composer/segments';
 import { labelOfBytes, textOfHex, hexOfText, CONTROL_CHOICES } from '../../src/lib/composer/bytes-text';
 
 const hex = (t: Template, values = {}) => toHex(assembleFrame(templateSchema.parse(t), values).bytes);
@@ -50,3 +51,60 @@ describe('segment editor helpers', () => {
     expect(CONTROL_CHOICES[13]).toEqual({ code: 13, name: 'CR', hex: '0D' });
   });
 });
+
+describe('checksum defaults follow the port protocol', () => {
+  const text = (t: Template) => new TextDecoder('latin1').decode(assembleFrame(templateSchema.parse(t), {}).bytes);
+
+  it('Modbus ASCII: starts with ":" and CR LF; the checksum is the LRC over the decoded hex, after the ":"', () => {
+    let t = starterTemplate({}, 'modbus-ascii');
+    expect(t.segments).toMatchObject([{ type: 'literal', bytes: '3A' }, { type: 'terminator', bytes: '0D 0A' }]);
+    t = addSegment(t, 'text', {}, { text: '010300000001' });
+    t = addSegment(t, 'checksum', {}, { protocol: 'modbus-ascii' });
+    expect(t.segments[2]).toMatchObject({ type: 'checksum', algorithm: 'LRC', over: 'decoded-hex', encoding: 'ascii-hex', range: { from: 1, to: 'checksum' } });
+    // Modbus over Serial Line V1.02, 2.5.2.2: LRC of 01 03 00 00 00 01 is 0xFB
+    expect(text(t)).toBe(':010300000001FB\r\n');
+    // text added later goes before the checksum, and the checksum still starts after the ":"
+    t = addSegment(t, 'text', {}, { text: '00' });
+    expect(t.segments.map((s) => s.type)).toEqual(['literal', 'literal', 'literal', 'checksum', 'terminator']);
+    expect(text(t)).toBe(':01030000000100FB\r\n');
+    const port = portSettingsSchema.parse({ protocol: 'modbus-ascii' });
+    expect(previewFrame(templateSchema.parse(t), {}, port).findings).toEqual([]);
+  });
+
+  it('Modbus RTU: no terminator; the checksum is CRC-16/MODBUS, binary, low byte first', () => {
+    let t = starterTemplate({}, 'modbus-rtu');
+    expect(t.segments).toEqual([]);
+    t = { ...t, segments: [{ type: 'literal', id: 'pdu', bytes: '01 03 00 00 00 01' }] };
+    t = addSegment(t, 'checksum', {}, { protocol: 'modbus-rtu' });
+    expect(t.segments[1]).toMatchObject({ type: 'checksum', algorithm: 'CRC-16/MODBUS', encoding: 'binary', byteOrder: 'low-first', over: 'bytes' });
+    // Modbus over Serial Line V1.02, 6.2.2 (low byte first); the CRC value cross-checked with js-crc's crc_16_modbus
+    const crc = parseInt(ref.crc_16_modbus(Uint8Array.from([1, 3, 0, 0, 0, 1])), 16);
+    expect(toHex(assembleFrame(templateSchema.parse(t), {}).bytes)).toBe(toHex(Uint8Array.from([1, 3, 0, 0, 0, 1, crc & 0xff, crc >> 8])));
+    t = addSegment(t, 'integer');
+    expect(t.segments.map((s) => s.type)).toEqual(['literal', 'integer', 'checksum']);
+  });
+
+  it('other protocols keep the XOR-8 block check in hex characters', () => {
+    const t = addSegment(addSegment(starterTemplate({}), 'text', {}, { text: 'AB' }), 'checksum', {}, { protocol: 'ascii' });
+    expect(t.segments[1]).toMatchObject({ algorithm: 'XOR-8', encoding: 'ascii-hex', over: 'bytes', byteOrder: 'high-first' });
+    expect(text(t)).toBe('AB03\r'); // 0x41 XOR 0x42 = 0x03
+  });
+
+  it('a chosen model brings its byte order', () => {
+    const add = (algorithm: string) => addSegment(addSegment(starterTemplate({}, 'modbus-rtu'), 'text', {}, { text: 'AB' }), 'checksum', {}, { algorithm, protocol: 'modbus-rtu' }).segments[1];
+    expect(add('CRC-32/ISCSI')).toMatchObject({ algorithm: 'CRC-32/ISCSI', encoding: 'binary', byteOrder: 'low-first' });
+    expect(add('CRC-16/XMODEM')).toMatchObject({ algorithm: 'CRC-16/XMODEM', encoding: 'binary', byteOrder: 'high-first' });
+  });
+
+  it('an untouched starter follows a change of port; an edited template stays', () => {
+    const rtu = portSettingsSchema.parse({ protocol: 'modbus-rtu' });
+    const service = portSettingsSchema.parse({ protocol: 'ascii', frameRules: { terminator: '0D' } });
+    const fresh = starterTemplate(rtu.frameRules, rtu.protocol);
+    expect(restartForPort(fresh, rtu, service).segments).toEqual([{ type: 'terminator', id: 'end', bytes: '0D' }]);
+    const ascii = portSettingsSchema.parse({ protocol: 'modbus-ascii' });
+    expect(restartForPort(restartForPort(fresh, rtu, service), service, ascii).segments.map((s) => ('bytes' in s ? s.bytes : ''))).toEqual(['3A', '0D 0A']);
+    const edited = addSegment(fresh, 'text', {}, { text: 'A' });
+    expect(restartForPort(edited, rtu, service)).toBe(edited);
+  });
+});
+

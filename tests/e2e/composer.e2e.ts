@@ -145,7 +145,7 @@ describe('command composer in the browser', () => {
       await page.getByLabel('Baud').selectOption('19200');
       expect(await page.locator('[data-timing="char"] td').first().textContent()).toBe('0.521 ms');
       await page.getByLabel('Bytes, in any notation').fill('02 41 42 03');
-      expect(await page.getByTestId('checksums').getByRole('row', { name: /XOR-8/ }).textContent()).toContain('0x02');
+      expect(await page.getByTestId('checksums').locator('tr[data-algorithm="XOR-8"]').textContent()).toContain('0x02');
       const link = page.getByTestId('sign-in-to-save');
       expect(await link.getAttribute('href')).toBe('/sign-in?next=%2Fworkbench');
       await shot(page, `workbench-${name}`);

@@ -1,4 +1,4 @@
-import { describe, expect, test } from 'vitest';
+import { describe, expect, inject, test } from 'vitest';
 import { POST as checksum } from '~/pages/api/tools/checksum';
 import { POST as convert } from '~/pages/api/tools/convert';
 import { POST as frame } from '~/pages/api/tools/frame';
@@ -48,7 +48,7 @@ describe('POST /api/tools/checksum', () => {
     // CRC RevEng catalogue: CRC-16/MODBUS check 0x4B37 over "123456789"
     expect(await call(checksum, { algorithm: 'modbus', bytes: '31 32 33 34 35 36 37 38 39' })).toEqual({
       status: 200,
-      body: { algorithm: 'CRC-16/MODBUS', value: '0x4B37', width: 16, highByteFirst: '4B 37', lowByteFirst: '37 4B' },
+      body: { algorithm: 'CRC-16/MODBUS', value: '0x4B37', width: 16, byteOrder: 'low-first', highByteFirst: '4B 37', lowByteFirst: '37 4B' },
     });
   });
   test('CRC-16/CCITT resolves to KERMIT; CRC-32; LRC', async () => {
@@ -63,6 +63,80 @@ describe('POST /api/tools/checksum', () => {
     const unknown = await call(checksum, { algorithm: 'CRC-7/NOPE', bytes: '01' });
     expect(unknown.status).toBe(422);
     expect(unknown.body.algorithms).toContain('CRC-16/KERMIT');
+  });
+});
+
+describe('POST /api/tools/checksum: more models, sums, custom parameters', () => {
+  const nine = '31 32 33 34 35 36 37 38 39';
+  test('catalogue models by alias, with the byte order the model is presented in', async () => {
+    // CRC RevEng catalogue: CRC-32/ISCSI (alias CRC-32C) check 0xE3069283, reflected; CRC-16/DNP check 0xEA82;
+    // CRC-16/GENIBUS (alias CRC-16/EPC) check 0xD64E, not reflected
+    expect((await call(checksum, { algorithm: 'crc-32c', bytes: nine })).body).toEqual({
+      algorithm: 'CRC-32/ISCSI', value: '0xE3069283', width: 32, byteOrder: 'low-first', highByteFirst: 'E3 06 92 83', lowByteFirst: '83 92 06 E3',
+    });
+    expect((await call(checksum, { algorithm: 'CRC-16/DNP', bytes: nine })).body).toMatchObject({ value: '0xEA82', byteOrder: 'low-first' });
+    expect((await call(checksum, { algorithm: 'CRC-16/EPC', bytes: nine })).body).toMatchObject({ algorithm: 'CRC-16/GENIBUS', value: '0xD64E', byteOrder: 'high-first' });
+    // common practice: sum of the bytes modulo 65536; "123456789" sums to 0x01DD
+    expect((await call(checksum, { algorithm: 'SUM-16', bytes: nine })).body).toMatchObject({ value: '0x01DD', width: 16, highByteFirst: '01 DD' });
+  });
+  test('names are ASCII and names of several widths need their prefix', async () => {
+    for (const algorithm of ['crc-16/modbuſ', 'AUTOSAR', 'XZ']) {
+      const r = await call(checksum, { algorithm, bytes: '01' });
+      expect(r.status, algorithm).toBe(422);
+      expect(r.body.algorithms).toContain('CRC-16/MODBUS');
+    }
+  });
+  test('custom CRC parameters', async () => {
+    // CRC RevEng catalogue: CRC-12/UMTS width 12 poly 0x80F init 0 refin false refout true xorout 0, check 0xDAF
+    const crc = { width: 12, poly: '0x80F', init: 0, refin: false, refout: true, xorout: '0x000' };
+    expect((await call(checksum, { algorithm: 'custom', crc, bytes: nine })).body).toEqual({
+      algorithm: 'CRC-12 custom (poly=0x80F init=0x000 refin=false refout=true xorout=0x000)', value: '0xDAF', width: 12,
+      byteOrder: 'low-first', highByteFirst: '0D AF', lowByteFirst: 'AF 0D',
+    });
+    // the parameters of CRC-16/MODBUS are CRC-16/MODBUS (CRC RevEng catalogue, check 0x4B37)
+    const modbus = { width: 16, poly: 0x8005, init: 0xffff, refin: true, refout: true, xorout: 0 };
+    expect((await call(checksum, { algorithm: 'custom', crc: modbus, bytes: nine })).body).toMatchObject({ algorithm: 'CRC-16/MODBUS', value: '0x4B37' });
+    const reversed = await call(checksum, { algorithm: 'custom', crc: { ...crc, width: 16, poly: '0x8408' }, bytes: nine });
+    expect(reversed.status).toBe(422);
+    expect(reversed.body.fields).toHaveProperty(['crc.poly']);
+    expect((await call(checksum, { algorithm: 'custom', bytes: nine })).status).toBe(422);
+    expect((await call(checksum, { algorithm: 'CRC-16/ARC', crc: modbus, bytes: nine })).status).toBe(422);
+  });
+});
+
+describe('checksum tools through the running server', () => {
+  const post = async (path: string, body: unknown) => {
+    const base = inject('baseUrl');
+    const res = await fetch(`${base}${path}`, { method: 'POST', headers: { 'content-type': 'application/json', origin: base }, body: JSON.stringify(body) });
+    return { status: res.status, body: (await res.json()) as any };
+  };
+  test('new models, custom parameters and ASCII-only names', async () => {
+    // CRC RevEng catalogue: CRC-32/BZIP2 check 0xFC891918; CRC-8/AUTOSAR check 0xDF
+    expect((await post('/api/tools/checksum', { algorithm: 'CRC-32/BZIP2', bytes: '313233343536373839' })).body).toMatchObject({ value: '0xFC891918', byteOrder: 'high-first' });
+    expect((await post('/api/tools/checksum', { algorithm: 'crc-8/autosar', bytes: '313233343536373839' })).body).toMatchObject({ algorithm: 'CRC-8/AUTOSAR', value: '0xDF' });
+    expect((await post('/api/tools/checksum', { algorithm: 'crc-16/modbuſ', bytes: '01' })).status).toBe(422);
+  });
+  test('frame tool: Modbus ASCII LRC over the decoded hex, and the protocol findings', async () => {
+    // Modbus over Serial Line V1.02, 2.5.2.2: ":" 01 03 00 00 00 01 LRC CR LF, LRC 0xFB
+    const segments = [
+      { type: 'literal', id: 'colon', bytes: '3A' },
+      { type: 'literal', id: 'pdu', bytes: '30 31 30 33 30 30 30 30 30 30 30 31' },
+      { type: 'checksum', id: 'lrc', algorithm: 'LRC', range: { from: 1, to: 'checksum' }, encoding: 'ascii-hex', over: 'decoded-hex' },
+      { type: 'terminator', id: 'end', bytes: '0D 0A' },
+    ];
+    const good = await post('/api/tools/frame', { template: { version: 1, segments }, settings: { protocol: 'modbus-ascii' } });
+    expect(good.status).toBe(200);
+    expect(good.body).toMatchObject({ ok: true, findings: [], notations: { escaped: ':010300000001FB\\r\\n' } });
+    const chars = await post('/api/tools/frame', { template: { version: 1, segments: segments.map((s) => (s.id === 'lrc' ? { ...s, over: 'bytes' } : s)) }, settings: { protocol: 'modbus-ascii' } });
+    expect(chars.body.findings.map((f: { code: string }) => f.code)).toEqual(['checksum-over-characters']);
+    // Modbus over Serial Line V1.02, 2.5.1.2: CRC-16/MODBUS low byte first; 02 07 gives 0x1241, sent 41 12 (6.2.2)
+    const rtu = (byteOrder?: string) => post('/api/tools/frame', {
+      template: { version: 1, segments: [{ type: 'literal', id: 'p', bytes: '02 07' }, { type: 'checksum', id: 'crc', algorithm: 'CRC-16/MODBUS', ...(byteOrder ? { byteOrder } : {}) }] },
+      settings: { protocol: 'modbus-rtu', parity: 'even' },
+    });
+    expect((await rtu()).body).toMatchObject({ ok: true, bytes: '02 07 41 12', findings: [] });
+    const high = await rtu('high-first');
+    expect(high.body).toMatchObject({ ok: false, bytes: '02 07 12 41', findings: [{ code: 'checksum-byte-order', severity: 'error', range: [2, 4] }] });
   });
 });
 

@@ -6,7 +6,7 @@ import { useMemo, useState, type ReactNode } from 'react';
 import { previewFrame } from '../../lib/frame/preview';
 import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
-import { starterTemplate } from '../../lib/composer/segments';
+import { restartForPort, starterTemplate } from '../../lib/composer/segments';
 import { timingSummary } from '../../lib/composer/timing';
 import { wireLayout } from '../../lib/composer/wire';
 import { decodeReplyLength } from '../../lib/composer/reply-length';
@@ -74,10 +74,15 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
       <div className="grid gap-4 lg:grid-cols-2 items-start">
         <div className="grid gap-4 min-w-0">
           <Section title="Port" id="port">
-            {portSlot ? portSlot(ownSettings, setOwnSettings) : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => patch({ portName })} />}
+            {portSlot
+              ? portSlot(ownSettings, (s) => { setOwnSettings(s); patch({ template: restartForPort(draft.template, ownSettings, s) }); })
+              : <PortPicker ports={ports} value={draft.portName} readOnly={readOnly} onChange={(portName) => {
+                const next = ports.find((p) => p.name === portName);
+                patch({ portName, template: next ? restartForPort(draft.template, settings, next.settings) : draft.template });
+              }} />}
           </Section>
           <Section title="Segments" id="segments">
-            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
               onChange={(t) => patch({ template: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
             {request.error && <p className="notice notice-bad text-sm mt-2" role="alert">{request.error}</p>}
           </Section>
@@ -100,7 +105,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
       <Section title="Reply" id="reply"
         aside={!readOnly && (
           <label className="text-sm flex items-center gap-2">
-            <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules) : null })} />
+            <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules, settings.protocol) : null })} />
             The device answers this command
           </label>
         )}>
@@ -108,7 +113,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <div className="grid gap-4 lg:grid-cols-2">
             <div className="min-w-0">
               <h3 className="font-semibold mb-1">Expected reply</h3>
-              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} rawUnits={draft.rawUnits} readOnly={readOnly}
+              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
                 onChange={(t) => patch({ replyTemplate: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
               {reply.error && <p className="notice notice-bad text-sm mt-2" role="alert">{reply.error}</p>}
             </div>

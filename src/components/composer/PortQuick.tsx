@@ -1,6 +1,8 @@
-/** The workbench's own port settings: line format and the frame rules that matter for a one-off command. */
-import { PARITIES, STANDARD_BAUD_RATES, type PortSettings } from '../../lib/frame/port-settings';
+/** The workbench's own port settings: line format, protocol and the frame rules that matter for a one-off command. */
+import { PARITIES, PROTOCOLS, STANDARD_BAUD_RATES, type PortSettings } from '../../lib/frame/port-settings';
 import { HexInput } from './inputs';
+
+const PROTOCOL_LABELS: Record<PortSettings['protocol'], string> = { ascii: 'ASCII text', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' };
 
 export function PortQuick({ settings, onChange }: { settings: PortSettings; onChange: (s: PortSettings) => void }) {
   const set = (p: Partial<PortSettings>) => onChange({ ...settings, ...p });
@@ -29,6 +31,12 @@ export function PortQuick({ settings, onChange }: { settings: PortSettings; onCh
         <label htmlFor="wb-stop" className="label !text-xs">Stop bits</label>
         <select id="wb-stop" className="input !py-1" value={settings.stopBits} onChange={(e) => set({ stopBits: Number(e.target.value) as PortSettings['stopBits'] })}>
           {[1, 1.5, 2].map((b) => <option key={b} value={b}>{b}</option>)}
+        </select>
+      </div>
+      <div>
+        <label htmlFor="wb-protocol" className="label !text-xs">Protocol</label>
+        <select id="wb-protocol" className="input !py-1" value={settings.protocol} onChange={(e) => set({ protocol: e.target.value as PortSettings['protocol'] })}>
+          {PROTOCOLS.map((p) => <option key={p} value={p}>{PROTOCOL_LABELS[p]}</option>)}
         </select>
       </div>
       <div>

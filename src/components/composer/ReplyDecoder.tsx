@@ -1,7 +1,7 @@
 /** Paste a received reply in any notation: decoded fields, the checksum verdict and findings. */
 import { useMemo } from 'react';
 import { decodeReply } from '../../lib/frame/decode-reply';
-import { formatChecksumValue, findChecksumAlgorithm } from '../../lib/frame/checksum';
+import { formatChecksumValue, resolveChecksum } from '../../lib/frame/checksum';
 import type { Template } from '../../lib/frame/template';
 import { BytesInput, useBytesInput } from './BytesInput';
 import { FindingsList } from './FindingsList';
@@ -16,7 +16,8 @@ export function ReplyDecoder({ template }: { template: Template }) {
       {decoded && (
         <div className="grid gap-3" data-testid="reply-result">
           {decoded.checksums.map((c) => {
-            const width = findChecksumAlgorithm(c.algorithm)?.width ?? 8;
+            const seg = template.segments.find((s) => s.id === c.segmentId);
+            const width = (seg?.type === 'checksum' ? resolveChecksum(seg)?.width : undefined) ?? 8;
             return (
               <p key={c.segmentId} className={`notice ${c.ok ? 'notice-ok' : 'notice-bad'}`} data-testid="checksum-verdict" data-ok={c.ok}>
                 <b>{c.ok ? 'Checksum good' : 'Checksum wrong'}</b> · {c.algorithm}: expected <span className="mono">{formatChecksumValue(c.expected, width)}</span>, received{' '}

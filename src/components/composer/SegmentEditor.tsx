@@ -1,6 +1,8 @@
 /** The segment list: add literal text, control characters, fields, a checksum and a terminator; reorder, duplicate, remove. */
 import { useState } from 'react';
+import { resolveChecksum } from '../../lib/frame/checksum';
 import type { FrameRulesInput } from '../../lib/frame/frame-rules';
+import type { PortSettings } from '../../lib/frame/port-settings';
 import type { Segment, Template } from '../../lib/frame/template';
 import { ADD_KINDS, addSegment, duplicateSegment, nudgeSegment, removeSegment, replaceSegment, type AddKind } from '../../lib/composer/segments';
 import { CONTROL_CHOICES, labelOfBytes } from '../../lib/composer/bytes-text';
@@ -13,6 +15,8 @@ interface Props {
   template: Template;
   onChange: (t: Template) => void;
   rules: FrameRulesInput;
+  /** The port's protocol: a new checksum follows it (LRC over the decoded hex for Modbus ASCII, CRC-16/MODBUS low byte first for RTU). */
+  protocol?: PortSettings['protocol'];
   rawUnits: Record<string, string>;
   onRawUnits: (r: Record<string, string>) => void;
   readOnly: boolean;
@@ -21,11 +25,11 @@ interface Props {
 function summary(s: Segment): string {
   if (s.type === 'literal') return labelOfBytes(s.bytes);
   if (s.type === 'terminator') return labelOfBytes(s.bytes);
-  if (s.type === 'checksum') return `${s.algorithm} · ${s.encoding === 'binary' ? 'binary' : s.encoding === 'ascii-hex' ? 'hex characters' : 'decimal characters'}`;
+  if (s.type === 'checksum') return `${resolveChecksum(s)?.name ?? s.algorithm} · ${s.encoding === 'binary' ? 'binary' : s.encoding === 'ascii-hex' ? 'hex characters' : 'decimal characters'}${s.over === 'decoded-hex' ? ' · over the decoded hex' : ''}`;
   return `${s.name}${'unit' in s && s.unit ? ` (${s.unit})` : ''}`;
 }
 
-export function SegmentEditor({ idPrefix, template, onChange, rules, rawUnits, onRawUnits, readOnly }: Props) {
+export function SegmentEditor({ idPrefix, template, onChange, rules, protocol, rawUnits, onRawUnits, readOnly }: Props) {
   const [kind, setKind] = useState<AddKind>('text');
   const [text, setText] = useState('');
   const [code, setCode] = useState(0x0d);
@@ -33,7 +37,7 @@ export function SegmentEditor({ idPrefix, template, onChange, rules, rawUnits, o
   const hasTerminator = template.segments.some((s) => s.type === 'terminator');
   const add = () => {
     if (kind === 'text' && !text) return;
-    const next = addSegment(template, kind, rules, { text, code });
+    const next = addSegment(template, kind, rules, { text, code, protocol });
     const added = next.segments.find((s) => !template.segments.some((o) => o.id === s.id));
     onChange(next);
     setText('');

@@ -1,11 +1,13 @@
 /** The editing controls for one segment, by type. */
-import { listChecksumAlgorithms } from '../../lib/frame/checksum';
-import type { Segment, Template } from '../../lib/frame/template';
+import { CUSTOM_CRC, defaultChecksumByteOrder, findChecksumAlgorithm, isCustomCrcName, listChecksumAlgorithms } from '../../lib/frame/checksum';
+import type { ChecksumSegment, Segment, Template } from '../../lib/frame/template';
 import { CONTROL_CHOICES, hexOfText, labelOfBytes, textOfHex } from '../../lib/composer/bytes-text';
 import { isDegrees, scaleFromStepsPerRev, stepsPerRevOf } from '../../lib/composer/scaling';
 import { HexInput, Labeled, NumInput } from './inputs';
 
 const ALGORITHMS = listChecksumAlgorithms();
+/** Starting point for own CRC parameters: CRC-16/XMODEM's, which the user then edits. */
+const CUSTOM_START = { width: 16, poly: '0x1021', init: '0x0000', refin: false, refout: false, xorout: '0x0000' };
 
 interface Props {
   seg: Segment;
@@ -53,42 +55,7 @@ export function SegmentFields({ seg, index, template, onChange, rawUnit, onRawUn
       </Labeled>
     );
   }
-  if (seg.type === 'checksum') {
-    const before = template.segments.slice(0, index).map((s, i) => ({ i, s }));
-    return (
-      <div className="grid grid-cols-2 gap-2">
-        <Labeled id={id('alg')} label="Algorithm">
-          <select id={id('alg')} className="input !py-1" value={seg.algorithm} {...ro} onChange={(e) => onChange({ ...seg, algorithm: e.target.value })}>
-            {ALGORITHMS.map((a) => <option key={a.name} value={a.name}>{a.name}</option>)}
-          </select>
-        </Labeled>
-        <Labeled id={id('enc')} label="Sent as">
-          <select id={id('enc')} className="input !py-1" value={seg.encoding} {...ro} onChange={(e) => onChange({ ...seg, encoding: e.target.value as never })}>
-            <option value="binary">Binary bytes</option><option value="ascii-hex">Hex characters</option><option value="ascii-decimal">Decimal characters</option>
-          </select>
-        </Labeled>
-        <Labeled id={id('from')} label="Covers from">
-          <select id={id('from')} className="input !py-1" value={String(seg.range.from)} {...ro}
-            onChange={(e) => onChange({ ...seg, range: { ...seg.range, from: e.target.value === 'start' ? 'start' : Number(e.target.value) } })}>
-            <option value="start">Frame start</option>
-            {before.map(({ i, s }) => <option key={s.id} value={i}>#{i + 1} {s.type}</option>)}
-          </select>
-        </Labeled>
-        <Labeled id={id('to')} label="Covers to">
-          <select id={id('to')} className="input !py-1" value={String(seg.range.to)} {...ro}
-            onChange={(e) => onChange({ ...seg, range: { ...seg.range, to: e.target.value === 'checksum' ? 'checksum' : Number(e.target.value) } })}>
-            <option value="checksum">Just before the checksum</option>
-            {before.map(({ i, s }) => <option key={s.id} value={i}>#{i + 1} {s.type}</option>)}
-          </select>
-        </Labeled>
-        <Labeled id={id('order')} label="Byte order">
-          <select id={id('order')} className="input !py-1" value={seg.byteOrder} {...ro} onChange={(e) => onChange({ ...seg, byteOrder: e.target.value as never })}>
-            <option value="high-first">High byte first</option><option value="low-first">Low byte first</option>
-          </select>
-        </Labeled>
-      </div>
-    );
-  }
+  if (seg.type === 'checksum') return <ChecksumFields seg={seg} index={index} template={template} onChange={onChange} readOnly={readOnly} />;
   const common = (
     <>
       <Labeled id={id('name')} label="Name (key)">
@@ -169,6 +136,83 @@ export function SegmentFields({ seg, index, template, onChange, rawUnit, onRawUn
             const options = e.target.value.split('\n').map((l) => l.split('=')).filter((p) => p.length >= 2 && p[0]!.trim()).map(([value, ...send]) => ({ value: value!.trim(), send: send.join('=') }));
             if (options.length) onChange({ ...seg, options, default: options.some((o) => o.value === seg.default) ? seg.default : options[0]!.value });
           }} />
+      </Labeled>
+    </div>
+  );
+}
+
+function ChecksumFields({ seg, index, template, onChange, readOnly }: { seg: ChecksumSegment; index: number; template: Template; onChange: (s: Segment) => void; readOnly: boolean }) {
+  const id = (k: string) => `seg-${seg.id}-${k}`;
+  const ro = { readOnly, disabled: readOnly };
+  const before = template.segments.slice(0, index).map((s, i) => ({ i, s }));
+  const custom = isCustomCrcName(seg.algorithm);
+  const known = findChecksumAlgorithm(seg.algorithm);
+  // A new algorithm or encoding brings the model's byte order (CRC-16/MODBUS in binary: low byte first).
+  const change = (next: ChecksumSegment) => onChange({ ...next, byteOrder: defaultChecksumByteOrder(next) });
+  const crc = seg.crc ?? CUSTOM_START;
+  const setCrc = (p: Partial<typeof crc>) => onChange({ ...seg, crc: { ...crc, ...p } });
+  return (
+    <div className="grid grid-cols-2 gap-2">
+      <Labeled id={id('alg')} label="Algorithm">
+        <select id={id('alg')} className="input !py-1" value={custom ? CUSTOM_CRC : known?.name ?? seg.algorithm} {...ro}
+          onChange={(e) => {
+            const algorithm = e.target.value;
+            const { crc: _crc, ...rest } = seg;
+            change(isCustomCrcName(algorithm) ? { ...rest, algorithm, crc: seg.crc ?? CUSTOM_START } : { ...rest, algorithm });
+          }}>
+          {ALGORITHMS.map((a) => <option key={a.name} value={a.name}>{a.name}</option>)}
+          <option value={CUSTOM_CRC}>Custom CRC (own parameters)</option>
+        </select>
+        {known && known.aliases.length > 0 && <p className="text-xs text-muted mt-1">Also called {known.aliases.join(', ')}</p>}
+      </Labeled>
+      <Labeled id={id('enc')} label="Sent as">
+        <select id={id('enc')} className="input !py-1" value={seg.encoding} {...ro} onChange={(e) => change({ ...seg, encoding: e.target.value as never })}>
+          <option value="binary">Binary bytes</option><option value="ascii-hex">Hex characters</option><option value="ascii-decimal">Decimal characters</option>
+        </select>
+      </Labeled>
+      {custom && (
+        <>
+          <Labeled id={id('width')} label="Width (bits, 1-32)">
+            <NumInput id={id('width')} value={crc.width} integer min={1} allowEmpty={false} readOnly={readOnly} onChange={(w) => setCrc({ width: w ?? 16 })} />
+          </Labeled>
+          <Labeled id={id('poly')} label="Polynomial (hex, normal form)">
+            <input id={id('poly')} className="input !py-1 mono" value={crc.poly} readOnly={readOnly} onChange={(e) => setCrc({ poly: e.target.value.trim() })} />
+          </Labeled>
+          <Labeled id={id('init')} label="Initial value (hex)">
+            <input id={id('init')} className="input !py-1 mono" value={crc.init} readOnly={readOnly} onChange={(e) => setCrc({ init: e.target.value.trim() })} />
+          </Labeled>
+          <Labeled id={id('xorout')} label="Final XOR (hex)">
+            <input id={id('xorout')} className="input !py-1 mono" value={crc.xorout} readOnly={readOnly} onChange={(e) => setCrc({ xorout: e.target.value.trim() })} />
+          </Labeled>
+          <div className="col-span-2 flex flex-wrap gap-4 text-sm">
+            <label className="flex items-center gap-2"><input type="checkbox" checked={crc.refin} {...ro} onChange={(e) => setCrc({ refin: e.target.checked })} />Bytes read low bit first (refin)</label>
+            <label className="flex items-center gap-2"><input type="checkbox" checked={crc.refout} {...ro} onChange={(e) => setCrc({ refout: e.target.checked })} />Result reflected (refout)</label>
+          </div>
+        </>
+      )}
+      <Labeled id={id('from')} label="Covers from">
+        <select id={id('from')} className="input !py-1" value={String(seg.range.from)} {...ro}
+          onChange={(e) => onChange({ ...seg, range: { ...seg.range, from: e.target.value === 'start' ? 'start' : Number(e.target.value) } })}>
+          <option value="start">Frame start</option>
+          {before.map(({ i, s }) => <option key={s.id} value={i}>#{i + 1} {s.type}</option>)}
+        </select>
+      </Labeled>
+      <Labeled id={id('to')} label="Covers to">
+        <select id={id('to')} className="input !py-1" value={String(seg.range.to)} {...ro}
+          onChange={(e) => onChange({ ...seg, range: { ...seg.range, to: e.target.value === 'checksum' ? 'checksum' : Number(e.target.value) } })}>
+          <option value="checksum">Just before the checksum</option>
+          {before.map(({ i, s }) => <option key={s.id} value={i}>#{i + 1} {s.type}</option>)}
+        </select>
+      </Labeled>
+      <Labeled id={id('over')} label="Computed over">
+        <select id={id('over')} className="input !py-1" value={seg.over ?? 'bytes'} {...ro} onChange={(e) => onChange({ ...seg, over: e.target.value as never })}>
+          <option value="bytes">The bytes as sent</option><option value="decoded-hex">The bytes the hex text stands for (Modbus ASCII)</option>
+        </select>
+      </Labeled>
+      <Labeled id={id('order')} label="Byte order">
+        <select id={id('order')} className="input !py-1" value={seg.byteOrder ?? defaultChecksumByteOrder(seg)} {...ro} onChange={(e) => onChange({ ...seg, byteOrder: e.target.value as never })}>
+          <option value="high-first">High byte first</option><option value="low-first">Low byte first</option>
+        </select>
       </Labeled>
     </div>
   );

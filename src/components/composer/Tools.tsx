@@ -22,7 +22,7 @@ export function Tools() {
             <tbody>
               {ALGORITHMS.map((a) => {
                 const r = computeChecksum(a.name, bytes);
-                return <tr key={a.name}><td>{a.name}</td><td className="mono">{r.ok ? formatChecksumValue(r.value.value, r.value.width) : '–'}</td></tr>;
+                return <tr key={a.name} data-algorithm={a.name}><td>{a.name}</td><td className="mono">{r.ok ? formatChecksumValue(r.value.value, r.value.width) : '–'}</td></tr>;
               })}
             </tbody>
           </table>

@@ -39,7 +39,7 @@ export const jogTemplate = (dir: '+' | '-'): Template => ({
 
 export const statusQueryTemplate: Template = {
   version: 1,
-  segments: [address, lit('verb', '?STA'), lit('star', '*'), { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 1 }, encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' }, cr],
+  segments: [address, lit('verb', '?STA'), lit('star', '*'), { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 1 }, over: 'bytes', encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' }, cr],
 };
 
 export const statusReplyTemplate: Template = {
@@ -50,7 +50,7 @@ export const statusReplyTemplate: Template = {
     lit('comma', ','),
     { type: 'choice', id: 'state', name: 'state', label: 'State', options: [{ value: 'ready', label: 'Ready', send: 'R' }, { value: 'moving', label: 'Moving', send: 'M' }, { value: 'fault', label: 'Fault', send: 'F' }] },
     lit('star', '*'),
-    { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 4 }, encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' },
+    { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 4 }, over: 'bytes', encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' },
     cr,
   ],
 };

@@ -1,6 +1,7 @@
 /** Template edits for the segment editor: add, duplicate, remove and move segments, keeping checksum ranges right. */
 import { CONTROL_NAMES } from '../frame/notations/mnemonic';
-import { findChecksumAlgorithm } from '../frame/checksum';
+import { defaultChecksumByteOrder, findChecksumAlgorithm } from '../frame/checksum';
+import type { PortSettings } from '../frame/port-settings';
 import { moveSegment, type ChecksumSegment, type Segment, type Template } from '../frame/template';
 import type { FrameRulesInput } from '../frame/frame-rules';
 import { hexOfText, labelOfBytes } from './bytes-text';
@@ -20,12 +21,30 @@ export const ADD_KINDS: { kind: AddKind; label: string }[] = [
 
 export const emptyTemplate = (): Template => ({ version: 1, segments: [] });
 
-/** A first template for a port: its start bytes and its terminator (carriage return when the rules name none). */
-export function starterTemplate(rules: FrameRulesInput = {}): Template {
+type Protocol = PortSettings['protocol'];
+
+/**
+ * A first template for a port: its start bytes and its terminator. Without frame rules: ":" and CR LF for
+ * Modbus ASCII (Modbus over Serial Line V1.02, 2.5.2), nothing for Modbus RTU (frames are delimited by
+ * silence), a carriage return otherwise.
+ */
+export function starterTemplate(rules: FrameRulesInput = {}, protocol?: Protocol): Template {
   const segments: Segment[] = [];
-  if (rules.start) segments.push({ type: 'literal', id: 'start', bytes: rules.start, label: labelOfBytes(rules.start) });
-  segments.push({ type: 'terminator', id: 'end', bytes: rules.terminator ?? '0D' });
+  const start = rules.start ?? (protocol === 'modbus-ascii' ? '3A' : undefined);
+  const terminator = rules.terminator ?? (protocol === 'modbus-ascii' ? '0D 0A' : protocol === 'modbus-rtu' ? undefined : '0D');
+  if (start) segments.push({ type: 'literal', id: 'start', bytes: start, label: labelOfBytes(start) });
+  if (terminator) segments.push({ type: 'terminator', id: 'end', bytes: terminator });
   return { version: 1, segments };
+}
+
+/**
+ * The template for a newly chosen port: a template still equal to the old port's starter becomes the new
+ * port's starter (a new command on a Modbus RTU port moved to an ASCII port gains its terminator); any
+ * edited template is kept as it is.
+ */
+export function restartForPort(t: Template, from: Pick<PortSettings, 'frameRules' | 'protocol'>, to: Pick<PortSettings, 'frameRules' | 'protocol'>): Template {
+  const untouched = JSON.stringify(t.segments) === JSON.stringify(starterTemplate(from.frameRules, from.protocol).segments);
+  return untouched ? { ...t, segments: starterTemplate(to.frameRules, to.protocol).segments } : t;
 }
 
 function freeId(t: Template, prefix: string): string {
@@ -39,10 +58,15 @@ function freeName(t: Template, base: string): string {
   for (let n = 2; ; n++) if (!names.has(`${base}${n}`)) return `${base}${n}`;
 }
 
-/** Where new segments go: before the terminator (and a checksum after it), else at the end. */
+/**
+ * Where new segments go: before the terminator (and a checksum after it), else at the end; in both cases
+ * before the checksums that close the frame (Modbus: payload, checksum, CR LF).
+ */
 export function insertionIndex(t: Template): number {
   const term = t.segments.findIndex((s) => s.type === 'terminator');
-  return term < 0 ? t.segments.length : term;
+  let at = term < 0 ? t.segments.length : term;
+  while (at > 0 && t.segments[at - 1]!.type === 'checksum') at--;
+  return at;
 }
 
 export interface AddOptions {
@@ -50,8 +74,13 @@ export interface AddOptions {
   text?: string;
   /** Byte value 0x00-0x1F or 0x7F (kind `control`). */
   code?: number;
-  /** Checksum algorithm name (kind `checksum`), default XOR-8 (block check character). */
+  /**
+   * Checksum algorithm name (kind `checksum`); default by protocol: LRC for Modbus ASCII, CRC-16/MODBUS
+   * for Modbus RTU, else XOR-8 (block check character).
+   */
   algorithm?: string;
+  /** The port's protocol: sets the checksum's algorithm, encoding and what it is computed over. */
+  protocol?: Protocol;
 }
 
 /** Applies the frame rules' letter case to literal text. */
@@ -80,8 +109,17 @@ export function makeSegment(t: Template, kind: AddKind, rules: FrameRulesInput =
     case 'choice':
       return { type: 'choice', id: freeId(t, 'f'), name: freeName(t, 'mode'), label: 'Mode', default: 'a', options: [{ value: 'a', label: 'First', send: 'A' }, { value: 'b', label: 'Second', send: 'B' }] };
     case 'checksum': {
-      const algorithm = findChecksumAlgorithm(opts.algorithm ?? 'XOR-8')?.name ?? 'XOR-8';
-      return { type: 'checksum', id: freeId(t, 'sum'), algorithm, range: { from: 'start', to: 'checksum' }, encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' };
+      const protocol = opts.protocol;
+      const fallback = protocol === 'modbus-ascii' ? 'LRC' : protocol === 'modbus-rtu' ? 'CRC-16/MODBUS' : 'XOR-8';
+      const algorithm = findChecksumAlgorithm(opts.algorithm ?? fallback)?.name ?? fallback;
+      const encoding = protocol === 'modbus-rtu' ? 'binary' : 'ascii-hex';
+      // Modbus ASCII: the LRC covers the bytes the hex stands for, from after the ":" (Modbus over Serial Line V1.02, 2.5.2.2)
+      const decoded = protocol === 'modbus-ascii';
+      const afterStart = decoded && t.segments[0]?.type === 'literal' && insertionIndex(t) > 1;
+      return {
+        type: 'checksum', id: freeId(t, 'sum'), algorithm, range: { from: afterStart ? 1 : 'start', to: 'checksum' }, over: decoded ? 'decoded-hex' : 'bytes',
+        encoding, byteOrder: defaultChecksumByteOrder({ algorithm, encoding }), case: 'upper',
+      };
     }
     case 'terminator':
       return { type: 'terminator', id: freeId(t, 'end'), bytes: rules.terminator ?? '0D' };

@@ -1,6 +1,6 @@
 /** Builds the bytes of a command from a template and field values. */
 import { ByteWriter } from './bytes';
-import { findChecksumAlgorithm, placeChecksum } from './checksum';
+import { checksumOfRange, placeChecksum, resolveChecksum } from './checksum';
 import { encodeField } from './field-encode';
 import type { Finding } from './findings';
 import { isClean } from './findings';
@@ -53,6 +53,14 @@ export function checksumRange(segment: ChecksumSegment, spans: readonly SegmentS
   return [start, Math.max(start, end)];
 }
 
+/** The finding when a checksum over decoded hex covers something that is not hex text. */
+export function notHexFinding(s: ChecksumSegment, problem: { at: number; message: string }): Finding {
+  return {
+    severity: 'error', code: 'checksum-not-hex', segmentId: s.id, range: [problem.at, problem.at + 1],
+    message: `The checksum is computed over the bytes its hex characters stand for, but ${problem.message}. Let it cover only the hex text (for Modbus ASCII: from after the ":" up to the checksum).`,
+  };
+}
+
 /**
  * Lays the segments out in order. Field problems become findings and the frame is still built (with
  * nothing sent for a field that has no usable value) so a preview can show it.
@@ -70,14 +78,15 @@ export function assembleFrame(template: Template, values: FieldValues = {}): Ass
       out.pushBytes(segmentBytes(s));
       segments.push({ index, id: s.id, type: s.type, start, end: out.length });
     } else if (s.type === 'checksum') {
-      const algorithm = findChecksumAlgorithm(s.algorithm);
+      const algorithm = resolveChecksum(s);
       if (!algorithm) {
         findings.push({ severity: 'error', code: 'field-invalid', segmentId: s.id, message: `Checksum "${s.algorithm}" is not in the catalogue; pick another algorithm.` });
         segments.push({ index, id: s.id, type: s.type, start, end: start });
         continue;
       }
       const [from, to] = checksumRange(s, segments, start);
-      const value = algorithm.compute(out.view(), from, to);
+      const { value, problem } = checksumOfRange(algorithm, s.over, out.view(), from, to);
+      if (problem) findings.push(notHexFinding(s, problem));
       out.pushBytes(placeChecksum(value, algorithm.width, s));
       segments.push({ index, id: s.id, type: s.type, start, end: out.length, raw: value });
     } else {

@@ -1,7 +1,7 @@
 /** Reads a received reply against a reply template: field values, checksum verdicts, and mismatches. */
 import { HEX_PAIR, bytesAt, bytesToLatin1, indexOfBytes, toHex } from './bytes';
-import { type SegmentSpan, checksumRange, segmentBytes } from './assemble';
-import { checksumLength, findChecksumAlgorithm, formatChecksumValue, placeChecksum } from './checksum';
+import { type SegmentSpan, checksumRange, notHexFinding, segmentBytes } from './assemble';
+import { checksumLength, checksumOfRange, formatChecksumValue, placeChecksum, resolveChecksum } from './checksum';
 import { rawToEngineering, readNumber } from './field-format';
 import { type Finding, isClean } from './findings';
 import type { ChecksumSegment, Segment, Template } from './template';
@@ -37,7 +37,7 @@ export interface DecodedReply {
 function fixedLength(s: Segment): number | undefined {
   if (s.type === 'literal' || s.type === 'terminator') return segmentBytes(s).length;
   if (s.type === 'checksum') {
-    const a = findChecksumAlgorithm(s.algorithm);
+    const a = resolveChecksum(s);
     return a ? checksumLength(a.width, s.encoding) : 0;
   }
   if ((s.type === 'integer' || s.type === 'decimal') && s.width !== undefined) return s.width;
@@ -49,7 +49,7 @@ function fixedLength(s: Segment): number | undefined {
 }
 
 function readReceivedChecksum(bytes: Uint8Array, seg: ChecksumSegment, width: number): number | null {
-  const n = width / 8;
+  const n = Math.ceil(width / 8);
   if (seg.encoding === 'binary') {
     let v = 0;
     for (let i = 0; i < n; i++) {
@@ -94,7 +94,7 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
       pos = Math.min(bytes.length, pos + want.length);
       spans.push({ index, id: s.id, type: s.type, start, end: pos });
     } else if (s.type === 'checksum') {
-      const a = findChecksumAlgorithm(s.algorithm);
+      const a = resolveChecksum(s);
       if (!a) continue;
       const len = checksumLength(a.width, s.encoding);
       if (pos + len > bytes.length) {
@@ -104,7 +104,8 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
         continue;
       }
       const [from, to] = checksumRange(s, spans, pos);
-      const expected = a.compute(bytes, from, to);
+      const { value: expected, problem } = checksumOfRange(a, s.over, bytes, from, to);
+      if (problem) findings.push(notHexFinding(s, problem));
       const ok = bytesAt(bytes, placeChecksum(expected, a.width, s), pos);
       const received = readReceivedChecksum(bytes.subarray(pos, pos + len), s, a.width);
       pos += len;

@@ -6,10 +6,12 @@ export type Severity = 'error' | 'warning' | 'info';
 export const FINDING_CODES = [
   // assembly of fields (assembleFrame)
   'field-missing', 'field-invalid', 'field-out-of-range', 'field-not-integer', 'field-rounded', 'field-too-wide',
-  'field-too-long', 'field-invalid-char',
+  'field-too-long', 'field-invalid-char', 'checksum-not-hex',
   // frame rules (checkFrame)
   'empty-frame', 'missing-start', 'missing-terminator', 'start-in-payload', 'terminator-in-payload', 'forbidden-byte',
   'byte-exceeds-data-bits', 'byte-outside-set', 'frame-too-long', 'wrong-case', 'address-out-of-range',
+  // checksum settings against the port's protocol (previewFrame)
+  'checksum-byte-order', 'checksum-over-characters',
   // reply decoding (decodeReply)
   'reply-mismatch', 'reply-too-short', 'reply-extra-bytes', 'reply-field-unreadable', 'checksum-mismatch',
 ] as const;

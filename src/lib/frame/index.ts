@@ -12,8 +12,10 @@ export { type RegisterWords, type WordByteOrder, packRegisterWords, unpackRegist
 
 export {
   type ChecksumAlgorithm, type ChecksumKind, type ChecksumValue, type ChecksumEncoding, type ChecksumPlacement, type ByteOrder,
-  type CrcModel, type CrcParams, CHECKSUM_ALGORITHMS, CRC_MODELS, createCrc, findChecksumAlgorithm, listChecksumAlgorithms,
-  computeChecksum, formatChecksumValue, checksumLength, placeChecksum, nmeaChecksum, lrc8, xor8, sum8,
+  type ChecksumInput, type CrcModel, type CrcParams, type CrcParamsInput, type CrcParamsText, CHECKSUM_ALGORITHMS, CRC_MODELS,
+  CUSTOM_CRC, createCrc, crcParamsSchema, isCustomCrcName, customCrcAlgorithm, findChecksumAlgorithm, listChecksumAlgorithms, resolveChecksum,
+  defaultChecksumByteOrder, checksumOfRange, computeChecksum, formatChecksumValue, checksumLength, placeChecksum, nmeaChecksum,
+  lrc8, xor8, sum8, sum16,
 } from './checksum';
 
 export {
@@ -28,6 +30,7 @@ export { roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
 
 export { type AssembledFrame, type SegmentSpan, assembleFrame } from './assemble';
 export { checkFrame } from './check-frame';
+export { checkChecksumProtocol } from './checksum-protocol';
 export { type FramePreview, previewFrame } from './preview';
 export { FINDING_CODES, type Finding, type FindingCode, type Severity, isClean, overallState } from './findings';
 export { BYTE_SETS, type ByteSet, frameRulesSchema, type FrameRules, type FrameRulesInput, defaultFrameRules } from './frame-rules';

@@ -3,7 +3,7 @@
  * Saved JSON form: `{ "version": 1, "segments": [...] }`; bytes inside it are hex text.
  */
 import { z } from 'zod';
-import { findChecksumAlgorithm } from './checksum';
+import { type ByteOrder, crcParamsSchema, defaultChecksumByteOrder, isCustomCrcName, resolveChecksum } from './checksum';
 import { type Result, failure, success } from './result';
 import { hexBytesSchema } from './schema-common';
 
@@ -68,13 +68,19 @@ export const choiceFieldSchema = z.object({
 export const checksumSegmentSchema = z.object({
   type: z.literal('checksum'),
   id: idSchema,
-  algorithm: z.string().refine((a) => findChecksumAlgorithm(a) !== undefined, 'Unknown checksum algorithm'),
+  /** A catalogue name or alias (ASCII), or `custom` with the CRC parameters in `crc`. */
+  algorithm: z.string().max(64),
+  /** Own CRC parameters (width 1-32, poly, init, refin, refout, xorout), only with `algorithm: "custom"`. */
+  crc: crcParamsSchema.optional(),
   /** Covered bytes: from the start of segment `from` (or the frame start) to the end of segment `to` (or up to this checksum). */
   range: z
     .object({ from: z.union([z.literal('start'), z.number().int().min(0)]), to: z.union([z.literal('checksum'), z.number().int().min(0)]) })
     .default({ from: 'start', to: 'checksum' }),
+  /** `bytes`: the covered bytes as sent; `decoded-hex`: the bytes their hex characters stand for (Modbus ASCII LRC). */
+  over: z.enum(['bytes', 'decoded-hex']).default('bytes'),
   encoding: z.enum(['binary', 'ascii-hex', 'ascii-decimal']).default('binary'),
-  byteOrder: z.enum(['low-first', 'high-first']).default('high-first'),
+  /** None given: the model's order for binary (low byte first for reflected CRCs such as CRC-16/MODBUS), else high byte first. */
+  byteOrder: z.enum(['low-first', 'high-first']).optional(),
   case: z.enum(['upper', 'lower']).default('upper'),
 });
 
@@ -103,23 +109,33 @@ export const templateSchema = z
       if ((s.type === 'integer' || s.type === 'decimal') && s.min !== undefined && s.max !== undefined && s.min > s.max) at('min must not be above max', 'min');
       if (s.type === 'terminator' && ++terminators > 1) at('A template has at most one terminator');
       if (s.type === 'checksum') {
+        if (isCustomCrcName(s.algorithm)) {
+          if (!s.crc) at('A custom CRC needs its parameters: width, poly, init, refin, refout, xorout', 'crc');
+        } else if (s.crc) at(`CRC parameters are given only with the algorithm "custom", not with "${s.algorithm}"`, 'crc');
+        else if (!resolveChecksum(s)) at('Unknown checksum algorithm', 'algorithm');
         const from = s.range.from === 'start' ? 0 : s.range.from;
         const to = s.range.to === 'checksum' ? i - 1 : s.range.to;
         if (from >= i || to >= i) at('A checksum can only cover segments before it', 'range');
         else if (from > to) at('The checksum range starts after it ends', 'range');
       }
     });
-  });
+  })
+  .transform((t) => ({
+    ...t,
+    segments: t.segments.map((s) => (s.type === 'checksum' && s.byteOrder === undefined ? { ...s, byteOrder: defaultChecksumByteOrder(s) } : s)) as Segment[],
+  }));
 
-export type Template = z.infer<typeof templateSchema>;
+type ParsedSegment = z.output<typeof segmentSchema>;
+/** A checksum segment after parsing: the byte order is always filled in. */
+export type ChecksumSegment = Omit<z.output<typeof checksumSegmentSchema>, 'byteOrder'> & { byteOrder: ByteOrder };
+export type Segment = Exclude<ParsedSegment, { type: 'checksum' }> | ChecksumSegment;
+export type Template = z.output<typeof templateSchema>;
 export type TemplateInput = z.input<typeof templateSchema>;
-export type Segment = Template['segments'][number];
 export type SegmentType = Segment['type'];
 export type IntegerField = z.infer<typeof integerFieldSchema>;
 export type DecimalField = z.infer<typeof decimalFieldSchema>;
 export type TextField = z.infer<typeof textFieldSchema>;
 export type ChoiceField = z.infer<typeof choiceFieldSchema>;
-export type ChecksumSegment = z.infer<typeof checksumSegmentSchema>;
 export type FieldSegment = IntegerField | DecimalField | TextField | ChoiceField;
 
 export function isField(s: Segment): s is FieldSegment {

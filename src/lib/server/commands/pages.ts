@@ -20,7 +20,8 @@ export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string
   if (commandId === 'new') {
     if (!can(ctx.role, 'command:create')) throw new HttpError(403, `Your role (${ctx.role}) does not allow command create.`);
     const rules = lib.ports[0]?.settings.frameRules ?? {};
-    const command = { name: 'New command', purpose: '', notes: '', movesMachinery: false, template: starterTemplate(rules), fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {} };
+    const template = starterTemplate(rules, lib.ports[0]?.settings.protocol);
+    const command = { name: 'New command', purpose: '', notes: '', movesMachinery: false, template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {} };
     return { ...lib, command, inheritedFrom: undefined };
   }
   const c = kind === 'device' ? await getCommandForDevice(ctx, id, commandId) : await getCommand(ctx, commandId);
