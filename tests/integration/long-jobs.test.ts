@@ -2,9 +2,14 @@
  * Long jobs never stall other requests: while a large CSV import runs, health checks and device-list
  * reads are answered, and the import still writes all its rows or none.
  */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { createTeamWithRoles, TestClient, type TeamFixture } from '../helpers/client';
-import { expectOk, makeMachine } from './vault-fixtures';
+import { createClient, type Client } from '@libsql/client';
+import { createTeamWithRoles, testDb, TestClient, type TeamFixture } from '../helpers/client';
+import { startServer } from '../helpers/server';
+import { expectOk, makeMachine, makeSite, rs485 } from './vault-fixtures';
 
 const ROWS = 10_000;
 const mapping = { tag: 'Tag', name: 'Name', portName: 'Port', shorthand: 'Settings', nodeAddress: 'Address' };
@@ -61,4 +66,90 @@ describe('a large CSV import', () => {
     for (const l of lists) expect([0, ROWS]).toContain(l.total);
     expect(expectOk(await reader.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(ROWS);
   }, 60_000);
+});
+
+const jobIds = async (c: TestClient): Promise<string[]> => expectOk(await c.get('/api/import/jobs')).items.map((j: { id: string }) => j.id);
+
+/** Polls the team's import list until an import not in `known` has begun staging rows (past the checking half). */
+async function untilStaging(c: TestClient, rows: number, known: string[]): Promise<{ id: string; done: number; total: number }> {
+  for (;;) {
+    const job = expectOk(await c.get('/api/import/jobs')).items.find((j: { id: string }) => !known.includes(j.id));
+    if (job && job.state === 'checking' && job.done > rows) return job;
+    if (job && job.state !== 'checking') throw new Error(`the import reached ${job.state} before the test could step in`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
+async function count(db: Client, sql: string, args: string[]): Promise<number> {
+  return Number((await db.execute({ sql, args })).rows[0]!.n);
+}
+
+
+describe('all rows or none', () => {
+  it('an import whose final check fails (a clashing device added meanwhile) writes nothing and clears its staged rows', async () => {
+    const eng = team.members.engineer;
+    const m = await makeMachine(eng);
+    const revisions = () => count(testDb(), "SELECT count(*) AS n FROM revision WHERE team_id = ? AND summary = 'Imported from CSV'", [team.teamId]);
+    const revisionsBefore = await revisions();
+    const known = await jobIds(eng);
+    const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'AN'), mapping, apply: true });
+    const job = await untilStaging(team.members.admin, ROWS, known);
+    expect(job.total).toBe(ROWS * 2);
+    // Added by someone else while the file is being staged: the same tag as the file's last row.
+    expectOk(await team.members.admin.post('/api/devices', { machineId: m.id, tag: `AN-${String(ROWS - 1).padStart(6, '0')}`, ports: [{ name: 'Bus', settings: rs485() }] }), 201);
+    const res = await importing;
+    expect(res.status, JSON.stringify(res.body)).toBe(409);
+    expect(res.body.error).toMatch(/was added to .* while the file was imported; nothing was imported/);
+
+    expect(expectOk(await eng.get(`/api/devices?machineId=${m.id}`)).total).toBe(1);
+    const after = expectOk(await eng.get('/api/import/jobs')).items.find((j: { id: string }) => j.id === job.id);
+    expect(after).toMatchObject({ state: 'failed', kind: 'csv-import' });
+    expect(after.message).toMatch(/nothing was imported/);
+    const db = testDb();
+    try {
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+      expect(await count(db, "SELECT count(*) AS n FROM device WHERE machine_id = ? AND tag LIKE 'AN-%'", [m.id])).toBe(1);
+      expect(await revisions()).toBe(revisionsBefore);
+    } finally {
+      db.close();
+    }
+  }, 60_000);
+
+  it('an import interrupted by a server stop writes nothing; the next start clears its staged rows once it has been silent long enough', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'long-jobs-'));
+    const databaseUrl = `file:${join(dir, 'shared.db')}`;
+    const first = await startServer({ DATABASE_URL: databaseUrl });
+    const db = createClient({ url: databaseUrl });
+    try {
+      const owner = await new TestClient(first.baseUrl).signUp('interrupted');
+      expectOk(await owner.post('/api/teams', { name: 'Interrupted imports' }), 201);
+      const site = await makeSite(owner);
+      const m = expectOk(await owner.post('/api/machines', { siteId: site.id, name: 'Line 1' }), 201);
+      const importing = owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'IN'), mapping, apply: true }).catch((err: Error) => err);
+      const job = await untilStaging(owner, ROWS, []);
+      await first.stop();
+      expect(await importing).toBeInstanceOf(Error);
+
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+      // Silent for longer than a running job ever is (every batch touches the job).
+      await db.execute({ sql: 'UPDATE job SET updated_at = updated_at - 11 * 60 * 1000 WHERE id = ?', args: [job.id] });
+
+      const second = await startServer({ DATABASE_URL: databaseUrl });
+      try {
+        expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+        expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+        const again = new TestClient(second.baseUrl);
+        again.cookies = owner.cookies;
+        const listed = expectOk(await again.get('/api/import/jobs')).items[0];
+        expect(listed).toMatchObject({ id: job.id, state: 'failed' });
+        expect(listed.message).toMatch(/Interrupted/);
+      } finally {
+        await second.stop();
+      }
+    } finally {
+      db.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 90_000);
 });
