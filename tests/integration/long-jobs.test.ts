@@ -153,3 +153,30 @@ describe('all rows or none', () => {
     }
   }, 90_000);
 });
+
+describe('JSON import as a staged job', () => {
+  it('two imports of one document at once create its records once; a loser is refused at the final check with nothing written', async () => {
+    const [from, into] = await Promise.all([createTeamWithRoles('json-from'), createTeamWithRoles('json-into')]);
+    const m = await makeMachine(from.members.owner);
+    expectOk(await from.members.owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(2000, 'JS'), mapping, apply: true }), 201);
+    const doc = expectOk(await from.members.owner.get('/api/export'));
+    expect(doc.devices).toHaveLength(2000);
+
+    const replies = await Promise.all([into.members.admin, into.members.engineer].map((c) => c.post('/api/import', { document: doc, apply: true })));
+    for (const r of replies) expect([201, 409], JSON.stringify(r.body)).toContain(r.status);
+    expect(replies.some((r) => r.status === 201 && r.body.counts.devices.create === 2000)).toBe(true);
+    for (const r of replies.filter((x) => x.status === 409)) expect(r.body.error).toMatch(/nothing was written/);
+    const db = testDb();
+    try {
+      for (const [table, n] of [['device', 2000], ['port', 2000], ['machine', 1], ['import_map', 4002]] as const) {
+        expect(await count(db, `SELECT count(*) AS n FROM ${table} WHERE team_id = ?`, [into.teamId]), table).toBe(n);
+      }
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row j JOIN job ON job.id = j.job_id WHERE job.team_id = ?', [into.teamId])).toBe(0);
+    } finally {
+      db.close();
+    }
+    const jobs = expectOk(await into.members.admin.get('/api/import/jobs')).items;
+    expect(jobs.map((j: { kind: string }) => j.kind)).toEqual(['json-import', 'json-import']);
+    expect(jobs.filter((j: { state: string }) => j.state === 'done').length).toBeGreaterThanOrEqual(1);
+  }, 90_000);
+});

@@ -11,7 +11,7 @@ import { nextTurn } from './turns';
 /** Rows written to the stage per statement (each its own short write). */
 export const STAGE_BATCH = 500;
 /** Rows moved per `INSERT … SELECT` in the final transaction, which yields to other requests between them. */
-export const APPLY_BATCH = 1000;
+export const APPLY_BATCH = 500;
 /** Staged rows removed per statement when clearing. */
 const CLEAR_BATCH = 2000;
 
@@ -44,8 +44,15 @@ export class Stage {
 
   constructor(readonly jobId: string) {}
 
+  private expected: number | null = null;
+
   report(done: number, total: number): void {
     this.progress = { done, total };
+  }
+
+  /** From now on, progress is the rows staged of `expected`. */
+  countStaged(expected: number): void {
+    this.expected = expected;
   }
 
   /** Declares a target table, in the order the final transaction fills them (parents first). */
@@ -71,6 +78,7 @@ export class Stage {
         jobId: this.jobId, target: t.name, seq: t.count++,
         data: JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key]))),
       }));
+      if (this.expected !== null) this.progress = { done: this.staged, total: this.expected };
       await db.batch([
         db.insert(jobRow).values(values),
         db.update(job).set({ done: this.progress.done, total: this.progress.total, updatedAt: new Date() }).where(eq(job.id, this.jobId)),
