@@ -13,6 +13,7 @@ import { listDevices } from '../vault/devices';
 import { listLinks } from '../vault/links';
 import { listProfiles } from '../vault/profiles';
 import { cardShorthand } from '../../field/card';
+import { nextTurn } from '../jobs/turns';
 
 export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
 export type CsvTable = (typeof CSV_TABLES)[number];
@@ -27,6 +28,7 @@ export function safeCell(v: unknown): string {
 async function allPages<T>(fetch: (page: number) => Promise<Page<T>>): Promise<T[]> {
   const out: T[] = [];
   for (let page = 1; ; page++) {
+    if (page > 1) await nextTurn();
     const p = await fetch(page);
     out.push(...p.items);
     if (out.length >= p.total || p.items.length === 0 || out.length >= MAX_ROWS) return out;
