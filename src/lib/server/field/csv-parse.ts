@@ -19,7 +19,7 @@ const OPTIONS = { header: true, skipEmptyLines: 'greedy' } as const;
  */
 export async function parseCsvInSlices(text: string, size = 128 * 1024): Promise<ParsedCsv> {
   const headerEnd = text.indexOf('\n') + 1;
-  if (headerEnd === 0 || text.length <= size) return whole(text);
+  if (headerEnd === 0 || headerEnd >= text.length || text.length <= size) return whole(text);
   const header = text.slice(0, headerEnd);
   // A quoted header cell could hold a line end; such files are parsed whole.
   if (header.includes('"')) return whole(text);
