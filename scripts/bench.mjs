@@ -11,7 +11,7 @@ if (existsSync('bench/vault.ts')) {
   steps.push(['build (for server benchmarks)', 'node_modules/.bin/astro', ['build']]);
   steps.push(['vault endpoints', 'node_modules/.bin/tsx', ['bench/vault.ts']]);
 }
-for (const extra of ['bench/composer.ts', 'bench/csv-import.ts']) {
+for (const extra of ['bench/composer.ts', 'bench/csv-import.ts', 'bench/long-jobs.ts']) {
   if (existsSync(extra)) steps.push([extra, 'node_modules/.bin/tsx', [extra]]);
 }
 let failed = false;

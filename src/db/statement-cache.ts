@@ -1,4 +1,5 @@
 import Database from 'libsql';
+import { isReadSql } from './read-sql';
 
 /** How many read statements each connection keeps prepared. */
 export const STATEMENT_CACHE_SIZE = 256;
@@ -8,11 +9,6 @@ type Statement = object;
 const caches = new WeakMap<object, Map<string, Statement>>();
 let installed = false;
 
-/**
- * A read: SELECT, or WITH … SELECT. (A rare WITH … INSERT would be kept too, which is harmless: running
- * a statement resets it. The write gate's own test stays stricter, since a write must never skip it.)
- */
-const isReadSql = (sql: string) => /^\s*(select|with)\b/i.test(sql);
 
 /**
  * Keeps each local connection's read statements prepared, least recently used dropped first.

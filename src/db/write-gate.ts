@@ -1,4 +1,5 @@
 import type { Client, InStatement, Transaction, TransactionMode } from '@libsql/client';
+import { isReadSql } from './read-sql';
 
 /**
  * Serialises this process's writes to a local SQLite file.
@@ -7,8 +8,9 @@ import type { Client, InStatement, Transaction, TransactionMode } from '@libsql/
  * arrives while another connection holds the write lock waits on SQLite's busy timeout *inside* a
  * synchronous call, freezing the event loop, so the transaction holding the lock can never commit:
  * both stall for the whole timeout and one fails. Queueing every write (plain statements, batches and
- * write transactions, including the auth layer's) behind one in-process gate avoids that. Reads pass
- * straight through; writers in other processes still wait on the busy timeout as usual.
+ * write transactions, including the auth layer's) behind one in-process gate avoids that. Reads
+ * (`isReadSql`: SELECT, or WITH … SELECT) pass straight through; writers in other processes still wait
+ * on the busy timeout as usual.
  */
 export function gateWrites(client: Client): Client {
   let tail: Promise<void> = Promise.resolve();
@@ -27,7 +29,7 @@ export function gateWrites(client: Client): Client {
       release();
     }
   }
-  const isRead = (stmt: InStatement | string) => /^\s*select\b/i.test(typeof stmt === 'string' ? stmt : stmt.sql);
+  const isRead = (stmt: InStatement | string) => isReadSql(typeof stmt === 'string' ? stmt : stmt.sql);
 
   return new Proxy(client, {
     get(target, prop, receiver) {

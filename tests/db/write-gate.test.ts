@@ -57,3 +57,27 @@ it('releases the gate after a rollback and after a failed transaction start', as
   const rows = await client.execute('SELECT n FROM t ORDER BY n');
   expect(rows.rows.map((r) => Number(r.n))).toEqual([3, 4]);
 });
+
+it('a read that starts with WITH (after comments) passes a held write; WITH … INSERT waits for the commit', async () => {
+  const client = gateWrites(await open());
+  const order: string[] = [];
+  const tx = await client.transaction('write');
+  await tx.execute('INSERT INTO t VALUES (1)');
+  const cteWrite = client.execute('WITH v(n) AS (VALUES (5)) INSERT INTO t SELECT n FROM v').then(() => order.push('cte write'));
+  const reads = [
+    'WITH x AS (SELECT n FROM t) SELECT count(*) AS n FROM x',
+    '  -- the device list\n/* page */ WITH RECURSIVE x(v) AS (SELECT 1) SELECT count(*) AS n FROM t',
+    'select count(*) as n from t',
+  ].map((sql) => client.execute(sql).then((r) => {
+    order.push('read');
+    return Number(r.rows[0]!.n);
+  }));
+  const settled = await Promise.race([Promise.all(reads), new Promise((r) => setTimeout(() => r('still waiting'), 500))]);
+  expect(settled).toEqual([0, 0, 0]);
+  order.push('commit');
+  await tx.commit();
+  await cteWrite;
+  expect(order).toEqual(['read', 'read', 'read', 'commit', 'cte write']);
+  const rows = await client.execute('SELECT n FROM t ORDER BY n');
+  expect(rows.rows.map((r) => Number(r.n))).toEqual([1, 5]);
+});

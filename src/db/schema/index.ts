@@ -3,3 +3,4 @@ export * from './teams';
 export * from './vault';
 export * from './commands';
 export * from './field';
+export * from './jobs';

@@ -1,15 +1,17 @@
 import { ensureDatabase } from '../../db/migrate';
 import { startOrphanSweep } from './field/orphan-sweep';
+import { sweepAbandoned } from './jobs/jobs';
 
 let ready: Promise<void> | null = null;
 
 /**
- * Migrates the database and, when SEED_DEMO=1, seeds the invented demo scenario (idempotent); then starts
- * the background sweep of stored files left without an attachment record.
+ * Migrates the database, clears the staged rows of interrupted jobs and, when SEED_DEMO=1, seeds the invented
+ * demo scenario (idempotent); then starts the background sweep of stored files left without an attachment record.
  */
 export function startup(): Promise<void> {
   ready ??= (async () => {
     await ensureDatabase();
+    await sweepAbandoned();
     if (process.env.SEED_DEMO === '1') {
       const { seedDemo } = await import('./seed');
       await seedDemo();

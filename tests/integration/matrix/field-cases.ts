@@ -81,6 +81,7 @@ export const fieldCases: RouteCase[] = [
     prepare: async (t) => ({ path: '/api/import/csv', body: csv((await makeMachine(owner(t))).id) }),
     otherTeam: async (_t, o) => ({ path: '/api/import/csv', body: csv((await makeMachine(owner(o))).id) }),
   },
+  { method: 'GET', route: '/api/import/jobs', allowed: EDITORS, prepare: async () => ({ path: '/api/import/jobs' }) },
 ];
 
 export const fieldPublicRoutes: PublicRoute[] = [

@@ -99,11 +99,15 @@ export async function deleteAttachment(ctx: TeamContext, id: string): Promise<{ 
  * keys so the bytes can be removed once the transaction has committed.
  */
 export async function detachPurged(tx: Tx, ctx: TeamContext, ownerIds: string[]): Promise<string[]> {
-  if (ownerIds.length === 0) return [];
-  const owned = and(eq(attachment.teamId, ctx.team.id), inArray(attachment.ownerId, ownerIds));
-  const rows = await tx.select({ key: attachment.storageKey }).from(attachment).where(owned);
-  await tx.delete(attachment).where(owned);
-  return rows.map((r) => r.key);
+  const keys: string[] = [];
+  // In slices: a purged site can hold more ids than one statement may bind.
+  for (let lo = 0; lo < ownerIds.length; lo += 500) {
+    const owned = and(eq(attachment.teamId, ctx.team.id), inArray(attachment.ownerId, ownerIds.slice(lo, lo + 500)));
+    const rows = await tx.select({ key: attachment.storageKey }).from(attachment).where(owned);
+    if (rows.length) await tx.delete(attachment).where(owned);
+    keys.push(...rows.map((r) => r.key));
+  }
+  return keys;
 }
 
 /** Removes stored bytes after their rows are gone; a failure leaves an unreachable file, never a broken row. */

@@ -14,6 +14,7 @@ import { listLinks } from '../vault/links';
 import { listProfiles } from '../vault/profiles';
 import { cardShorthand } from '../../field/card';
 import { guardCell } from '../../field/csv';
+import { nextTurn } from '../jobs/turns';
 
 export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
 export type CsvTable = (typeof CSV_TABLES)[number];
@@ -22,6 +23,7 @@ const MAX_ROWS = 100_000;
 async function allPages<T>(fetch: (page: number) => Promise<Page<T>>): Promise<T[]> {
   const out: T[] = [];
   for (let page = 1; ; page++) {
+    if (page > 1) await nextTurn();
     const p = await fetch(page);
     out.push(...p.items);
     if (out.length >= p.total || p.items.length === 0 || out.length >= MAX_ROWS) return out;

@@ -1,5 +1,4 @@
-/** CSV import of devices and ports into one machine: a preview with per-row errors, then one transaction. */
-import Papa from 'papaparse';
+/** CSV import of devices and ports into one machine: a preview with per-row errors, then a staged job applied in one transaction. */
 import { and, eq, isNull } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, port, revision } from '../../../db/schema';
@@ -10,7 +9,10 @@ import { nameKey } from '../../schemas/vault';
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
-import { creationRevisions, insertBatched } from './import-write';
+import { creationRevisions } from './import-write';
+import { parseCsvInSlices } from './csv-parse';
+import { inSlices } from '../jobs/turns';
+import { runStagedJob, type Progress } from '../jobs/jobs';
 
 export const CSV_MAX_ROWS = 50_000;
 const ERRORS_SHOWN = 200;
@@ -28,10 +30,13 @@ export interface CsvPreview {
 
 interface Planned { device: CsvRowResult['device']; ports: NonNullable<CsvRowResult['port']>[] }
 
-async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
+/** Rows checked between turns for other requests. */
+const CHECK_SLICE = 1000;
+
+async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress?: Progress) {
   const m = await liveMachine(ctx, req.machineId, q);
-  const parsed = Papa.parse<Record<string, string>>(req.csv, { header: true, skipEmptyLines: 'greedy' });
-  const headers = parsed.meta.fields ?? [];
+  const parsed = await parseCsvInSlices(req.csv);
+  const headers = parsed.fields;
   const mapping = req.mapping as CsvMapping;
   const known = new Set<string>(CSV_FIELDS.map((f) => f.key));
   for (const [field, column] of Object.entries(mapping)) {
@@ -40,11 +45,11 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
   }
   if (!mapping.tag) throw new HttpError(422, 'mapping.tag: choose the column with the device tag', { fields: { 'mapping.tag': 'Choose the column with the device tag.' } });
   if (parsed.data.length > CSV_MAX_ROWS) throw new HttpError(413, `At most ${CSV_MAX_ROWS} rows per file; split the file.`);
-  const existing = new Set((await q.select({ tag: device.tag }).from(device).where(and(eq(device.machineId, m.id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)))).map((d) => nameKey(d.tag)));
+  const existing = await existingTags(q, ctx, m.id);
   const errors: CsvPreview['errors'] = [];
   const devices = new Map<string, Planned>();
   for (const e of parsed.errors) if (e.row !== undefined) errors.push({ row: e.row + 2, column: '', message: e.message });
-  parsed.data.forEach((raw, i) => {
+  await inSlices(parsed.data, CHECK_SLICE, (raw, i) => {
     const row = i + 2;
     const r = readCsvRow(raw, mapping);
     if (!r.ok) return errors.push(...r.errors.map((e) => ({ ...e, row })));
@@ -59,8 +64,15 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest) {
       d.ports.push(r.value.port);
     }
     devices.set(key, d);
+    if ((i + 1) % CHECK_SLICE === 0) void progress?.(i + 1, parsed.data.length * 2);
   });
   return { machine: m, rows: parsed.data.length, devices: [...devices.values()], errors };
+}
+
+/** Lower-cased tags of the machine's live devices. */
+async function existingTags(q: DbOrTx, ctx: TeamContext, machineId: string): Promise<Set<string>> {
+  const rows = await q.select({ tag: device.tag }).from(device).where(and(eq(device.machineId, machineId), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)));
+  return new Set(rows.map((d) => nameKey(d.tag)));
 }
 
 function preview(p: Awaited<ReturnType<typeof plan>>, applied: boolean): CsvPreview {
@@ -75,18 +87,41 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
   return preview(await plan(db, ctx, req), false);
 }
 
-/** Writes every valid device and port (and their creation revisions) in one transaction; with errors, only when skipInvalid. */
+/** Devices staged per batch (with their ports and creation revisions). */
+const STAGE_DEVICES = 250;
+
+/**
+ * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.
+ * Checked and staged in short batches, then applied in one short transaction: all rows or none.
+ */
 export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): Promise<CsvPreview> {
-  return db.transaction(async (tx) => {
-    const p = await plan(tx, ctx, req);
-    if (p.errors.length && !req.skipInvalid) throw new HttpError(422, `${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
-    const stamp = { teamId: ctx.team.id, updatedBy: ctx.user.id };
-    const devices = p.devices.map((d) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '' }));
-    const ports = p.devices.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: newId('port'), deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
-    await insertBatched(tx, device, devices);
-    await insertBatched(tx, port, ports);
-    const summary = 'Imported from CSV';
-    await insertBatched(tx, revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]);
-    return preview(p, true);
+  let p: Awaited<ReturnType<typeof plan>>;
+  return runStagedJob(ctx, 'csv-import', {
+    async stage(stage, progress) {
+      p = await plan(db, ctx, req, progress);
+      if (p.errors.length && !req.skipInvalid) throw new HttpError(422, `${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
+      const stamp = { teamId: ctx.team.id, updatedBy: ctx.user.id };
+      const summary = 'Imported from CSV';
+      stage.target(device);
+      stage.target(port);
+      stage.target(revision);
+      for (let lo = 0; lo < p.devices.length; lo += STAGE_DEVICES) {
+        const slice = p.devices.slice(lo, lo + STAGE_DEVICES);
+        const devices = slice.map((d) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '' }));
+        const ports = slice.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: newId('port'), deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
+        stage.report(p.rows + Math.round((p.rows * (lo + slice.length)) / p.devices.length), p.rows * 2);
+        await stage.add(device, devices);
+        await stage.add(port, ports);
+        await stage.add(revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]);
+      }
+    },
+    async verify(tx) {
+      // What could have changed while the rows were staged: the machine, and devices added to it since.
+      await liveMachine(ctx, req.machineId, tx);
+      const taken = await existingTags(tx, ctx, p.machine.id);
+      const clash = p.devices.find((d) => taken.has(nameKey(d.device.tag)));
+      if (clash) throw new HttpError(409, `Device ${clash.device.tag} was added to ${p.machine.name} while the file was imported; nothing was imported. Check the file again.`);
+    },
+    result: () => preview(p, true),
   });
 }

@@ -1,30 +1,45 @@
 /** Export a site or the whole team as one versioned JSON document of our own format. */
-import { and, asc, eq, isNull } from 'drizzle-orm';
+import { and, eq, isNull, sql, type SQL } from 'drizzle-orm';
+import type { SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { db } from '../../../db/client';
 import { command, device, deviceProfile, link, linkMember, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { liveSite } from './scope';
+import { nextTurn } from '../jobs/turns';
 
 type Live = { teamId: string; deletedAt: Date | null };
 const byKey = <T>(key: (x: T) => string) => (a: T, b: T) => (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0);
 const pad = (n: number) => String(n).padStart(8, '0');
+
+/** Rows read per statement; a large team is read a page at a time, letting other requests in between. */
+const PAGE = 2000;
+
+async function allRows<T extends SQLiteTable>(t: T, where: SQL | undefined): Promise<T['$inferSelect'][]> {
+  const out: T['$inferSelect'][] = [];
+  for (let after = 0; ; ) {
+    const rows = await db.select({ rowid: sql<number>`${t}.rowid`, row: t as SQLiteTable }).from(t as SQLiteTable)
+      .where(and(where, sql`${t}.rowid > ${after}`)).orderBy(sql`${t}.rowid`).limit(PAGE);
+    for (const r of rows) out.push(r.row as T['$inferSelect']);
+    if (rows.length < PAGE) return out;
+    after = Number(rows[rows.length - 1]!.rowid);
+    await nextTurn();
+  }
+}
 
 /** Records in a stable order that does not depend on ids: parents first, then names. */
 export async function exportDocument(ctx: TeamContext, opts: { siteId?: string } = {}): Promise<ExportDocument> {
   const team = ctx.team.id;
   if (opts.siteId) await liveSite(ctx, opts.siteId);
   const live = <T extends Live>(rows: T[]) => rows.filter((r) => r.teamId === team && !r.deletedAt);
-  const [sites, machines, devices, ports, links, members, profiles, commands] = await Promise.all([
-    db.select().from(site).where(and(eq(site.teamId, team), isNull(site.deletedAt))),
-    db.select().from(machine).where(and(eq(machine.teamId, team), isNull(machine.deletedAt))),
-    db.select().from(device).where(and(eq(device.teamId, team), isNull(device.deletedAt))),
-    db.select().from(port).where(and(eq(port.teamId, team), isNull(port.deletedAt))),
-    db.select().from(link).where(and(eq(link.teamId, team), isNull(link.deletedAt))),
-    db.select().from(linkMember).where(eq(linkMember.teamId, team)).orderBy(asc(linkMember.position)),
-    db.select().from(deviceProfile).where(and(eq(deviceProfile.teamId, team), isNull(deviceProfile.deletedAt))),
-    db.select().from(command).where(and(eq(command.teamId, team), isNull(command.deletedAt))),
-  ]);
+  const sites = await allRows(site, and(eq(site.teamId, team), isNull(site.deletedAt)));
+  const machines = await allRows(machine, and(eq(machine.teamId, team), isNull(machine.deletedAt)));
+  const devices = await allRows(device, and(eq(device.teamId, team), isNull(device.deletedAt)));
+  const ports = await allRows(port, and(eq(port.teamId, team), isNull(port.deletedAt)));
+  const links = await allRows(link, and(eq(link.teamId, team), isNull(link.deletedAt)));
+  const members = (await allRows(linkMember, eq(linkMember.teamId, team))).sort((a, b) => a.position - b.position);
+  const profiles = await allRows(deviceProfile, and(eq(deviceProfile.teamId, team), isNull(deviceProfile.deletedAt)));
+  const commands = await allRows(command, and(eq(command.teamId, team), isNull(command.deletedAt)));
   const S = live(sites).filter((s) => !opts.siteId || s.id === opts.siteId).sort(byKey((s) => `${s.name}\u0000${s.customer}\u0000${s.id}`));
   const sIdx = new Map(S.map((s, i) => [s.id, pad(i)]));
   const M = live(machines).filter((m) => sIdx.has(m.siteId)).sort(byKey((m) => `${sIdx.get(m.siteId)}${m.name}\u0000${m.code}\u0000${m.id}`));

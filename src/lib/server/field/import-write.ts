@@ -1,5 +1,4 @@
-/** Writes a checked import: new rows in parent-first order, their creation revisions and the import map, in batches. */
-import type { DbOrTx } from '../../../db/client';
+/** Stages a checked import: new rows in parent-first order, their creation revisions and the import map. */
 import { command, commandRevision, device, deviceProfile, importMap, link, linkMember, machine, port, revision, site } from '../../../db/schema';
 import type { EntityType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
@@ -9,15 +8,9 @@ import { SPECS } from '../vault/specs';
 import type { ExportDocument } from '../../schemas/field';
 import type { Section } from './import';
 import { sql } from 'drizzle-orm';
-
-const BATCH = 200;
+import { STAGE_BATCH as SLICE, type Stage } from '../jobs/stage';
 
 const importId = (section: Section) => newId({ sites: 'site', machines: 'mach', profiles: 'prof', devices: 'dev', ports: 'port', links: 'link', commands: 'cmd' }[section]);
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-export async function insertBatched(q: DbOrTx, table: any, rows: Record<string, unknown>[]): Promise<void> {
-  for (let i = 0; i < rows.length; i += BATCH) await q.insert(table).values(rows.slice(i, i + BATCH));
-}
 
 /** Creation revisions for vault rows, as the vault writes them one by one. */
 export function creationRevisions(ctx: TeamContext, type: EntityType, rows: Record<string, unknown>[], summary: string) {
@@ -31,7 +24,13 @@ export function creationRevisions(ctx: TeamContext, type: EntityType, rows: Reco
   });
 }
 
-export async function writeImport(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>): Promise<void> {
+/** Parent-first order of the tables an import fills. */
+const ORDER = [site, machine, deviceProfile, device, port, link, linkMember, command, revision, commandRevision] as const;
+
+export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>): Promise<void> {
+  for (const t of ORDER) stage.target(t);
+  // A source whose earlier copy was purged from the trash points at the new copy now.
+  stage.target(importMap, { onConflict: sql`ON CONFLICT (team_id, entity_type, source_id) DO UPDATE SET target_id = excluded.target_id` });
   const team = ctx.team.id;
   const stamp = { teamId: team, updatedBy: ctx.user.id };
   const ids = Object.fromEntries(Object.entries(known).map(([k, m]) => [k, new Map(m)])) as Record<Section, Map<string, string>>;
@@ -59,29 +58,29 @@ export async function writeImport(q: DbOrTx, ctx: TeamContext, doc: ExportDocume
     ...c, ...stamp, id: target, deviceId: c.deviceId ? ids.devices.get(c.deviceId)! : null, profileId: c.profileId ? ids.profiles.get(c.profileId)! : null,
   }));
 
-  await insertBatched(q, site, sites);
-  await insertBatched(q, machine, machines);
-  await insertBatched(q, deviceProfile, profiles);
-  await insertBatched(q, device, devices);
-  await insertBatched(q, port, ports);
-  await insertBatched(q, link, links.map(({ members: _m, ...l }) => l));
-  await insertBatched(q, linkMember, links.flatMap((l) => l.members.map((m) => ({ linkId: l.id, teamId: team, ...m }))));
-  await insertBatched(q, command, commands);
-  await insertBatched(q, revision, [
-    ...creationRevisions(ctx, 'site', sites, summary),
-    ...creationRevisions(ctx, 'machine', machines, summary),
-    ...creationRevisions(ctx, 'profile', profiles, summary),
-    ...creationRevisions(ctx, 'device', devices, summary),
-    ...creationRevisions(ctx, 'port', ports, summary),
-    ...creationRevisions(ctx, 'link', links.map((l) => ({ ...l, members: l.members.map(({ position: _p, ...m }) => m) })), summary),
-  ]);
-  await insertBatched(q, commandRevision, commands.map((c) => {
-    const snapshot = { name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery };
-    return { id: newId('crev'), teamId: team, commandId: c.id, version: 1, action: 'create' as const, userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot };
-  }));
-  for (let i = 0; i < mapRows.length; i += BATCH) {
-    // A source whose earlier copy was purged from the trash points at the new copy now.
-    await q.insert(importMap).values(mapRows.slice(i, i + BATCH))
-      .onConflictDoUpdate({ target: [importMap.teamId, importMap.entityType, importMap.sourceId], set: { targetId: sql`excluded.target_id` } });
+  await stage.add(site, sites);
+  await stage.add(machine, machines);
+  await stage.add(deviceProfile, profiles);
+  await stage.add(device, devices);
+  await stage.add(port, ports);
+  await stage.add(link, links.map(({ members: _m, ...l }) => l));
+  await stage.add(linkMember, links.flatMap((l) => l.members.map((m) => ({ linkId: l.id, teamId: team, ...m }))));
+  await stage.add(command, commands);
+  // Revisions are built a slice at a time, so building them never holds up other requests for long.
+  const revise = async (type: EntityType, rows: Record<string, unknown>[]) => {
+    for (let lo = 0; lo < rows.length; lo += SLICE) await stage.add(revision, creationRevisions(ctx, type, rows.slice(lo, lo + SLICE), summary));
+  };
+  await revise('site', sites);
+  await revise('machine', machines);
+  await revise('profile', profiles);
+  await revise('device', devices);
+  await revise('port', ports);
+  await revise('link', links.map((l) => ({ ...l, members: l.members.map(({ position: _p, ...m }) => m) })));
+  for (let lo = 0; lo < commands.length; lo += SLICE) {
+    await stage.add(commandRevision, commands.slice(lo, lo + SLICE).map((c) => {
+      const snapshot = { name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery };
+      return { id: newId('crev'), teamId: team, commandId: c.id, version: 1, action: 'create' as const, userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot };
+    }));
   }
+  await stage.add(importMap, mapRows);
 }

@@ -1,7 +1,7 @@
 /**
- * Import an export document into the caller's team: preview what would be created, then write it
- * all in one transaction. The import map remembers which record each source id became, so
- * importing the same document again creates nothing new.
+ * Import an export document into the caller's team: preview what would be created, then write it as a
+ * staged job (short batches, then one short final transaction). The import map remembers which record
+ * each source id became, so importing the same document again creates nothing new.
  */
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
@@ -11,7 +11,8 @@ import { HttpError } from '../http';
 import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
 import { nameKey } from '../../schemas/vault';
-import { writeImport } from './import-write';
+import { stageImport } from './import-write';
+import { runStagedJob } from '../jobs/jobs';
 
 export const SECTIONS = ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const;
 export type Section = (typeof SECTIONS)[number];
@@ -56,7 +57,7 @@ async function existingTargets(q: DbOrTx, ctx: TeamContext): Promise<Record<Sect
 
 export async function importDocument(ctx: TeamContext, raw: unknown, apply: boolean): Promise<ImportResult> {
   const doc = readDocument(raw);
-  const run = async (q: DbOrTx): Promise<ImportResult> => {
+  const check = async (q: DbOrTx) => {
     const known = await existingTargets(q, ctx);
     const counts = Object.fromEntries(SECTIONS.map((s) => {
       const existing = doc[s].filter((r) => known[s].has(r.id)).length;
@@ -64,10 +65,32 @@ export async function importDocument(ctx: TeamContext, raw: unknown, apply: bool
     })) as ImportResult['counts'];
     await tagClashes(q, ctx, doc, known);
     await portNameClashes(q, ctx, doc, known);
-    if (apply) await writeImport(q, ctx, doc, known);
-    return { applied: apply, source: doc.source, counts };
+    return { known, counts };
   };
-  return apply ? db.transaction((tx) => run(tx)) : run(db);
+  if (!apply) return { applied: false, source: doc.source, counts: (await check(db)).counts };
+  let checked: Awaited<ReturnType<typeof check>>;
+  return runStagedJob(ctx, 'json-import', {
+    async stage(stage) {
+      checked = await check(db);
+      // Each new record, its creation revision and its import map entry; and the members of new links.
+      const fresh = SECTIONS.reduce((n, s) => n + checked.counts[s].create, 0);
+      const members = doc.links.filter((l) => !checked.known.links.has(l.id)).reduce((n, l) => n + l.members.length, 0);
+      stage.countStaged(fresh * 3 + members);
+      await stageImport(stage, ctx, doc, checked.known);
+    },
+    async verify(tx) {
+      // The same document imported meanwhile, or an earlier copy purged, would change what is new.
+      const now = await check(tx);
+      if (!sameTargets(now.known, checked.known)) {
+        throw new HttpError(409, 'Records of this document were imported or purged while it was being imported; nothing was written. Import it again.');
+      }
+    },
+    result: () => ({ applied: true, source: doc.source, counts: checked.counts }),
+  });
+}
+
+function sameTargets(a: Record<Section, Map<string, string>>, b: Record<Section, Map<string, string>>): boolean {
+  return SECTIONS.every((s) => a[s].size === b[s].size && [...a[s]].every(([k, v]) => b[s].get(k) === v));
 }
 
 /** A new device on a machine that is already here must not take the tag of one of its live devices. */

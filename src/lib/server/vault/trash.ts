@@ -10,6 +10,10 @@ import { HttpError } from '../http';
 import { findLive, now, staleError, writeRevision, type Page } from './records';
 import { SPECS } from './specs';
 import { findAny } from './revisions';
+import { nextTurn } from '../jobs/turns';
+
+/** Rows (or ids) per statement when purging. */
+const PURGE_BATCH = 500;
 
 const TABLES = [site, machine, device, port, link, deviceProfile] as const;
 
@@ -155,18 +159,30 @@ export async function purge(
   id: string,
   hooks: { beforeDelete?: (tx: Tx, ids: string[]) => Promise<void> } = {},
 ) {
+  const team = ctx.team.id;
+  // One transaction (a half-purged tree must never be restorable), in short statements that let other
+  // requests run between them; the write gate keeps other writes waiting until it commits.
   return db.transaction(async (tx) => {
     await trashedRoot(tx, ctx, type, id);
     const ids: string[] = [];
     for (const t of TABLES) {
-      const rows = await tx.select({ id: t.id }).from(t).where(and(eq(t.teamId, ctx.team.id), eq(t.trashId, id), isNotNull(t.deletedAt)));
+      const rows = await tx.select({ id: t.id }).from(t).where(and(eq(t.teamId, team), eq(t.trashId, id), isNotNull(t.deletedAt)));
       ids.push(...rows.map((r) => r.id));
     }
     await hooks.beforeDelete?.(tx, ids);
-    const t = SPECS[type].table;
-    await tx.delete(t).where(and(eq(t.id, id), eq(t.teamId, ctx.team.id)));
-    for (const tbl of TABLES) await tx.delete(tbl).where(and(eq(tbl.teamId, ctx.team.id), eq(tbl.trashId, id)));
-    if (ids.length) await tx.delete(revision).where(and(eq(revision.teamId, ctx.team.id), inArray(revision.entityId, ids)));
+    for (let lo = 0; lo < ids.length; lo += PURGE_BATCH) {
+      await tx.delete(revision).where(and(eq(revision.teamId, team), inArray(revision.entityId, ids.slice(lo, lo + PURGE_BATCH))));
+      await nextTurn();
+    }
+    // Children first, so no single statement cascades through a whole tree; the root goes with its own table.
+    for (const t of [port, link, device, machine, site, deviceProfile] as const) {
+      const where = and(eq(t.teamId, team), eq(t.trashId, id));
+      for (;;) {
+        const res = await tx.run(sql`DELETE FROM ${t} WHERE rowid IN (SELECT rowid FROM ${t} WHERE ${where} LIMIT ${PURGE_BATCH})`);
+        if (res.rowsAffected < PURGE_BATCH) break;
+        await nextTurn();
+      }
+    }
     return { type, id, purged: ids.length };
   });
 }

@@ -1,0 +1,182 @@
+/**
+ * Long jobs never stall other requests: while a large CSV import runs, health checks and device-list
+ * reads are answered, and the import still writes all its rows or none.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { createClient, type Client } from '@libsql/client';
+import { createTeamWithRoles, testDb, TestClient, type TeamFixture } from '../helpers/client';
+import { startServer } from '../helpers/server';
+import { expectOk, makeMachine, makeSite, rs485 } from './vault-fixtures';
+
+const ROWS = 10_000;
+const mapping = { tag: 'Tag', name: 'Name', portName: 'Port', shorthand: 'Settings', nodeAddress: 'Address' };
+
+/** One device with one RS-485 port per row; tags are unique within the file. */
+export function bigCsv(rows: number, prefix: string): string {
+  const lines = ['Tag,Name,Port,Settings,Address'];
+  for (let i = 0; i < rows; i++) lines.push(`${prefix}-${String(i).padStart(6, '0')},Conveyor drive ${i},RS-485,${[9600, 19200, 38400][i % 3]} 8-${'NEO'[i % 3]}-1,${(i % 247) + 1}`);
+  return lines.join('\n');
+}
+
+let team: TeamFixture;
+beforeAll(async () => {
+  team = await createTeamWithRoles('long-jobs');
+}, 60_000);
+
+describe('a large CSV import', () => {
+  it('leaves health checks and device-list reads answering while it runs, and shows its rows all at once', async () => {
+    const eng = team.members.engineer;
+    const m = await makeMachine(eng);
+    const other = await makeMachine(eng);
+    const reader = team.members.viewer;
+    const probe = new TestClient();
+
+    let importDone = false;
+    const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'LJ'), mapping, apply: true }).finally(() => {
+      importDone = true;
+    });
+    const health: boolean[] = [];
+    const lists: { beforeImport: boolean; total: number }[] = [];
+    const healthLoop = (async () => {
+      while (!importDone) {
+        const res = await probe.get('/api/health');
+        expect(res.status).toBe(200);
+        health.push(!importDone);
+      }
+    })();
+    const listLoop = (async () => {
+      while (!importDone) {
+        const res = await reader.get(`/api/devices?machineId=${m.id}&pageSize=5`);
+        expect(res.status).toBe(200);
+        lists.push({ beforeImport: !importDone, total: res.body.total });
+        expectOk(await reader.get(`/api/devices?machineId=${other.id}&pageSize=5`));
+      }
+    })();
+    const done = expectOk(await importing, 201);
+    await Promise.all([healthLoop, listLoop]);
+
+    expect(done).toMatchObject({ applied: true, rows: ROWS, devices: ROWS, ports: ROWS, errorCount: 0 });
+    // Answered while the import was still running (not just before it started or after it ended).
+    expect(health.filter(Boolean).length).toBeGreaterThanOrEqual(20);
+    expect(lists.filter((l) => l.beforeImport).length).toBeGreaterThanOrEqual(5);
+    // Never a part of the import: nothing, or (in the last moments) everything.
+    for (const l of lists) expect([0, ROWS]).toContain(l.total);
+    expect(expectOk(await reader.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(ROWS);
+  }, 60_000);
+});
+
+const jobIds = async (c: TestClient): Promise<string[]> => expectOk(await c.get('/api/import/jobs')).items.map((j: { id: string }) => j.id);
+
+/** Polls the team's import list until an import not in `known` has begun staging rows (past the checking half). */
+async function untilStaging(c: TestClient, rows: number, known: string[]): Promise<{ id: string; done: number; total: number }> {
+  for (;;) {
+    const job = expectOk(await c.get('/api/import/jobs')).items.find((j: { id: string }) => !known.includes(j.id));
+    if (job && job.state === 'checking' && job.done > rows) return job;
+    if (job && job.state !== 'checking') throw new Error(`the import reached ${job.state} before the test could step in`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
+async function count(db: Client, sql: string, args: string[]): Promise<number> {
+  return Number((await db.execute({ sql, args })).rows[0]!.n);
+}
+
+
+describe('all rows or none', () => {
+  it('an import whose final check fails (a clashing device added meanwhile) writes nothing and clears its staged rows', async () => {
+    const eng = team.members.engineer;
+    const m = await makeMachine(eng);
+    const revisions = () => count(testDb(), "SELECT count(*) AS n FROM revision WHERE team_id = ? AND summary = 'Imported from CSV'", [team.teamId]);
+    const revisionsBefore = await revisions();
+    const known = await jobIds(eng);
+    const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'AN'), mapping, apply: true });
+    const job = await untilStaging(team.members.admin, ROWS, known);
+    expect(job.total).toBe(ROWS * 2);
+    // Added by someone else while the file is being staged: the same tag as the file's last row.
+    expectOk(await team.members.admin.post('/api/devices', { machineId: m.id, tag: `AN-${String(ROWS - 1).padStart(6, '0')}`, ports: [{ name: 'Bus', settings: rs485() }] }), 201);
+    const res = await importing;
+    expect(res.status, JSON.stringify(res.body)).toBe(409);
+    expect(res.body.error).toMatch(/was added to .* while the file was imported; nothing was imported/);
+
+    expect(expectOk(await eng.get(`/api/devices?machineId=${m.id}`)).total).toBe(1);
+    const after = expectOk(await eng.get('/api/import/jobs')).items.find((j: { id: string }) => j.id === job.id);
+    expect(after).toMatchObject({ state: 'failed', kind: 'csv-import' });
+    expect(after.message).toMatch(/nothing was imported/);
+    const db = testDb();
+    try {
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+      expect(await count(db, "SELECT count(*) AS n FROM device WHERE machine_id = ? AND tag LIKE 'AN-%'", [m.id])).toBe(1);
+      expect(await revisions()).toBe(revisionsBefore);
+    } finally {
+      db.close();
+    }
+  }, 60_000);
+
+  it('an import interrupted by a server stop writes nothing; the next start clears its staged rows once it has been silent long enough', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'long-jobs-'));
+    const databaseUrl = `file:${join(dir, 'shared.db')}`;
+    const first = await startServer({ DATABASE_URL: databaseUrl });
+    const db = createClient({ url: databaseUrl });
+    try {
+      const owner = await new TestClient(first.baseUrl).signUp('interrupted');
+      expectOk(await owner.post('/api/teams', { name: 'Interrupted imports' }), 201);
+      const site = await makeSite(owner);
+      const m = expectOk(await owner.post('/api/machines', { siteId: site.id, name: 'Line 1' }), 201);
+      const importing = owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'IN'), mapping, apply: true }).catch((err: Error) => err);
+      const job = await untilStaging(owner, ROWS, []);
+      await first.stop();
+      expect(await importing).toBeInstanceOf(Error);
+
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+      // Silent for longer than a running job ever is (every batch touches the job).
+      await db.execute({ sql: 'UPDATE job SET updated_at = updated_at - 11 * 60 * 1000 WHERE id = ?', args: [job.id] });
+
+      const second = await startServer({ DATABASE_URL: databaseUrl });
+      try {
+        expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+        expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+        const again = new TestClient(second.baseUrl);
+        again.cookies = owner.cookies;
+        const listed = expectOk(await again.get('/api/import/jobs')).items[0];
+        expect(listed).toMatchObject({ id: job.id, state: 'failed' });
+        expect(listed.message).toMatch(/Interrupted/);
+      } finally {
+        await second.stop();
+      }
+    } finally {
+      db.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 90_000);
+});
+
+describe('JSON import as a staged job', () => {
+  it('two imports of one document at once create its records once; a loser is refused at the final check with nothing written', async () => {
+    const [from, into] = await Promise.all([createTeamWithRoles('json-from'), createTeamWithRoles('json-into')]);
+    const m = await makeMachine(from.members.owner);
+    expectOk(await from.members.owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(2000, 'JS'), mapping, apply: true }), 201);
+    const doc = expectOk(await from.members.owner.get('/api/export'));
+    expect(doc.devices).toHaveLength(2000);
+
+    const replies = await Promise.all([into.members.admin, into.members.engineer].map((c) => c.post('/api/import', { document: doc, apply: true })));
+    for (const r of replies) expect([201, 409], JSON.stringify(r.body)).toContain(r.status);
+    expect(replies.some((r) => r.status === 201 && r.body.counts.devices.create === 2000)).toBe(true);
+    for (const r of replies.filter((x) => x.status === 409)) expect(r.body.error).toMatch(/nothing was written/);
+    const db = testDb();
+    try {
+      for (const [table, n] of [['device', 2000], ['port', 2000], ['machine', 1], ['import_map', 4002]] as const) {
+        expect(await count(db, `SELECT count(*) AS n FROM ${table} WHERE team_id = ?`, [into.teamId]), table).toBe(n);
+      }
+      expect(await count(db, 'SELECT count(*) AS n FROM job_row j JOIN job ON job.id = j.job_id WHERE job.team_id = ?', [into.teamId])).toBe(0);
+    } finally {
+      db.close();
+    }
+    const jobs = expectOk(await into.members.admin.get('/api/import/jobs')).items;
+    expect(jobs.map((j: { kind: string }) => j.kind)).toEqual(['json-import', 'json-import']);
+    expect(jobs.filter((j: { state: string }) => j.state === 'done').length).toBeGreaterThanOrEqual(1);
+  }, 90_000);
+});
