@@ -8,6 +8,7 @@
 import { cpus, loadavg } from 'node:os';
 import { createClient } from '@libsql/client';
 import { startServer } from '../tests/helpers/server';
+import { confirmationLink } from '../tests/helpers/client';
 
 const ROWS = Number(process.env.CSV_ROWS ?? 50_000);
 const READ_TARGET_MS = 100;
@@ -22,6 +23,7 @@ let cookie = '';
 async function call(method: string, path: string, body?: unknown): Promise<{ status: number; body: any }> {
   const res = await fetch(base + path, {
     method,
+    redirect: 'manual',
     headers: { origin: base, ...(body === undefined ? {} : { 'content-type': 'application/json' }), ...(cookie ? { cookie } : {}) },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
@@ -67,6 +69,9 @@ const pct = (xs: number[], q: number) => {
 
 try {
   ok(await call('POST', '/api/auth/sign-up/email', { email: 'bench@example.test', name: 'Bench Runner', password: 'correct-horse-battery' }));
+  // Sign-up confirms the address by an e-mailed link, which signs in (decision 009).
+  const link = await confirmationLink('bench@example.test', server.databaseUrl);
+  ok(await call('GET', link.pathname + link.search), 302);
   ok(await call('POST', '/api/teams', { name: 'Bench team' }), 201);
   const site = ok(await call('POST', '/api/sites', { name: 'Bench plant' }), 201);
   const [target, other] = [ok(await call('POST', '/api/machines', { siteId: site.id, name: 'Import line' }), 201), ok(await call('POST', '/api/machines', { siteId: site.id, name: 'Running line' }), 201)];
