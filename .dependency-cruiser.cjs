@@ -3,7 +3,7 @@
  *   pages and API routes → server services (src/lib/server) → database (src/db) → pure code (src/lib/<pure>)
  * Islands (src/components) run in the browser: they import pure code and browser helpers, never the server.
  */
-const PURE = '^src/lib/(frame|composer|field|schemas)/|^src/lib/permissions\\.ts$';
+const PURE = '^src/lib/(frame|composer|field|schemas)/|^src/lib/(permissions|caution)\\.ts$';
 /** @type {import('dependency-cruiser').IConfiguration} */
 module.exports = {
   forbidden: [

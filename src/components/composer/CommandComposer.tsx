@@ -5,7 +5,7 @@ import { api } from '../../lib/client/api';
 import { QueryProvider } from '../QueryProvider';
 import { ComposerCore } from './Composer';
 import { SaveBar } from './SaveBar';
-import { Section } from './Section';
+import { Section } from '../ui/Section';
 import { draftOf, type CommandDraft, type NamedPort } from './types';
 
 export interface CommandComposerProps {

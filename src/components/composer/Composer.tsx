@@ -10,12 +10,12 @@ import { restartForPort, starterTemplate } from '../../lib/composer/segments';
 import { timingSummary } from '../../lib/composer/timing';
 import { wireLayout } from '../../lib/composer/wire';
 import { decodeReplyLength } from '../../lib/composer/reply-length';
-import { MachineryCaution } from './Caution';
+import { Caution } from '../ui/Caution';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
 import { PreviewPanel } from './PreviewPanel';
 import { ReplyDecoder } from './ReplyDecoder';
-import { Section } from './Section';
+import { Section } from '../ui/Section';
 import { SegmentEditor } from './SegmentEditor';
 import { TimingPanel } from './TimingPanel';
 import { ValuesForm } from './ValuesForm';
@@ -65,7 +65,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
   return (
     <div className="grid gap-4">
       {banner}
-      {draft.movesMachinery && <MachineryCaution />}
+      {draft.movesMachinery && <Caution lead="This command moves machinery." testId="machinery-caution" />}
       {showDetails && (
         <Section title="Command" id="details">
           <CommandDetails draft={draft} onChange={patch} readOnly={readOnly} />
@@ -103,7 +103,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
         </div>
       </div>
       <Section title="Reply" id="reply"
-        aside={!readOnly && (
+        actions={!readOnly && (
           <label className="text-sm flex items-center gap-2">
             <input type="checkbox" checked={!!draft.replyTemplate} onChange={(e) => patch({ replyTemplate: e.target.checked ? starterTemplate(rules, settings.protocol) : null })} />
             The device answers this command

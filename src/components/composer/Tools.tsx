@@ -3,7 +3,7 @@ import { computeChecksum, formatChecksumValue, listChecksumAlgorithms } from '..
 import { BytesInput, useBytesInput } from './BytesInput';
 import { notationRows } from '../../lib/composer/notations';
 import { NotationList } from './NotationList';
-import { Section } from './Section';
+import { Section } from '../ui/Section';
 
 const ALGORITHMS = listChecksumAlgorithms();
 

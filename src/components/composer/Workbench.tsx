@@ -5,7 +5,7 @@ import { starterTemplate } from '../../lib/composer/segments';
 import { QueryProvider } from '../QueryProvider';
 import { ComposerCore } from './Composer';
 import { PortQuick } from './PortQuick';
-import { Section } from './Section';
+import { Section } from '../ui/Section';
 import { Tools } from './Tools';
 import type { CommandDraft } from './types';
 

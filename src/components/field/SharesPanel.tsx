@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { CopyButton } from '../ui/CopyButton';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api, ApiError } from '../../lib/client/api';
@@ -64,7 +65,7 @@ function CreateShare({ machines, sites, initial }: Props) {
         <div className="notice notice-ok grid gap-2" role="status">
           <p>Link created. Copy it now: it is shown only once.</p>
           <input className="input mono" readOnly value={m.data.url} data-testid="new-share-url" onFocus={(e) => e.target.select()} />
-          <button type="button" className="btn btn-quiet btn-sm justify-self-start" onClick={() => navigator.clipboard.writeText(m.data.url)}>Copy link</button>
+          <span className="justify-self-start"><CopyButton text={m.data.url} label="Copy link" what="share link" /></span>
         </div>
       )}
     </form>

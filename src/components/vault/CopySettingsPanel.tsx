@@ -4,7 +4,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, ApiError } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
-import { Caution, ErrorNotice, fieldLabel, isConflict, showValue } from './shared';
+import { ErrorNotice, fieldLabel, isConflict, showValue } from './shared';
+import { Caution } from '../ui/Caution';
 
 interface Pair { sourceLabel: string; targetPortId: string; targetLabel: string; targetVersion: number; changes: { field: string; from: unknown; to: unknown }[] }
 interface Preview { pairs: Pair[]; unmatched: string[]; applied: boolean }

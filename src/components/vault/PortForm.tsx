@@ -10,7 +10,8 @@ import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, STAND
 import { BYTE_SETS } from '../../lib/frame/frame-rules';
 import { FormField } from '../FormField';
 import { ConflictPanel } from './ConflictPanel';
-import { Caution, ErrorNotice, isConflict, useUnsavedGuard } from './shared';
+import { ErrorNotice, isConflict, useUnsavedGuard } from './shared';
+import { Caution } from '../ui/Caution';
 import { dirtyPaths, flatten, getPath, setPath } from './paths';
 
 export interface PortRecord extends PortInput { id: string; version: number; shorthand: string; text: string }

@@ -5,7 +5,8 @@ import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
 import { PortForm, type PortRecord } from './PortForm';
-import { CopyButton, ErrorNotice, INTERFACE_LABEL, PROTOCOL_LABEL } from './shared';
+import { ErrorNotice, INTERFACE_LABEL, PROTOCOL_LABEL } from './shared';
+import { CopyButton } from '../ui/CopyButton';
 import { HistoryList } from './HistoryPanel';
 
 interface DeviceData { id: string; tag: string; ports: PortRecord[] }
@@ -45,7 +46,7 @@ function Ports({ device, canEdit }: Props) {
             <pre className="mono text-xs bg-paper p-2 rounded mt-1 whitespace-pre-wrap">{p.text}</pre>
           </details>
           <div className="flex flex-wrap gap-2 mt-2">
-            <CopyButton text={`${device.tag} — ${p.text}`} />
+            <CopyButton text={`${device.tag} — ${p.text}`} label="Copy as text" what={`${p.name} settings as text`} />
             {canEdit && editing !== p.id && <button type="button" className="btn btn-quiet btn-sm" onClick={() => setEditing(p.id)}>Edit port</button>}
             <button type="button" className="btn btn-quiet btn-sm" onClick={() => setHistory(history === p.id ? null : p.id)} aria-expanded={history === p.id}>History</button>
             {canEdit && (

@@ -1,16 +1,6 @@
-/** Small pieces shared by the vault islands: caution, state badge, copy button, unsaved-changes guard, pager. */
-import { useEffect, useState, type ReactNode } from 'react';
+/** Small pieces shared by the vault islands: state badge, unsaved-changes guard, pager, error notice. */
+import { useEffect } from 'react';
 import { ApiError } from '../../lib/client/api';
-
-/** The caution shown wherever communication settings are edited or copied. */
-export function Caution() {
-  return (
-    <p className="notice notice-warn text-sm" role="note">
-      Changing communication settings can stop a running machine. Make the change with the machine in a safe state, under
-      the site's lockout procedures and following the device's own manual.
-    </p>
-  );
-}
 
 const STATE_TEXT = { ok: 'Agrees', warning: 'Check', error: 'Mismatch' } as const;
 const STATE_CLASS = {
@@ -26,24 +16,6 @@ export function StateBadge({ state }: { state: 'ok' | 'warning' | 'error' }) {
       <span aria-hidden="true" className={`inline-block h-2 w-2 rounded-full ${state === 'ok' ? 'bg-ok' : state === 'warning' ? 'bg-warn' : 'bg-bad'}`} />
       {STATE_TEXT[state]}
     </span>
-  );
-}
-
-export function CopyButton({ text, label = 'Copy as text' }: { text: string; label?: string }) {
-  const [done, setDone] = useState<'ok' | 'failed' | null>(null);
-  async function copy() {
-    try {
-      await navigator.clipboard.writeText(text);
-      setDone('ok');
-    } catch {
-      setDone('failed');
-    }
-    setTimeout(() => setDone(null), 2000);
-  }
-  return (
-    <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-live="polite">
-      {done === 'ok' ? 'Copied' : done === 'failed' ? 'Copy failed — select the text' : label}
-    </button>
   );
 }
 
@@ -97,18 +69,6 @@ export function showValue(v: unknown): string {
 export function fieldLabel(field: string): string {
   const last = field.split('.').slice(-1)[0]!;
   return field.startsWith('settings.') ? `${last} (settings)` : field;
-}
-
-export function Section({ title, children, actions, id }: { title: string; children: ReactNode; actions?: ReactNode; id?: string }) {
-  return (
-    <section className="card" aria-labelledby={id}>
-      <div className="flex flex-wrap items-center gap-2 mb-3">
-        <h2 id={id}>{title}</h2>
-        <div className="ml-auto flex flex-wrap gap-2">{actions}</div>
-      </div>
-      {children}
-    </section>
-  );
 }
 
 export const isConflict = (e: unknown): e is ApiError => e instanceof ApiError && e.status === 409;

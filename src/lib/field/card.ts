@@ -1,8 +1,7 @@
 /** The content of a field card, built from vault records: what a technician reads at the cabinet. */
 import { assembleFrame, renderHex, renderIecLiteral, portSettingsText, type PortSettings, type Template, type FieldValues } from '../frame';
 
-export const CAUTION =
-  'Changing communication settings can stop a running machine. Work to the site procedures and lockout, and follow the device manual.';
+export { MACHINERY_CAUTION as CAUTION } from '../caution';
 
 const PARITY_TEXT = { none: 'None', even: 'Even', odd: 'Odd', mark: 'Mark', space: 'Space' } as const;
 const INTERFACE_TEXT: Record<PortSettings['interface'], string> = {

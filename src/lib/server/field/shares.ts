@@ -1,4 +1,5 @@
 /** Read-only share links to a machine's or a site's cards, for people without an account. */
+import { MACHINERY_CAUTION } from '../../caution';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import { db } from '../../../db/client';
@@ -103,7 +104,7 @@ export async function emailShare(ctx: TeamContext, id: string, to: string, messa
     `${ctx.user.name} (${ctx.team.name}) shared the serial settings cards of ${row.scopeName} with you.`,
     ...(message ? [message] : []),
     `The link is read-only and works until ${row.expiresAt.toISOString().slice(0, 10)}.`,
-    'Changing communication settings can stop a running machine: work to the site procedures and lockout, and follow the device manual.',
+    MACHINERY_CAUTION,
   ];
   await sendMail(linkMessage(to, `Settings cards: ${row.scopeName}`, lines, 'Open the cards', shareUrl(token)));
   return { sent: true, to, share: present({ ...copy!, scopeName: row.scopeName }) };

@@ -1,7 +1,10 @@
 import { useEffect, useState } from 'react';
 
-/** Copies `text` with navigator.clipboard and says so for two seconds (or says why it could not). */
-export function CopyButton({ text, label }: { text: string; label: string }) {
+/**
+ * Copies `text` with navigator.clipboard and says so for two seconds, or says why it could not.
+ * `label` is the button's text; `what` names the content for screen readers ("Copy PLC literal").
+ */
+export function CopyButton({ text, label = 'Copy', what }: { text: string; label?: string; what?: string }) {
   const [state, setState] = useState<'idle' | 'copied' | 'failed'>('idle');
   useEffect(() => {
     if (state === 'idle') return;
@@ -18,7 +21,7 @@ export function CopyButton({ text, label }: { text: string; label: string }) {
   };
   return (
     <span className="inline-flex flex-row-reverse items-center gap-2 shrink-0">
-      <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-label={`Copy ${label}`}>Copy</button>
+      <button type="button" className="btn btn-quiet btn-sm" onClick={copy} aria-label={what ? `Copy ${what}` : undefined}>{label}</button>
       <span role="status" aria-live="polite" className={state === 'failed' ? 'text-bad text-sm' : 'text-ok text-sm'}>
         {state === 'copied' ? 'Copied' : state === 'failed' ? 'Copy blocked; select the text instead' : ''}
       </span>
