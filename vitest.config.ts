@@ -2,7 +2,8 @@
 import { getViteConfig } from 'astro/config';
 
 /**
- * Two projects: `unit` (pure code and the local database layer: no build, no server) and `integration`
+ * Two projects: `unit` (every test outside tests/integration: pure code and the local database layer, no build,
+ * no server) and `integration`
  * (through the built server, which the global setup starts). `vitest run --project unit` needs no build.
  */
 export default getViteConfig({
@@ -15,7 +16,9 @@ export default getViteConfig({
         extends: true,
         test: {
           name: 'unit',
-          include: ['tests/frame/**/*.test.ts', 'tests/composer/**/*.test.ts', 'tests/db/**/*.test.ts', 'tests/server/**/*.test.ts'],
+          // Every test file outside tests/integration (and the browser tests), so none is silently left out.
+          include: ['tests/**/*.test.ts'],
+          exclude: ['tests/integration/**', 'tests/e2e/**', 'node_modules/**'],
         },
       },
       {
