@@ -86,6 +86,15 @@ describe('field values schema and scaling', () => {
     expect(valuesSchemaFor(statusQueryTemplate).safeParse({}).success).toBe(true);
   });
 
+  it('takes plain decimal digits only, and compares limits exactly, like the engine', () => {
+    const angle = { type: 'integer', id: 'a', name: 'angle', label: 'Angle', unit: '°', min: 0, max: 0.3, pad: 'zero', sign: 'negative' } as const;
+    expect(fieldValueProblem(angle, '0x10')).toBe('Angle: "0x10" is hex; enter the value in decimal digits (16).');
+    expect(fieldValueProblem(angle, '1e-1')).toBe('Angle: "1e-1" uses an exponent; write the digits out (0.1).');
+    expect(fieldValueProblem(angle, 'Infinity')).toBe('Angle must be a number.');
+    expect(fieldValueProblem(angle, ' 0.3 ')).toBeNull();
+    expect(fieldValueProblem(angle, '0.30000000000000001')).toBe('At most 0.3 °.');
+  });
+
   it('turns steps per revolution into a degrees scale and back', () => {
     expect(scaleFromStepsPerRev(36000)).toEqual({ factor: 100, offset: 0 });
     expect(stepsPerRevOf({ unit: '°', scale: { factor: 100, offset: 0 } })).toBe(36000);

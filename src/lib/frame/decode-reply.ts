@@ -2,7 +2,7 @@
 import { HEX_PAIR, bytesAt, bytesToLatin1, indexOfBytes, toHex } from './bytes';
 import { type SegmentSpan, checksumRange, segmentBytes } from './assemble';
 import { checksumLength, findChecksumAlgorithm, formatChecksumValue, placeChecksum } from './checksum';
-import { rawToEngineering, readNumber } from './field-format';
+import { engineeringExact, readNumber, toNumber } from './field-format';
 import { type Finding, isClean } from './findings';
 import type { ChecksumSegment, Segment, Template } from './template';
 
@@ -143,8 +143,9 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
       if (s.type === 'integer' || s.type === 'decimal') {
         const raw = readNumber(text, s.type === 'decimal');
         if (raw !== undefined) {
-          field.raw = raw;
-          field.value = rawToEngineering(raw, s.scale);
+          field.raw = toNumber(raw);
+          const value = engineeringExact(raw, s.scale);
+          if (value) field.value = toNumber(value);
         }
       } else if (s.type === 'text') {
         field.raw = text;

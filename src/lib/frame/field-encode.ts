@@ -1,5 +1,5 @@
 /** Turns one field value into the characters sent, with findings about the value. */
-import { differs, formatNumber, roundDecimals, roundHalfAway, scaleToRaw } from './field-format';
+import { MAX_NUMBER_CHARS, decimalOf, formatNumber, readTypedNumber, roundExact, scaleExact, toNumber } from './field-format';
 import type { Finding } from './findings';
 import type { ChoiceField, DecimalField, FieldSegment, FieldValues, IntegerField, TextField } from './template';
 
@@ -30,37 +30,40 @@ function missing(field: FieldSegment): EncodedField {
 
 function encodeNumber(field: IntegerField | DecimalField, input: string | number): EncodedField {
   const findings: Finding[] = [];
-  const value = typeof input === 'number' ? input : input.trim() === '' ? Number.NaN : Number(input.trim());
-  if (!Number.isFinite(value)) {
-    return {
-      text: '',
-      findings: [{ severity: 'error', code: 'field-invalid', segmentId: field.id, message: `${title(field)} must be a number; "${input}" is not.` }],
-    };
+  const error = (code: 'field-invalid' | 'field-too-wide', message: string): EncodedField => ({
+    text: '',
+    findings: [{ severity: 'error', code, segmentId: field.id, message }],
+  });
+  const read = readTypedNumber(input);
+  if (!read.ok) return error('field-invalid', `${title(field)}: ${read.reason}.`);
+  const value = read.value;
+  const shown = show(field, value.toString());
+  const min = field.min === undefined ? undefined : decimalOf(field.min);
+  const max = field.max === undefined ? undefined : decimalOf(field.max);
+  if (min && value.lt(min)) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is below the minimum ${show(field, min.toString())}; enter ${show(field, min.toString())} or more.` });
   }
-  if (field.min !== undefined && value < field.min) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${show(field, value)} is below the minimum ${show(field, field.min)}; enter ${show(field, field.min)} or more.` });
+  if (max && value.gt(max)) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is above the maximum ${show(field, max.toString())}; enter ${show(field, max.toString())} or less.` });
   }
-  if (field.max !== undefined && value > field.max) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${show(field, value)} is above the maximum ${show(field, field.max)}; enter ${show(field, field.max)} or less.` });
-  }
-  const exact = scaleToRaw(value, field.scale);
-  let raw: number;
-  if (field.type === 'integer') {
-    raw = roundHalfAway(exact);
-    if (raw !== exact) {
-      findings.push({ severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${show(field, value)} gives ${exact} raw, not a whole number; ${raw} will be sent. Enter a value that scales to a whole number.` });
-    }
-  } else {
-    raw = roundDecimals(exact, field.decimals);
-    if (differs(raw, exact)) {
-      findings.push({ severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${exact} has more than ${field.decimals} decimals; ${raw} will be sent.` });
-    }
+  const exact = scaleExact(value, field.scale);
+  if (!exact) return error('field-invalid', `${title(field)} has a scale that cannot be used (factor and divisor must be finite and not 0); fix the field's scale.`);
+  const decimals = field.type === 'decimal' ? field.decimals : 0;
+  const raw = roundExact(exact, decimals);
+  if (!raw.eq(exact)) {
+    findings.push(field.type === 'integer'
+      ? { severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${shown} gives ${exact.toString()} raw, not a whole number; ${raw.toString()} will be sent. Enter a value that scales to a whole number.` }
+      : { severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${exact.toString()} has more than ${field.decimals} decimals; ${raw.toFixed(decimals)} will be sent.` });
   }
   const text = formatNumber(raw, field);
+  if (text.length > MAX_NUMBER_CHARS) {
+    const digits = raw.abs().toFixed(decimals).length;
+    return { text: '', findings: [...findings, { severity: 'error', code: 'field-too-wide', segmentId: field.id, message: `${title(field)} ${shown} gives a raw value of ${digits} digits, more than the ${MAX_NUMBER_CHARS} characters a number field can send; enter a smaller value or check the scale.` }] };
+  }
   if (field.width !== undefined && text.length > field.width) {
     findings.push({ severity: 'error', code: 'field-too-wide', segmentId: field.id, range: [0, text.length], message: `${title(field)} needs ${text.length} characters ("${text}") but the field is ${field.width} wide; enter a smaller value or widen the field.` });
   }
-  return { text, value, raw, findings };
+  return { text, value: toNumber(value), raw: toNumber(raw), findings };
 }
 
 function encodeText(field: TextField, input: string | number): EncodedField {

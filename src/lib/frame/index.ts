@@ -24,7 +24,7 @@ export {
   isField, loadTemplate, serializeTemplate, moveSegment,
 } from './template';
 export { hexBytesSchema } from './schema-common';
-export { roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
+export { MAX_NUMBER_CHARS, type NumberReading, readTypedNumber, roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
 
 export { type AssembledFrame, type SegmentSpan, assembleFrame } from './assemble';
 export { checkFrame } from './check-frame';

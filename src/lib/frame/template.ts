@@ -12,9 +12,13 @@ export const TEMPLATE_VERSION = 1;
 const idSchema = z.string().min(1).max(64);
 const nameSchema = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.-]{0,63}$/, 'Use letters, digits, _ . - and start with a letter');
 
-/** raw = round(value × factor + offset), rounding half away from zero. */
+/**
+ * raw = round(value × factor ÷ divisor + offset) in exact decimal arithmetic, rounding half away from
+ * zero. `divisor` keeps ratios such as 1000 steps per 360° exact (factor 1000, divisor 360).
+ */
 export const scaleSchema = z.object({
   factor: z.number().finite().refine((f) => f !== 0, 'factor must not be 0'),
+  divisor: z.number().finite().positive().optional(),
   offset: z.number().finite().default(0),
 });
 export type Scale = z.infer<typeof scaleSchema>;
