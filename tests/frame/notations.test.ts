@@ -31,6 +31,27 @@ describe('escaped notation', () => {
     expect(renderEscaped(b(0x00, 0x38))).toBe('\\08');
     expect(hex(parseEscaped('\\08'))).toBe('00 38');
   });
+  test('renders so that a C compiler reads the same bytes: octal before a hex digit, \\" and no trigraphs', () => {
+    // ISO/IEC 9899:2018, 6.4.4.4: a hex escape takes every hex digit after \x, so \x01A would be one byte 0x1A;
+    // an octal escape stops after three digits, so \001A is 01 then "A"
+    expect(renderEscaped(b(0x01, 0x41))).toBe('\\001A');
+    expect(renderEscaped(b(0x1b, 0x46))).toBe('\\033F');
+    expect(renderEscaped(b(0xff, 0x30, 0x7f, 0x66))).toBe('\\3770\\177f');
+    expect(renderEscaped(b(0x01, 0x47, 0x80))).toBe('\\x01G\\x80');
+    // 6.4.5: a bare " ends the string literal; 5.2.1.1: ??= ??/ etc. are trigraphs in strict ISO modes
+    expect(renderEscaped(b(0x22))).toBe('\\"');
+    expect(renderEscaped(b(0x3f, 0x3f, 0x3d))).toBe('?\\?=');
+    expect(renderEscaped(b(0x3f, 0x3f, 0x3f, 0x2f))).toBe('?\\?\\?/');
+    for (const text of ['\\001A', '\\033F', '\\"', '?\\?=', '\\3770\\177f']) {
+      const r = parseEscaped(text);
+      expect(r.ok && renderEscaped(r.value)).toBe(text);
+    }
+  });
+  test('\\e is ESC (0x1B) on input', () => {
+    // common practice: \e for ESC is a widespread C compiler extension (not in ISO/IEC 9899)
+    expect(hex(parseEscaped('\\e[2J'))).toBe('1B 5B 32 4A');
+    expect(renderEscaped(b(0x1b, 0x5b))).toBe('\\x1B[');
+  });
   test('other simple escapes are accepted on input', () => {
     // ISO/IEC 9899:2018, 6.4.4.4: \a \b \f \v \' \" \?
     expect(hex(parseEscaped('\\a\\b\\f\\v\\\'\\"\\?'))).toBe('07 08 0C 0B 27 22 3F');
