@@ -50,12 +50,17 @@ describe('timing', () => {
 
 describe('wire picture', () => {
   it('lays out idle, start, data LSB first, stop with byte labels and time marks', () => {
-    const w = wireLayout(bytes('1\r'), port8N1);
+    const r = wireLayout(bytes('1\r'), port8N1);
+    if (!r.ok) throw new Error(r.error.message);
+    const w = r.value;
     expect(w.cells.map((c) => c.label).join('')).toBe('idleS10001100stopS10110000stopidle');
     expect(w.bytes.map((b) => b.label)).toEqual(['31 1', '0D CR']);
     expect(w.marks.map((m) => m.label)).toEqual(['0 µs', '1.042 ms', '2.083 ms']);
     expect(w.path.startsWith('M44.0 44 H74.0 V78')).toBe(true);
-    expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ truncated: true, shownBytes: 8 });
+    expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ ok: true, value: { truncated: true, shownBytes: 8 } });
+  });
+  it('answers the engine error for settings code passed in unchecked', () => {
+    expect(wireLayout(bytes('1'), { ...port8N1, dataBits: Infinity } as never)).toMatchObject({ ok: false, error: { message: 'Data bits Infinity must be 5, 6, 7 or 8' } });
   });
 });
 
@@ -65,6 +70,10 @@ describe('reply notation', () => {
     expect(guessNotation('1=STA<CR>')).toBe('mnemonic');
     expect(guessNotation('1=STA\\r')).toBe('escaped');
     expect(guessNotation('31 3D 0D')).toBe('hex');
+    expect(guessNotation('16#31 16#3D 16#0D')).toBe('hex');
+    expect(guessNotation('31h 3Dh 0Dh')).toBe('hex');
+    expect(guessNotation('<XOFF>')).toBe('mnemonic');
+    expect(readReply('16#0D')).toMatchObject({ ok: true, notation: 'hex', bytes: Uint8Array.of(0x0d) });
     expect(guessNotation('plain')).toBe('escaped');
     expect(readReply('31 0D')).toMatchObject({ ok: true, notation: 'hex' });
     expect(readReply('41 4', 'hex')).toMatchObject({ ok: true });

@@ -12,6 +12,11 @@ export interface EncodedField {
   findings: Finding[];
 }
 
+/** ASCII letters only change case: Unicode mappings would turn ſ into S or ß into SS behind the user's back. */
+function asciiCase(text: string, to: 'upper' | 'lower'): string {
+  return to === 'upper' ? text.replace(/[a-z]+/g, (m) => m.toUpperCase()) : text.replace(/[A-Z]+/g, (m) => m.toLowerCase());
+}
+
 const show = (f: FieldSegment, v: number | string) => `${v}${f.unit ? ` ${f.unit}` : ''}`;
 const title = (f: FieldSegment) => f.label || f.name;
 
@@ -28,12 +33,21 @@ function missing(field: FieldSegment): EncodedField {
   };
 }
 
+/** What is wrong with a numeric field built in code without the schema, or null. */
+function numberFieldProblem(field: IntegerField | DecimalField): string | null {
+  if (field.type === 'decimal' && !(Number.isInteger(field.decimals) && field.decimals >= 0 && field.decimals <= 9)) return `has ${field.decimals} decimals; use 0 to 9`;
+  if (field.width !== undefined && !(Number.isInteger(field.width) && field.width >= 1 && field.width <= MAX_NUMBER_CHARS)) return `is ${field.width} characters wide; use 1 to ${MAX_NUMBER_CHARS}`;
+  return null;
+}
+
 function encodeNumber(field: IntegerField | DecimalField, input: string | number): EncodedField {
   const findings: Finding[] = [];
   const error = (code: 'field-invalid' | 'field-too-wide', message: string): EncodedField => ({
     text: '',
     findings: [{ severity: 'error', code, segmentId: field.id, message }],
   });
+  const shape = numberFieldProblem(field);
+  if (shape) return error('field-invalid', `${title(field)} ${shape}; fix the field.`);
   const read = readTypedNumber(input);
   if (!read.ok) return error('field-invalid', `${title(field)}: ${read.reason}.`);
   const value = read.value;
@@ -69,7 +83,7 @@ function encodeNumber(field: IntegerField | DecimalField, input: string | number
 function encodeText(field: TextField, input: string | number): EncodedField {
   const findings: Finding[] = [];
   const value = String(input);
-  const text = field.case === 'upper' ? value.toUpperCase() : field.case === 'lower' ? value.toLowerCase() : value;
+  const text = field.case === 'upper' ? asciiCase(value, 'upper') : field.case === 'lower' ? asciiCase(value, 'lower') : value;
   if (field.maxLength !== undefined && text.length > field.maxLength) {
     findings.push({ severity: 'error', code: 'field-too-long', segmentId: field.id, range: [field.maxLength, text.length], message: `${title(field)} is ${text.length} characters long; the limit is ${field.maxLength}. Shorten it.` });
   }
@@ -87,7 +101,8 @@ function encodeText(field: TextField, input: string | number): EncodedField {
 
 function encodeChoice(field: ChoiceField, input: string | number): EncodedField {
   const key = String(input);
-  const option = field.options.find((o) => o.value === key) ?? field.options.find((o) => o.value.toLowerCase() === key.toLowerCase());
+  const folded = asciiCase(key, 'lower');
+  const option = field.options.find((o) => o.value === key) ?? field.options.find((o) => asciiCase(o.value, 'lower') === folded);
   if (!option) {
     const list = field.options.map((o) => o.value).join(', ');
     return { text: '', findings: [{ severity: 'error', code: 'field-invalid', segmentId: field.id, message: `${title(field)} "${key}" is not one of the choices; pick one of ${list}.` }] };

@@ -40,7 +40,7 @@ export {
 
 export {
   MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, pollCycle, bitSequence,
-  type LineTiming, type PolledDevice, type BitCell, type BitKind,
+  type LineTiming, type PolledDevice, type BitCell, type BitKind, type BitSequence,
 } from './timing';
 
 export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';

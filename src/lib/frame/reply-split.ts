@@ -27,8 +27,9 @@ export function fixedLength(s: Segment): number | undefined {
     const a = findChecksumAlgorithm(s.algorithm);
     return a ? checksumLength(a.width, s.encoding) : 0;
   }
-  if ((s.type === 'integer' || s.type === 'decimal') && s.width !== undefined) return s.width;
+  if ((s.type === 'integer' || s.type === 'decimal') && s.width !== undefined) return Number.isInteger(s.width) && s.width >= 0 ? s.width : undefined;
   if (s.type === 'choice') {
+    if (s.options.length === 0) return undefined;
     const n = s.options[0]!.send.length;
     return s.options.every((o) => o.send.length === n) ? n : undefined;
   }
@@ -56,8 +57,9 @@ function* candidates(s: Segment, bytes: Uint8Array, pos: number, strict: boolean
     if (pos + len <= n) yield pos + len;
   } else if (s.type === 'integer' || s.type === 'decimal') {
     const decimal = s.type === 'decimal';
-    if (s.width !== undefined) {
-      const end = pos + s.width;
+    const width = fixedLength(s);
+    if (width !== undefined) {
+      const end = pos + width;
       if (end <= n && (!strict || readNumber(latin1(bytes, pos, end), decimal))) yield end;
       return;
     }

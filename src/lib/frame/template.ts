@@ -156,8 +156,15 @@ export function serializeTemplate(t: TemplateInput): Result<string> {
   return success(JSON.stringify(r.data, null, 2));
 }
 
-/** Moves a segment and renumbers checksum ranges so they still cover the same segments. */
-export function moveSegment(t: Template, from: number, to: number): Template {
+/**
+ * Moves a segment from index `from` to index `to` and renumbers checksum ranges so they still cover
+ * the same segments. An index outside the template is an error (position 0).
+ */
+export function moveSegment(t: Template, from: number, to: number): Result<Template> {
+  const n = t.segments.length;
+  for (const [what, i] of [['from', from], ['to', to]] as const) {
+    if (!Number.isInteger(i) || i < 0 || i >= n) return failure(0, `Cannot move ${what} position ${i}: the template has segments 0 to ${n - 1}`);
+  }
   const order = t.segments.map((_, i) => i);
   const [moved] = order.splice(from, 1);
   order.splice(to, 0, moved!);
@@ -171,5 +178,5 @@ export function moveSegment(t: Template, from: number, to: number): Template {
     } as ChecksumSegment['range'];
     return { ...s, range };
   });
-  return { ...t, segments };
+  return success({ ...t, segments });
 }
