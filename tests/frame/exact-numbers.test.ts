@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
 import { assembleFrame, decodeReply, toHex } from '~/lib/frame';
+import { scaleFieldNumber, scaleFieldNumberExactly } from '~/lib/frame/field-number';
 import { ascii, hexOf, tpl } from './helpers';
 
 type Scale = { factor: number; offset?: number; divisor?: number };
@@ -113,6 +114,23 @@ describe('scaling and rounding are exact decimal arithmetic on the typed text', 
           if (expected.length <= 32) expect(String.fromCharCode(...out.bytes)).toBe(expected);
         }),
       { numRuns: 1500 },
+    );
+  });
+
+  // The engine computes small values as scaled integers and falls back to big.js; both must agree.
+  test('the integer fast path and the big.js path give the same result', () => {
+    const typed = fc.oneof(
+      fc.tuple(fc.bigInt({ min: -(10n ** 18n), max: 10n ** 18n }), fc.integer({ min: 0, max: 18 })).map(([a, p]) => decimalText(a, p)),
+      fc.double({ noNaN: true, noDefaultInfinity: true }),
+      fc.constantFrom('007.50', '+5', '.5', '5.', '-0', ' 12 ', '0x10', '1e2', '-0.0049', '999999999999999.5'),
+    );
+    const factor = fc.oneof(fc.constantFrom(1, 100, 0.1, -2, 1e-9, 36000 / 360, 1000 / 360, 1e15, 123456.789), fc.double({ min: -1e6, max: 1e6, noNaN: true }).filter((f) => f !== 0));
+    fc.assert(
+      fc.property(typed, factor, fc.constantFrom(0, 0.5, 400, -1e-7), fc.integer({ min: 0, max: 9 }), fc.boolean(), (value, f, offset, decimals, decimal) => {
+        const field = (decimal ? decimalField(decimals, { factor: f, offset }) : integerField({ factor: f, offset })).segments[0] as never;
+        expect(scaleFieldNumber(field, value)).toEqual(scaleFieldNumberExactly(field, value));
+      }),
+      { numRuns: 3000 },
     );
   });
 });

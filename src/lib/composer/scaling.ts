@@ -1,5 +1,6 @@
 /** Units and scaling for numeric fields: engineering value in, raw value sent, shown as both. */
-import { formatNumber, readTypedNumber, roundExact, scaleExact, toNumber, decimalOf } from '../frame/field-format';
+import { decimalOf, roundExact, scaleExact, toNumber } from '../frame/field-format';
+import { scaleFieldNumber } from '../frame/field-number';
 import type { DecimalField, IntegerField, Scale } from '../frame/template';
 
 /** Degrees of one revolution; a drive set to N steps per revolution scales degrees by N / 360. */
@@ -33,10 +34,7 @@ export function isDegrees(unit: string | undefined): boolean {
 export function bothUnits(field: IntegerField | DecimalField, value: unknown, rawUnit = 'raw'): string | null {
   if (!field.scale) return null;
   if (typeof value !== 'number' && typeof value !== 'string') return null;
-  const read = readTypedNumber(value);
-  if (!read.ok) return null;
-  const exact = scaleExact(read.value, field.scale);
-  if (!exact) return null;
-  const raw = formatNumber(roundExact(exact, field.type === 'decimal' ? field.decimals : 0), { ...field, width: undefined, sign: 'negative' });
-  return `${read.value.toString()}${field.unit ? ` ${field.unit}` : ''} = ${raw} ${rawUnit || 'raw'}`;
+  const r = scaleFieldNumber(field, value);
+  if (!r.ok) return null;
+  return `${r.number.valueText}${field.unit ? ` ${field.unit}` : ''} = ${r.number.rawText} ${rawUnit || 'raw'}`;
 }

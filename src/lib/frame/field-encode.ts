@@ -1,5 +1,6 @@
 /** Turns one field value into the characters sent, with findings about the value. */
-import { MAX_NUMBER_CHARS, decimalOf, formatNumber, readTypedNumber, roundExact, scaleExact, toNumber } from './field-format';
+import { MAX_NUMBER_CHARS, formatNumber } from './field-format';
+import { scaleFieldNumber } from './field-number';
 import type { Finding } from './findings';
 import type { ChoiceField, DecimalField, FieldSegment, FieldValues, IntegerField, TextField } from './template';
 
@@ -48,36 +49,34 @@ function encodeNumber(field: IntegerField | DecimalField, input: string | number
   });
   const shape = numberFieldProblem(field);
   if (shape) return error('field-invalid', `${title(field)} ${shape}; fix the field.`);
-  const read = readTypedNumber(input);
-  if (!read.ok) return error('field-invalid', `${title(field)}: ${read.reason}.`);
-  const value = read.value;
-  const shown = show(field, value.toString());
-  const min = field.min === undefined ? undefined : decimalOf(field.min);
-  const max = field.max === undefined ? undefined : decimalOf(field.max);
-  if (min && value.lt(min)) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is below the minimum ${show(field, min.toString())}; enter ${show(field, min.toString())} or more.` });
+  const outcome = scaleFieldNumber(field, input);
+  if (!outcome.ok) {
+    return outcome.problem === 'reading'
+      ? error('field-invalid', `${title(field)}: ${outcome.reason}.`)
+      : error('field-invalid', `${title(field)} has a scale that cannot be used (factor and divisor must be finite and not 0); fix the field's scale.`);
   }
-  if (max && value.gt(max)) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is above the maximum ${show(field, max.toString())}; enter ${show(field, max.toString())} or less.` });
+  const n = outcome.number;
+  const shown = show(field, n.valueText);
+  if (n.belowMin) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is below the minimum ${show(field, field.min!)}; enter ${show(field, field.min!)} or more.` });
   }
-  const exact = scaleExact(value, field.scale);
-  if (!exact) return error('field-invalid', `${title(field)} has a scale that cannot be used (factor and divisor must be finite and not 0); fix the field's scale.`);
-  const decimals = field.type === 'decimal' ? field.decimals : 0;
-  const raw = roundExact(exact, decimals);
-  if (!raw.eq(exact)) {
+  if (n.aboveMax) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is above the maximum ${show(field, field.max!)}; enter ${show(field, field.max!)} or less.` });
+  }
+  if (n.rounded) {
     findings.push(field.type === 'integer'
-      ? { severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${shown} gives ${exact.toString()} raw, not a whole number; ${raw.toString()} will be sent. Enter a value that scales to a whole number.` }
-      : { severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${exact.toString()} has more than ${field.decimals} decimals; ${raw.toFixed(decimals)} will be sent.` });
+      ? { severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${shown} gives ${n.exactText} raw, not a whole number; ${n.rawText} will be sent. Enter a value that scales to a whole number.` }
+      : { severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${n.exactText} has more than ${field.decimals} decimals; ${n.rawText} will be sent.` });
   }
-  const text = formatNumber(raw, field);
+  const text = formatNumber(n.rawText, field);
   if (text.length > MAX_NUMBER_CHARS) {
-    const digits = raw.abs().toFixed(decimals).length;
-    return { text: '', findings: [...findings, { severity: 'error', code: 'field-too-wide', segmentId: field.id, message: `${title(field)} ${shown} gives a raw value of ${digits} digits, more than the ${MAX_NUMBER_CHARS} characters a number field can send; enter a smaller value or check the scale.` }] };
+    const digits = n.rawText.replace('-', '').length;
+    return { text: '', findings: [...findings, { severity: 'error', code: 'field-too-wide', segmentId: field.id, message: `${title(field)} ${shown} gives a raw value of ${digits} characters, more than the ${MAX_NUMBER_CHARS} a number field can send; enter a smaller value or check the scale.` }] };
   }
   if (field.width !== undefined && text.length > field.width) {
     findings.push({ severity: 'error', code: 'field-too-wide', segmentId: field.id, range: [0, text.length], message: `${title(field)} needs ${text.length} characters ("${text}") but the field is ${field.width} wide; enter a smaller value or widen the field.` });
   }
-  return { text, value: toNumber(value), raw: toNumber(raw), findings };
+  return { text, value: n.value, raw: n.raw, findings };
 }
 
 function encodeText(field: TextField, input: string | number): EncodedField {

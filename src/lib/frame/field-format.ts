@@ -110,12 +110,11 @@ export function rawToEngineering(raw: string | number, scale: Scale | undefined)
   return r.ok ? engineeringExact(r.value, scale)?.toString() : undefined;
 }
 
-/** Text of a rounded raw number: sign, digits with the field's decimals, padding to `width`. */
-export function formatNumber(raw: Decimal, field: IntegerField | DecimalField): string {
-  const decimals = field.type === 'decimal' ? field.decimals : 0;
-  // a value that rounds to zero is zero, without a minus sign (lt treats −0 as 0)
-  const sign = raw.lt(0) ? '-' : field.sign === 'always' ? '+' : '';
-  const digits = raw.abs().toFixed(decimals);
+/** Text sent for a rounded raw value (`-4500`, `1.01`): sign and padding applied to `width`. */
+export function formatNumber(rawText: string, field: IntegerField | DecimalField): string {
+  const negative = rawText.charCodeAt(0) === 0x2d;
+  const sign = negative ? '-' : field.sign === 'always' ? '+' : '';
+  const digits = negative ? rawText.slice(1) : rawText;
   const width = field.width ?? 0;
   const fill = width - sign.length - digits.length;
   if (fill <= 0) return sign + digits;
