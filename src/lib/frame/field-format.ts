@@ -32,16 +32,9 @@ export function decimalOf(n: number): Decimal | undefined {
   return Number.isFinite(n) ? Dec(n) : undefined;
 }
 
-/** " (16)" for "0x10": the decimal value of a prefixed hex, octal or binary text (`0x`, `0o`, `0b`). */
-function hint(text: string): string {
-  const m = /^([+-]?)(0[xob])(.+)$/i.exec(text)!;
-  if (m[3]!.length > 40) return '';
-  return ` (${m[1] === '-' ? '-' : ''}${BigInt(m[2]!.toLowerCase() + m[3])})`;
-}
-
 /**
  * The number a user typed: plain decimal digits with an optional sign and point, surrounding spaces
- * ignored. Hex (`0x10`), octal (`0o17`), binary (`0b11`), exponents (`1e2`), decimal commas and words
+ * ignored. Hex (`0x10`), binary (`0b11`), exponents (`1e2`), decimal commas and words
  * such as `Infinity` are refused with a reason that names the decimal value where there is one.
  * A JS number is taken as its shortest round-trip text; NaN and ±Infinity are refused.
  */
@@ -53,14 +46,13 @@ export function readTypedNumber(input: string | number): NumberReading {
   const t = input.trim();
   if (PLAIN.test(t)) return { ok: true, value: Dec(t.startsWith('+') ? t.slice(1) : t) };
   const shown = t.length > 40 ? `"${t.slice(0, 40)}…"` : `"${t}"`;
-  if (/^[+-]?0x[0-9a-f]+$/i.test(t)) return { ok: false, kind: 'form', reason: `${shown} is hex; enter the value in decimal digits${hint(t)}` };
-  if (/^[+-]?0o[0-7]+$/i.test(t)) return { ok: false, kind: 'form', reason: `${shown} is octal; enter the value in decimal digits${hint(t)}` };
-  if (/^[+-]?0b[01]+$/i.test(t)) return { ok: false, kind: 'form', reason: `${shown} is binary; enter the value in decimal digits${hint(t)}` };
-  const exp = /^([+-]?(?:\d+\.?\d*|\.\d+))e([+-]?\d{1,3})$/i.exec(t);
-  if (exp) {
-    const power = Number(exp[2]);
-    const plain = Math.abs(power) <= 40 ? ` (${Dec(exp[1]!.replace(/^\+/, '')).times(Dec(10).pow(power)).toString()})` : '';
-    return { ok: false, kind: 'form', reason: `${shown} uses an exponent; write the digits out${plain}` };
+  const based = /^([+-]?)(0x[0-9a-f]{1,40}|0b[01]{1,40})$/i.exec(t);
+  if (based) {
+    const kind = /x/i.test(based[2]!) ? 'hex' : 'binary';
+    return { ok: false, kind: 'form', reason: `${shown} is ${kind}; enter the value in decimal digits (${based[1] === '-' ? '-' : ''}${BigInt(based[2]!)})` };
+  }
+  if (/^[+-]?(\d+\.?\d*|\.\d+)e[+-]?\d{1,2}$/i.test(t)) {
+    return { ok: false, kind: 'form', reason: `${shown} uses an exponent; write the digits out (${Dec(t.replace(/^\+/, '')).toString()})` };
   }
   if (/^[+-]?\d+,\d+$/.test(t)) return { ok: false, kind: 'form', reason: `${shown} has a decimal comma; use a point (${t.replace(',', '.')})` };
   return { ok: false, kind: 'plain', reason: `${shown} is not a number; enter digits with an optional sign and decimal point` };

@@ -3,7 +3,7 @@
  * are computed as integers scaled by a power of ten, which doubles hold exactly below 2^53; anything
  * larger, or a scale with a divisor, goes through big.js. Both give the same digits.
  */
-import { type Decimal, decimalOf, readTypedNumber, roundExact, scaleExact, toNumber } from './field-format';
+import { type Decimal, type NumberReading, decimalOf, readTypedNumber, roundExact, scaleExact, toNumber } from './field-format';
 import type { DecimalField, IntegerField, Scale } from './template';
 
 export interface ScaledNumber {
@@ -79,33 +79,18 @@ function plus(a: Fixed, b: Fixed): Fixed | undefined {
   return Number.isSafeInteger(m) ? { m, s } : undefined;
 }
 
-/** −1, 0 or 1, or undefined when the comparison cannot be made exactly here. */
-function compare(a: Fixed, b: Fixed): number | undefined {
-  const s = Math.max(a.s, b.s);
-  const x = align(a, s);
-  const y = align(b, s);
-  return x === undefined || y === undefined ? undefined : Math.sign(x - y);
-}
-
 /** x rounded half away from zero to `d` places, as an integer scaled by 10^d, and whether it was exact. */
 function roundFixed(x: Fixed, d: number): { r: number; exact: boolean } | undefined {
   if (x.s <= d) {
     const r = align(x, d);
     return r === undefined ? undefined : { r, exact: true };
   }
-  const k = x.s - d;
-  const unit = POW10[k]!;
+  const unit = POW10[x.s - d]!;
   const a = Math.abs(x.m);
   if (a + unit > Number.MAX_SAFE_INTEGER) return undefined;
+  // a / unit is rounded by less than 1 / unit below 2^53, so its floor is the true quotient
   let q = Math.floor(a / unit);
-  let rest = a - q * unit;
-  if (rest < 0) {
-    q--;
-    rest += unit;
-  } else if (rest >= unit) {
-    q++;
-    rest -= unit;
-  }
+  const rest = a - q * unit;
   if (2 * rest >= unit) q++;
   return { r: x.m < 0 ? -q : q, exact: rest === 0 };
 }
@@ -154,29 +139,32 @@ function fast(field: IntegerField | DecimalField, input: string | number, decima
   const exact = product && plus(product, scale.offset);
   const rounded = exact && roundFixed(exact, decimals);
   if (!exact || !rounded) return undefined;
-  const min = field.min === undefined ? undefined : fixedOfNumber(field.min);
-  const max = field.max === undefined ? undefined : fixedOfNumber(field.max);
-  const belowMin = min ? compare(value, min) : 0;
-  const aboveMax = max ? compare(value, max) : 0;
-  if ((field.min !== undefined && !min) || (field.max !== undefined && !max) || belowMin === undefined || aboveMax === undefined) return undefined;
+  const valueText = scaledText(value.m, value.s);
+  const limits = field.min !== undefined || field.max !== undefined ? outOfRange(field, readTypedNumber(valueText)) : NO_LIMITS;
   return {
     value: n,
-    valueText: scaledText(value.m, value.s),
+    valueText,
     exactText: scaledText(exact.m, exact.s),
     raw: rounded.r / POW10[decimals]! + 0,
     rawText: scaledText(rounded.r, decimals, true),
     rounded: !rounded.exact,
-    belowMin: belowMin < 0,
-    aboveMax: aboveMax > 0,
+    ...limits,
   };
+}
+
+const NO_LIMITS = { belowMin: false, aboveMax: false };
+
+/** The limits compare exactly in big.js (a field with limits is the rarer case). */
+function outOfRange(field: IntegerField | DecimalField, read: NumberReading): { belowMin: boolean; aboveMax: boolean } {
+  const min = field.min === undefined ? undefined : decimalOf(field.min);
+  const max = field.max === undefined ? undefined : decimalOf(field.max);
+  return read.ok ? { belowMin: !!min && read.value.lt(min), aboveMax: !!max && read.value.gt(max) } : NO_LIMITS;
 }
 
 function exactly(field: IntegerField | DecimalField, value: Decimal, decimals: number): ScaleOutcome {
   const exact = scaleExact(value, field.scale);
   if (!exact) return { ok: false, problem: 'scale' };
   const raw = roundExact(exact, decimals);
-  const min = field.min === undefined ? undefined : decimalOf(field.min);
-  const max = field.max === undefined ? undefined : decimalOf(field.max);
   return {
     ok: true,
     number: {
@@ -186,8 +174,7 @@ function exactly(field: IntegerField | DecimalField, value: Decimal, decimals: n
       raw: toNumber(raw),
       rawText: (raw.lt(0) ? '-' : '') + raw.abs().toFixed(decimals),
       rounded: !raw.eq(exact),
-      belowMin: !!min && value.lt(min),
-      aboveMax: !!max && value.gt(max),
+      ...outOfRange(field, { ok: true, value }),
     },
   };
 }

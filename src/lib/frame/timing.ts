@@ -3,7 +3,7 @@
  * bits; Modbus RTU, for example, uses 11 bits (Modbus over Serial Line Specification and
  * Implementation Guide V1.02, 2.5.1). All times are milliseconds unless the name says µs.
  */
-import { type LineSettings, PARITIES } from './port-settings';
+import { type LineSettings, lineSettingsSchema } from './port-settings';
 import { type Result, failure, success } from './result';
 
 /** Above this rate the Modbus guide fixes the silent intervals (2.5.1.1). */
@@ -138,9 +138,8 @@ export interface BitSequence {
 
 /** What is wrong with line settings given in code, or null: the ranges of `lineSettingsSchema`. */
 function lineProblem(s: LineSettings): string | null {
-  if (!(Number.isFinite(s.baud) && s.baud > 0)) return `Baud ${s.baud} must be a positive number`;
-  if (!(Number.isInteger(s.dataBits) && s.dataBits >= 5 && s.dataBits <= 8)) return `Data bits ${s.dataBits} must be 5, 6, 7 or 8`;
-  if (!(s.stopBits === 1 || s.stopBits === 1.5 || s.stopBits === 2)) return `Stop bits ${s.stopBits} must be 1, 1.5 or 2`;
-  if (!PARITIES.includes(s.parity)) return `Parity "${s.parity}" must be one of ${PARITIES.join(', ')}`;
-  return null;
+  const r = lineSettingsSchema.safeParse(s);
+  if (r.success) return null;
+  const key = String(r.error.issues[0]!.path[0]);
+  return `${key} ${String((s as Record<string, unknown>)[key])} is outside the line settings (${r.error.issues[0]!.message})`;
 }
