@@ -50,12 +50,19 @@ describe('timing', () => {
 
 describe('wire picture', () => {
   it('lays out idle, start, data LSB first, stop with byte labels and time marks', () => {
-    const w = wireLayout(bytes('1\r'), port8N1);
+    const r = wireLayout(bytes('1\r'), port8N1);
+    if (!r.ok) throw new Error(r.error.message);
+    const w = r.value;
     expect(w.cells.map((c) => c.label).join('')).toBe('idleS10001100stopS10110000stopidle');
     expect(w.bytes.map((b) => b.label)).toEqual(['31 1', '0D CR']);
     expect(w.marks.map((m) => m.label)).toEqual(['0 µs', '1.042 ms', '2.083 ms']);
     expect(w.path.startsWith('M44.0 44 H74.0 V78')).toBe(true);
-    expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ truncated: true, shownBytes: 8 });
+    expect(wireLayout(bytes('0123456789'), port8N1, 8)).toMatchObject({ ok: true, value: { truncated: true, shownBytes: 8 } });
+  });
+  it('answers the engine error for settings code passed in unchecked', () => {
+    const bad = wireLayout(bytes('1'), { ...port8N1, dataBits: Infinity } as never);
+    expect(bad.ok).toBe(false);
+    expect(!bad.ok && bad.error.message).toMatch(/^dataBits Infinity is outside the line settings/);
   });
 });
 
@@ -65,6 +72,10 @@ describe('reply notation', () => {
     expect(guessNotation('1=STA<CR>')).toBe('mnemonic');
     expect(guessNotation('1=STA\\r')).toBe('escaped');
     expect(guessNotation('31 3D 0D')).toBe('hex');
+    expect(guessNotation('16#31 16#3D 16#0D')).toBe('hex');
+    expect(guessNotation('31h 3Dh 0Dh')).toBe('hex');
+    expect(guessNotation('<XOFF>')).toBe('mnemonic');
+    expect(readReply('16#0D')).toMatchObject({ ok: true, notation: 'hex', bytes: Uint8Array.of(0x0d) });
     expect(guessNotation('plain')).toBe('escaped');
     expect(readReply('31 0D')).toMatchObject({ ok: true, notation: 'hex' });
     expect(readReply('41 4', 'hex')).toMatchObject({ ok: true });
@@ -84,6 +95,15 @@ describe('field values schema and scaling', () => {
     const choice = { type: 'choice', id: 'c', name: 'c', label: 'C', options: [{ value: 'a', send: 'A' }] } as const;
     expect(fieldValueProblem(choice as never, 'b')).toBe('Choose one of a.');
     expect(valuesSchemaFor(statusQueryTemplate).safeParse({}).success).toBe(true);
+  });
+
+  it('takes plain decimal digits only, and compares limits exactly, like the engine', () => {
+    const angle = { type: 'integer', id: 'a', name: 'angle', label: 'Angle', unit: '°', min: 0, max: 0.3, pad: 'zero', sign: 'negative' } as const;
+    expect(fieldValueProblem(angle, '0x10')).toBe('Angle: "0x10" is hex; enter the value in decimal digits (16).');
+    expect(fieldValueProblem(angle, '1e-1')).toBe('Angle: "1e-1" uses an exponent; write the digits out (0.1).');
+    expect(fieldValueProblem(angle, 'Infinity')).toBe('Angle must be a number.');
+    expect(fieldValueProblem(angle, ' 0.3 ')).toBeNull();
+    expect(fieldValueProblem(angle, '0.30000000000000001')).toBe('At most 0.3 °.');
   });
 
   it('turns steps per revolution into a degrees scale and back', () => {

@@ -1,7 +1,7 @@
 import * as ref from 'js-crc/models';
 import { describe, expect, it } from 'vitest';
 import { assembleFrame, portSettingsSchema, previewFrame, templateSchema, toHex, type Template } from '../../src/lib/frame';
-import { addSegment, duplicateSegment, nudgeSegment, removeSegment, restartForPort, starterTemplate } from '../../src/lib/composer/segments';
+import { addSegment, applyCase, duplicateSegment, nudgeSegment, removeSegment, restartForPort, starterTemplate } from '../../src/lib/composer/segments';
 import { labelOfBytes, textOfHex, hexOfText, CONTROL_CHOICES } from '../../src/lib/composer/bytes-text';
 
 const hex = (t: Template, values = {}) => toHex(assembleFrame(templateSchema.parse(t), values).bytes);
@@ -22,6 +22,12 @@ describe('segment editor helpers', () => {
     const withField = addSegment(addSegment(t, 'integer'), 'integer');
     expect(withField.segments.filter((s) => s.type === 'integer').map((s) => ('name' in s ? s.name : ''))).toEqual(['value', 'value2']);
     expect(templateSchema.safeParse(withField).success).toBe(true);
+  });
+
+  it('changes the case of ASCII letters only', () => {
+    // 'ſ' (U+017F) upper-cases to "S" in Unicode; a literal must not gain an S the user never typed
+    expect(applyCase('goſ', { letterCase: 'upper' })).toBe('GOſ');
+    expect(applyCase('GO\u212A', { letterCase: 'lower' })).toBe('go\u212A');
   });
 
   it('keeps checksum ranges on the same segments through duplicate, move and remove', () => {

@@ -69,6 +69,15 @@ describe('field kinds', () => {
     expect(toHex(r.bytes)).toBe('61 7F 62 80 FF');
     expect(r.findings).toMatchObject([{ code: 'field-invalid-char', range: [1, 2] }]);
   });
+  test('upper and lower case and choice keys fold ASCII letters only', () => {
+    const t = tpl([{ type: 'text', id: 't', name: 'x', label: 'X', case: 'upper' }]);
+    // 'ſ' (U+017F) would upper-case to "S" and 'ß' to "SS"; both must stay refused, not become ASCII
+    expect(assembleFrame(t, { x: 'abſ' }).findings).toMatchObject([{ code: 'field-invalid-char', range: [2, 3] }]);
+    expect(toHex(assembleFrame(t, { x: 'abß' }).bytes)).toBe('41 42 DF');
+    const c = tpl([{ type: 'choice', id: 'c', name: 'c', label: 'C', options: [{ value: 'kelvin', send: 'K' }] }]);
+    expect(assembleFrame(c, { c: 'KELVIN' }).ok).toBe(true);
+    expect(assembleFrame(c, { c: '\u212Aelvin' }).findings).toMatchObject([{ code: 'field-invalid' }]);
+  });
   test('choice sends the option text', () => {
     const t = tpl([{ type: 'choice', id: 'c', name: 'dir', label: 'Direction', options: [{ value: 'forward', send: 'F' }, { value: 'reverse', send: 'R' }] }]);
     expect(toHex(assembleFrame(t, { dir: 'reverse' }).bytes)).toBe('52');
@@ -165,7 +174,9 @@ describe('template JSON', () => {
       { type: 'literal', id: 'b', bytes: '02' },
       { type: 'checksum', id: 'k', algorithm: 'XOR-8', range: { from: 1, to: 1 } },
     ]);
-    const moved = moveSegment(t, 1, 0);
+    const r = moveSegment(t, 1, 0);
+    if (!r.ok) throw new Error(r.error.message);
+    const moved = r.value;
     expect(moved.segments.map((s) => s.id)).toEqual(['b', 'a', 'k']);
     expect(moved.segments[2]).toMatchObject({ range: { from: 0, to: 0 } });
     expect(toHex(assembleFrame(moved, {}).bytes)).toBe('02 01 02');

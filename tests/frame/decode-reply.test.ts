@@ -62,4 +62,18 @@ describe('decodeReply', () => {
     expect(d.fields.note).toMatchObject({ text: 'ok\u007f\u0080\u00ff', range: [9, 14] });
     expect(d.findings).toEqual([]);
   });
+  test('templates that can be split many ways still answer quickly, with findings', () => {
+    const t = tpl([
+      { type: 'text', id: 'a', name: 'a', label: 'A' },
+      { type: 'text', id: 'b', name: 'b', label: 'B' },
+      { type: 'integer', id: 'n', name: 'n', label: 'N' },
+      { type: 'integer', id: 'm', name: 'm', label: 'M' },
+      { type: 'terminator', id: 'e', bytes: '0D' },
+    ]);
+    const started = performance.now();
+    const d = decodeReply(t, ascii('x'.repeat(20_000) + '1'.repeat(5_000)));
+    expect(performance.now() - started).toBeLessThan(3000);
+    expect(d.ok).toBe(false);
+    expect(d.findings.map((f) => f.code)).toContain('reply-too-short');
+  });
 });

@@ -31,6 +31,27 @@ describe('escaped notation', () => {
     expect(renderEscaped(b(0x00, 0x38))).toBe('\\08');
     expect(hex(parseEscaped('\\08'))).toBe('00 38');
   });
+  test('renders so that a C compiler reads the same bytes: octal before a hex digit, \\" and no trigraphs', () => {
+    // ISO/IEC 9899:2018, 6.4.4.4: a hex escape takes every hex digit after \x, so \x01A would be one byte 0x1A;
+    // an octal escape stops after three digits, so \001A is 01 then "A"
+    expect(renderEscaped(b(0x01, 0x41))).toBe('\\001A');
+    expect(renderEscaped(b(0x1b, 0x46))).toBe('\\033F');
+    expect(renderEscaped(b(0xff, 0x30, 0x7f, 0x66))).toBe('\\3770\\177f');
+    expect(renderEscaped(b(0x01, 0x47, 0x80))).toBe('\\x01G\\x80');
+    // 6.4.5: a bare " ends the string literal; 5.2.1.1: ??= ??/ etc. are trigraphs in strict ISO modes
+    expect(renderEscaped(b(0x22))).toBe('\\"');
+    expect(renderEscaped(b(0x3f, 0x3f, 0x3d))).toBe('?\\?=');
+    expect(renderEscaped(b(0x3f, 0x3f, 0x3f, 0x2f))).toBe('?\\?\\?/');
+    for (const text of ['\\001A', '\\033F', '\\"', '?\\?=', '\\3770\\177f']) {
+      const r = parseEscaped(text);
+      expect(r.ok && renderEscaped(r.value)).toBe(text);
+    }
+  });
+  test('\\e is ESC (0x1B) on input', () => {
+    // common practice: \e for ESC is a widespread C compiler extension (not in ISO/IEC 9899)
+    expect(hex(parseEscaped('\\e[2J'))).toBe('1B 5B 32 4A');
+    expect(renderEscaped(b(0x1b, 0x5b))).toBe('\\x1B[');
+  });
   test('other simple escapes are accepted on input', () => {
     // ISO/IEC 9899:2018, 6.4.4.4: \a \b \f \v \' \" \?
     expect(hex(parseEscaped('\\a\\b\\f\\v\\\'\\"\\?'))).toBe('07 08 0C 0B 27 22 3F');
@@ -97,6 +118,18 @@ describe('mnemonic notation', () => {
     expect(renderMnemonic(b())).toBe('');
     expect(hex(parseMnemonic(''))).toBe('');
   });
+  test('names are ASCII only: no Unicode case folding', () => {
+    // 'ſ' (U+017F) upper-cases to S, 'ﬅ' (U+FB05) to ST, 'ﬀ' (U+FB00) to FF, 'ı' (U+0131) to I
+    for (const text of ['<ſTX>', '<ﬅX>', '<ﬀ>', '<ſP>', '<\u0131>', '<\u212Aa>']) {
+      expect(parseMnemonic('A' + text)).toMatchObject({ ok: false, error: { position: 1 } });
+    }
+    expect(hex(parseMnemonic('<sTx><Sp>'))).toBe('02 20');
+  });
+  test('XON and XOFF are accepted as DC1 and DC3', () => {
+    // common practice: software flow control sends XON as DC1 (0x11) and XOFF as DC3 (0x13); RFC 20 section 4.1 names DC1, DC3
+    expect(hex(parseMnemonic('<XON><xoff><DC1><DC3>'))).toBe('11 13 11 13');
+    expect(renderMnemonic(b(0x11, 0x13))).toBe('<DC1><DC3>');
+  });
   test('a literal < round-trips as <x3C>', () => {
     expect(renderMnemonic(b(0x3c, 0x3e))).toBe('<x3C>>');
     expect(hex(parseMnemonic('<x3C>>'))).toBe('3C 3E');
@@ -119,6 +152,27 @@ describe('hex and decimal notations', () => {
     expect(renderHex(b())).toBe('');
     expect(hex(parseHex(''))).toBe('');
   });
+  test('hex takes the PLC forms 16#0D and 2#00001101 and the suffix form 0Dh', () => {
+    // IEC 61131-3 ed. 3, Annex B integer literals (recalled from memory): base 16#, 8#, 2# with optional _ between digits
+    expect(hex(parseHex('16#0D 16#0a'))).toBe('0D 0A');
+    expect(hex(parseHex('16#0D0A,16#FF_FE'))).toBe('0D 0A FF FE');
+    expect(hex(parseHex('2#00001101 2#1010 2#0000_1101_0000_1010'))).toBe('0D 0A 0D 0A');
+    // common practice: assembler-style hex with an h suffix (0Dh)
+    expect(hex(parseHex('0Dh 0ah 7FH 80h FFh'))).toBe('0D 0A 7F 80 FF');
+    expect(hex(parseHex('0D0Ah Dh'))).toBe('0D 0A 0D');
+    expect(hex(parseHex('02 16#41 42h 2#01000011 0x44'))).toBe('02 41 42 43 44');
+  });
+  test('errors in the PLC and suffix forms', () => {
+    expect(parseHex('0D 16#')).toMatchObject({ ok: false, error: { position: 3 } });
+    expect(parseHex('16#0G')).toMatchObject({ ok: false, error: { position: 4 } });
+    expect(parseHex('16#ABC')).toMatchObject({ ok: false, error: { position: 0 } });
+    expect(parseHex('2#102')).toMatchObject({ ok: false, error: { position: 4 } });
+    expect(parseHex('2#101010101')).toMatchObject({ ok: false, error: { position: 0 } });
+    expect(parseHex('16#_0D')).toMatchObject({ ok: false, error: { position: 3 } });
+    expect(parseHex('0Dhh')).toMatchObject({ ok: false, error: { position: 3 } });
+    expect(parseHex('h')).toMatchObject({ ok: false, error: { position: 0 } });
+    expect(parseHex('8#15')).toMatchObject({ ok: false, error: { position: 0 } });
+  });
   test('hex errors', () => {
     expect(parseHex('0D 0G')).toMatchObject({ ok: false, error: { position: 4 } });
     expect(parseHex('0D ABC')).toMatchObject({ ok: false, error: { position: 3 } });
@@ -132,6 +186,15 @@ describe('hex and decimal notations', () => {
     expect(hex(parseDecimal(''))).toBe('');
     expect(parseDecimal('13 256')).toMatchObject({ ok: false, error: { position: 3 } });
     expect(parseDecimal('13 -1')).toMatchObject({ ok: false, error: { position: 3 } });
+  });
+  test('decimal also takes bytes written in another base, marked: 16#0D, 0x0D, 0Dh, 8#15, 2#1101, 0b1101', () => {
+    // IEC 61131-3 ed. 3, Annex B integer literals (recalled from memory): 16#, 8#, 2#; common practice: 0x, 0b and the h suffix
+    expect(hex(parseDecimal('16#0D 0x0A 0Dh 8#15 2#1101 0b1101 2#0000_1101 255'))).toBe('0D 0A 0D 0D 0D 0D 0D FF');
+    expect(hex(parseDecimal('16#FF 0x80 7Fh 0b0 2#11111111'))).toBe('FF 80 7F 00 FF');
+    expect(parseDecimal('16#100')).toMatchObject({ ok: false, error: { position: 0 } });
+    expect(parseDecimal('1 0b2')).toMatchObject({ ok: false, error: { position: 4 } });
+    expect(parseDecimal('8#9')).toMatchObject({ ok: false, error: { position: 2 } });
+    expect(parseDecimal('1 0x')).toMatchObject({ ok: false, error: { position: 2 } });
   });
 });
 

@@ -22,12 +22,12 @@ test('0x00, 0x7F, 0x80, 0xFF, signed view, even length not padded', () => {
 
 test('empty', () => {
   expect(packRegisterWords(new Uint8Array(0))).toMatchObject({ words: [], wordCount: 0, padded: false, hex: '', decimal: '' });
-  expect(unpackRegisterWords([], 'high-first').length).toBe(0);
+  expect(unpackRegisterWords([], 'high-first')).toEqual({ ok: true, value: new Uint8Array(0) });
 });
 
 test('unpack drops the padding when given the byte count', () => {
-  expect(Array.from(unpackRegisterWords([0x4142, 0x4300], 'high-first', 3))).toEqual([0x41, 0x42, 0x43]);
-  expect(Array.from(unpackRegisterWords([0x4241, 0x0043], 'low-first'))).toEqual([0x41, 0x42, 0x43, 0x00]);
+  expect(unpackRegisterWords([0x4142, 0x4300], 'high-first', 3)).toEqual({ ok: true, value: Uint8Array.from([0x41, 0x42, 0x43]) });
+  expect(unpackRegisterWords([0x4241, 0x0043], 'low-first')).toEqual({ ok: true, value: Uint8Array.from([0x41, 0x42, 0x43, 0x00]) });
 });
 
 test('word text errors carry positions', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { bitSequence, bitsPerChar, charTimeMs, lineTiming, pollCycle, silentIntervals } from '~/lib/frame';
+import { type LineSettings, bitSequence as bitSequenceResult, bitsPerChar, charTimeMs, lineTiming, pollCycle, silentIntervals } from '~/lib/frame';
 
 const s = (baud: number, dataBits = 8, parity: 'none' | 'even' | 'odd' | 'mark' | 'space' = 'none', stopBits: 1 | 1.5 | 2 = 1) => ({ baud, dataBits, parity, stopBits });
 
@@ -40,6 +40,13 @@ describe('character and frame time', () => {
     expect(lineTiming(s(9600), 0).frameTimeMs).toBe(0);
   });
 });
+
+/** The sequence, for settings that are valid (errors are tested in typed-calls.test.ts). */
+function bitSequence(bytes: Uint8Array, settings: LineSettings, maxBytes?: number) {
+  const r = bitSequenceResult(bytes, settings, maxBytes);
+  if (!r.ok) throw new Error(r.error.message);
+  return r.value;
+}
 
 describe('bitSequence', () => {
   const levels = (bytes: number[], settings: ReturnType<typeof s>) =>

@@ -140,6 +140,16 @@ describe('POST /api/tools/frame', () => {
     expect(r.body.notations.iecLiteral).toBe("'TURN +4500$0D'");
     expect(r.body.segments[1]).toEqual({ index: 1, id: 'a', type: 'integer', start: 5, end: 10, name: 'angle', value: 45, raw: 4500 });
   });
+  test('typed values are scaled in exact decimals; numbers that cannot be sent are error findings', async () => {
+    // computed with Python decimal, ROUND_HALF_UP: 1.005 × 100 = 100.5 → 101
+    const exact = await call(frame, { template, values: { angle: '1.005' } });
+    expect(exact.body).toMatchObject({ ok: true, bytes: '54 55 52 4E 20 2B 31 30 31 0D', findings: [{ code: 'field-not-integer' }] });
+    const hex = await call(frame, { template, values: { angle: '0x10' } });
+    expect(hex.body).toMatchObject({ ok: false, bytes: '54 55 52 4E 20 0D', findings: [{ code: 'field-invalid', severity: 'error' }] });
+    const huge = await call(frame, { template, values: { angle: 1e300 } });
+    expect(huge.body).toMatchObject({ ok: false, findings: [{ code: 'field-too-wide', severity: 'error' }] });
+    expect(huge.body.notations.escaped).not.toMatch(/e\+|Infinity/);
+  });
   test('findings from the port settings and frame rules', async () => {
     const r = await call(frame, { template, values: {}, settings: { dataBits: 7, frameRules: { terminator: '0A' } } });
     expect(r.status).toBe(200);

@@ -98,7 +98,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
             <TimingPanel timing={timing} />
           </Section>
           <Section title="On the wire" id="wire">
-            <WirePicture layout={wire} shorthand={timing.shorthand} />
+            {wire.ok ? <WirePicture layout={wire.value} shorthand={timing.shorthand} /> : <p className="field-error" role="alert">{wire.error.message}.</p>}
           </Section>
         </div>
       </div>

@@ -1,5 +1,5 @@
 /** The segment list: add literal text, control characters, fields, a checksum and a terminator; reorder, duplicate, remove. */
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { resolveChecksum } from '../../lib/frame/checksum';
 import type { FrameRulesInput } from '../../lib/frame/frame-rules';
 import type { PortSettings } from '../../lib/frame/port-settings';
@@ -7,7 +7,9 @@ import type { Segment, Template } from '../../lib/frame/template';
 import { ADD_KINDS, addSegment, duplicateSegment, nudgeSegment, removeSegment, replaceSegment, type AddKind } from '../../lib/composer/segments';
 import { CONTROL_CHOICES, labelOfBytes } from '../../lib/composer/bytes-text';
 import { segmentTitle } from '../../lib/composer/cells';
-import { SegmentFields } from './SegmentFields';
+
+// The editor of one segment's settings opens on demand (Edit), so it loads then (composer JavaScript budget).
+const SegmentFields = lazy(() => import('./SegmentFields').then((m) => ({ default: m.SegmentFields })));
 
 interface Props {
   /** Prefix for element ids, so the request and reply editors can share a page. */
@@ -70,10 +72,12 @@ export function SegmentEditor({ idPrefix, template, onChange, rules, protocol, r
               </div>
               {open === s.id && (
                 <div className="mt-2 border-t border-line pt-2">
-                  <SegmentFields seg={s} index={i} template={template} readOnly={readOnly}
-                    onChange={(seg) => onChange(replaceSegment(template, i, seg))}
-                    rawUnit={'name' in s ? rawUnits[s.name] ?? '' : ''}
-                    onRawUnit={(u) => 'name' in s && onRawUnits({ ...rawUnits, [s.name]: u })} />
+                  <Suspense fallback={<p className="text-sm text-muted">Loading the segment settings…</p>}>
+                    <SegmentFields seg={s} index={i} template={template} readOnly={readOnly}
+                      onChange={(seg) => onChange(replaceSegment(template, i, seg))}
+                      rawUnit={'name' in s ? rawUnits[s.name] ?? '' : ''}
+                      onRawUnit={(u) => 'name' in s && onRawUnits({ ...rawUnits, [s.name]: u })} />
+                  </Suspense>
                 </div>
               )}
             </li>

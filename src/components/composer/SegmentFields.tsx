@@ -78,7 +78,7 @@ export function SegmentFields({ seg, index, template, onChange, rawUnit, onRawUn
           <input id={id('raw')} className="input !py-1" value={rawUnit} readOnly={readOnly} placeholder="steps" onChange={(e) => onRawUnit(e.target.value)} />
         </Labeled>
         <Labeled id={id('factor')} label="Scale factor (raw per unit)">
-          <NumInput id={id('factor')} value={seg.scale?.factor} readOnly={readOnly} onChange={(f) => onChange({ ...seg, scale: f ? { factor: f, offset: seg.scale?.offset ?? 0 } : undefined })} />
+          <NumInput id={id('factor')} value={seg.scale ? seg.scale.factor / (seg.scale.divisor ?? 1) : undefined} readOnly={readOnly} onChange={(f) => onChange({ ...seg, scale: f ? { factor: f, offset: seg.scale?.offset ?? 0 } : undefined })} />
         </Labeled>
         {isDegrees(seg.unit) ? (
           <Labeled id={id('spr')} label="Steps per revolution">

@@ -14,14 +14,16 @@ export const NOTATION_LABELS: Record<Notation, string> = {
 
 /**
  * Best guess at the notation of pasted text: a quoted or `$hh` text is a PLC string, `<NAME>` is
- * control names, a backslash is escaped, pairs of hex digits are hex, else escaped (plain text).
+ * control names, a backslash is escaped, pairs of hex digits (also `0x0D`, `16#0D`, `0Dh`) are hex, else
+ * escaped (plain text).
  */
 export function guessNotation(text: string): Notation {
   const t = text.trim();
   if (/^'.*'$/s.test(t) || /\$[0-9A-Fa-f]{2}|\$[RLNPT$']/.test(t)) return 'iec';
-  if (/<(?:[A-Z]{2,3}|x[0-9A-Fa-f]{2})>/i.test(t)) return 'mnemonic';
+  if (/<(?:[A-Z]{2,4}|x[0-9A-Fa-f]{2})>/i.test(t)) return 'mnemonic';
   if (t.includes('\\')) return 'escaped';
-  if (/^(?:0x)?[0-9A-Fa-f]{2}(?:[\s,;:-]+(?:0x)?[0-9A-Fa-f]{2})*$/.test(t) && /[\s,;:-]/.test(t)) return 'hex';
+  const pair = '(?:(?:0x|16#)[0-9A-Fa-f]{2}|[0-9A-Fa-f]{2}[hH]?)';
+  if (new RegExp(`^${pair}(?:[\\s,;:-]+${pair})*$`).test(t) && (/[\s,;:-]/.test(t) || /^(0x|16#)/i.test(t))) return 'hex';
   return 'escaped';
 }
 

@@ -83,9 +83,11 @@ export interface AddOptions {
   protocol?: Protocol;
 }
 
-/** Applies the frame rules' letter case to literal text. */
+/** Applies the frame rules' letter case to literal text; ASCII letters only (ſ must not become S, nor ß SS). */
 export function applyCase(text: string, rules: FrameRulesInput = {}): string {
-  return rules.letterCase === 'upper' ? text.toUpperCase() : rules.letterCase === 'lower' ? text.toLowerCase() : text;
+  if (rules.letterCase === 'upper') return text.replace(/[a-z]+/g, (m) => m.toUpperCase());
+  if (rules.letterCase === 'lower') return text.replace(/[A-Z]+/g, (m) => m.toLowerCase());
+  return text;
 }
 
 export function makeSegment(t: Template, kind: AddKind, rules: FrameRulesInput = {}, opts: AddOptions = {}): Segment {
@@ -178,7 +180,9 @@ export function removeSegment(t: Template, index: number): Template {
 export function nudgeSegment(t: Template, index: number, delta: -1 | 1): Template {
   const to = index + delta;
   if (to < 0 || to >= t.segments.length) return t;
-  const moved = moveSegment(t, index, to);
+  const r = moveSegment(t, index, to);
+  if (!r.ok) return t;
+  const moved = r.value;
   return { ...moved, segments: moved.segments.map((s, i) => (s.type === 'checksum' ? sane(s, i) : s)) };
 }
 

@@ -1,6 +1,7 @@
 /** Geometry of the wire picture: the engine's bit cells laid out as an SVG step line with labels and time marks. */
 import { bitSequence, type BitCell } from '../frame/timing';
 import type { LineSettings } from '../frame/port-settings';
+import { type Result, success } from '../frame/result';
 import { byteGlyph } from './bytes-text';
 import { us } from './format';
 
@@ -41,8 +42,11 @@ export interface WireLayout {
 
 export const WIRE = { bitWidth: 30, left: 44, right: 12, top: 44, level: 34, labelRow: 22, markRow: 22 };
 
-export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes = 8): WireLayout {
-  const seq = bitSequence(bytes, settings, maxBytes);
+/** The picture of the first `maxBytes` bytes, or the engine's error for settings it cannot draw. */
+export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes = 8): Result<WireLayout> {
+  const r = bitSequence(bytes, settings, maxBytes);
+  if (!r.ok) return r;
+  const seq = r.value;
   const bitUs = 1e6 / settings.baud;
   const px = WIRE.bitWidth / bitUs;
   const highY = WIRE.top;
@@ -72,7 +76,7 @@ export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes =
   const marks: WireMark[] = groups.map((g) => ({ x: g.x, label: us(cells.find((c) => c.byteIndex === g.index)!.startUs - t0) }));
   const end = cells[cells.length - 1]!;
   marks.push({ x: end.x, label: us(end.startUs - t0) });
-  return {
+  return success({
     width: Math.ceil(end.x + end.width + WIRE.right),
     height: lowY + WIRE.labelRow + WIRE.markRow + 8,
     path,
@@ -84,5 +88,5 @@ export function wireLayout(bytes: Uint8Array, settings: LineSettings, maxBytes =
     truncated: seq.truncated,
     shownBytes: groups.length,
     totalUs: seq.totalUs,
-  };
+  });
 }

@@ -75,6 +75,31 @@ export function renderWithTable(bytes: Uint8Array, table: RenderTable, separator
   return decoder.decode(out.subarray(0, at));
 }
 
+/**
+ * Like `renderWithTable` (no separator), but each byte takes its string from `tables[pick(bytes, i)]`,
+ * for notations where a byte's rendering depends on its neighbours.
+ */
+export function renderWithChoice(bytes: Uint8Array, tables: readonly RenderTable[], pick: (bytes: Uint8Array, i: number) => number): string {
+  const n = bytes.length;
+  if (n === 0) return '';
+  const need = n * Math.max(...tables.map((t) => t.maxLength));
+  if (scratch.length < need) scratch = new Uint8Array(Math.max(need, scratch.length * 2));
+  const out = scratch;
+  const allCodes = tables.map((t) => t.codes);
+  const allLengths = tables.map((t) => t.lengths);
+  let at = 0;
+  for (let i = 0; i < n; i++) {
+    const k = pick(bytes, i);
+    const codes = allCodes[k]!;
+    const lengths = allLengths[k]!;
+    const b = bytes[i]!;
+    const len = lengths[b]!;
+    const o = b * STRIDE;
+    for (let j = 0; j < len; j++) out[at++] = codes[o + j]!;
+  }
+  return decoder.decode(out.subarray(0, at));
+}
+
 /** Uppercase hex, one pair per byte, space-separated: `0D 0A`. */
 export function toHex(bytes: Uint8Array, separator = ' '): string {
   return renderWithTable(bytes, HEX_TABLE, separator);

@@ -1,9 +1,10 @@
 /** Reads a received reply against a reply template: field values, checksum verdicts, and mismatches. */
 import { HEX_PAIR, bytesAt, bytesToLatin1, indexOfBytes, toHex } from './bytes';
-import { type SegmentSpan, checksumRange, notHexFinding, segmentBytes } from './assemble';
+import { type SegmentSpan, notHexFinding, segmentBytes } from './assemble';
 import { checksumLength, checksumOfRange, formatChecksumValue, placeChecksum, resolveChecksum } from './checksum';
-import { rawToEngineering, readNumber } from './field-format';
+import { engineeringExact, readNumber, toNumber } from './field-format';
 import { type Finding, isClean } from './findings';
+import { type ReplySplit, checksumRangeAt, fixedLength, isNumberChar, splitReply } from './reply-split';
 import type { ChecksumSegment, Segment, Template } from './template';
 
 export interface DecodedField {
@@ -34,20 +35,6 @@ export interface DecodedReply {
   findings: Finding[];
 }
 
-function fixedLength(s: Segment): number | undefined {
-  if (s.type === 'literal' || s.type === 'terminator') return segmentBytes(s).length;
-  if (s.type === 'checksum') {
-    const a = resolveChecksum(s);
-    return a ? checksumLength(a.width, s.encoding) : 0;
-  }
-  if ((s.type === 'integer' || s.type === 'decimal') && s.width !== undefined) return s.width;
-  if (s.type === 'choice') {
-    const n = s.options[0]!.send.length;
-    return s.options.every((o) => o.send.length === n) ? n : undefined;
-  }
-  return undefined;
-}
-
 function readReceivedChecksum(bytes: Uint8Array, seg: ChecksumSegment, width: number): number | null {
   const n = Math.ceil(width / 8);
   if (seg.encoding === 'binary') {
@@ -66,57 +53,23 @@ function readReceivedChecksum(bytes: Uint8Array, seg: ChecksumSegment, width: nu
   return parseInt(pairs.join(''), 16);
 }
 
-const NUMERIC_CHAR = /[0-9+\-. ]/;
-
-export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply {
-  const segs = template.segments;
-  const spans: SegmentSpan[] = [];
-  const fields: Record<string, DecodedField> = {};
-  const checksums: ChecksumVerdict[] = [];
-  const findings: Finding[] = [];
+/**
+ * Where the segments lie when no split reads the whole reply (a malformed reply): left to right, each
+ * segment where it would be, so the findings can say what went wrong where. `shortAt` is the first
+ * segment the reply ran out in.
+ */
+function walkReply(segs: readonly Segment[], bytes: Uint8Array): ReplySplit & { shortAt: number } {
+  const n = bytes.length;
+  const starts: number[] = [];
+  const ends: number[] = [];
+  let shortAt = segs.length;
   let pos = 0;
-  let short = false;
-  const tooShort = (s: Segment) => {
-    if (!short) findings.push({ severity: 'error', code: 'reply-too-short', segmentId: s.id, range: [bytes.length, bytes.length], message: `The reply ended after ${bytes.length} bytes, before "${s.id}"; check the response timeout and that the whole reply arrived.` });
-    short = true;
-  };
-
   for (let index = 0; index < segs.length; index++) {
     const s = segs[index]!;
-    const start = pos;
-    if (s.type === 'literal' || s.type === 'terminator') {
-      const want = segmentBytes(s);
-      if (pos + want.length > bytes.length) tooShort(s);
-      else if (!bytesAt(bytes, want, pos)) {
-        const got = bytes.subarray(pos, pos + want.length);
-        findings.push({ severity: 'error', code: 'reply-mismatch', segmentId: s.id, range: [pos, pos + want.length], message: `Expected ${toHex(want)} at position ${pos} but received ${toHex(got)}; the reply does not follow this template.` });
-      }
-      pos = Math.min(bytes.length, pos + want.length);
-      spans.push({ index, id: s.id, type: s.type, start, end: pos });
-    } else if (s.type === 'checksum') {
-      const a = resolveChecksum(s);
-      if (!a) continue;
-      const len = checksumLength(a.width, s.encoding);
-      if (pos + len > bytes.length) {
-        tooShort(s);
-        pos = bytes.length;
-        spans.push({ index, id: s.id, type: s.type, start, end: pos });
-        continue;
-      }
-      const [from, to] = checksumRange(s, spans, pos);
-      const { value: expected, problem } = checksumOfRange(a, s.over, bytes, from, to);
-      if (problem) findings.push(notHexFinding(s, problem));
-      const ok = bytesAt(bytes, placeChecksum(expected, a.width, s), pos);
-      const received = readReceivedChecksum(bytes.subarray(pos, pos + len), s, a.width);
-      pos += len;
-      checksums.push({ segmentId: s.id, algorithm: a.name, expected, received, ok, range: [start, pos] });
-      spans.push({ index, id: s.id, type: s.type, start, end: pos, raw: received ?? undefined });
-      if (!ok) {
-        const got = received === null ? `"${toHex(bytes.subarray(start, pos))}"` : formatChecksumValue(received, a.width);
-        findings.push({ severity: 'error', code: 'checksum-mismatch', segmentId: s.id, range: [start, pos], message: `${a.name} should be ${formatChecksumValue(expected, a.width)} but the reply carries ${got}; the reply was corrupted on the line, or the checksum settings (range, byte order, encoding) differ from the device's.` });
-      }
-    } else {
-      let end: number;
+    starts.push(pos);
+    let end: number;
+    if (s.type === 'literal' || s.type === 'terminator' || s.type === 'checksum') end = pos + fixedLength(s)!;
+    else {
       const w = fixedLength(s);
       let tail: number | undefined = 0;
       for (let j = index + 1; j < segs.length && tail !== undefined; j++) {
@@ -124,28 +77,86 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
         tail = f === undefined ? undefined : tail + f;
       }
       const next = segs[index + 1];
+      const delimiter = next && (next.type === 'literal' || next.type === 'terminator') ? segmentBytes(next) : undefined;
       if (w !== undefined) end = pos + w;
       else if (s.type === 'choice') {
         const match = [...s.options].sort((x, y) => y.send.length - x.send.length).find((o) => bytesToLatin1(bytes.subarray(pos, pos + o.send.length)) === o.send);
         end = pos + (match ? match.send.length : 0);
-      } else if (next && (next.type === 'literal' || next.type === 'terminator')) {
-        const at = indexOfBytes(bytes, segmentBytes(next), pos);
-        end = at < 0 ? bytes.length : at;
-      } else if (s.type !== 'text') {
+      } else if (delimiter?.length) {
+        const at = indexOfBytes(bytes, delimiter, pos);
+        end = at < 0 ? n : at;
+      } else if (tail !== undefined) end = Math.max(pos, n - tail);
+      else if (s.type !== 'text') {
         end = pos;
-        while (end < bytes.length && NUMERIC_CHAR.test(String.fromCharCode(bytes[end]!))) end++;
-      } else end = tail !== undefined ? Math.max(pos, bytes.length - tail) : bytes.length;
-      if (end > bytes.length) {
-        tooShort(s);
-        end = bytes.length;
+        while (end < n && isNumberChar(bytes[end]!)) end++;
+      } else end = n;
+    }
+    if (end > n) {
+      shortAt = Math.min(shortAt, index);
+      end = n;
+    }
+    ends.push(end);
+    pos = end;
+  }
+  return { starts, ends, shortAt };
+}
+
+/**
+ * Splits the reply into the template's segments, then reads each one. The split is the one where every
+ * segment fits and every checksum verifies; failing that, one where the segments fit with a checksum
+ * that does not (reported as `checksum-mismatch`); failing that, a left-to-right read that reports the
+ * first mismatch, a short reply or an unreadable field. So a reply assembled from the template always
+ * reads back as the values it was assembled from, when the template can be read one way only.
+ */
+export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply {
+  const segs = template.segments;
+  const split = splitReply(segs, bytes, true) ?? splitReply(segs, bytes, false);
+  const { starts, ends, shortAt } = split ? { ...split, shortAt: segs.length } : walkReply(segs, bytes);
+  const spans: SegmentSpan[] = [];
+  const fields: Record<string, DecodedField> = {};
+  const checksums: ChecksumVerdict[] = [];
+  const findings: Finding[] = [];
+
+  for (let index = 0; index < segs.length; index++) {
+    const s = segs[index]!;
+    const start = starts[index]!;
+    const end = ends[index]!;
+    if (index === shortAt) {
+      findings.push({ severity: 'error', code: 'reply-too-short', segmentId: s.id, range: [bytes.length, bytes.length], message: `The reply ended after ${bytes.length} bytes, before "${s.id}"; check the response timeout and that the whole reply arrived.` });
+    }
+    if (s.type === 'literal' || s.type === 'terminator') {
+      const want = segmentBytes(s);
+      if (index < shortAt && !bytesAt(bytes, want, start)) {
+        findings.push({ severity: 'error', code: 'reply-mismatch', segmentId: s.id, range: [start, start + want.length], message: `Expected ${toHex(want)} at position ${start} but received ${toHex(bytes.subarray(start, start + want.length))}; the reply does not follow this template.` });
       }
-      const text = bytesToLatin1(bytes.subarray(pos, end));
-      const field: DecodedField = { text, range: [pos, end] };
+      spans.push({ index, id: s.id, type: s.type, start, end });
+    } else if (s.type === 'checksum') {
+      const a = resolveChecksum(s);
+      if (!a) continue;
+      if (index >= shortAt) {
+        spans.push({ index, id: s.id, type: s.type, start, end });
+        continue;
+      }
+      const [from, to] = checksumRangeAt(s, starts, ends, start);
+      const { value: expected, problem } = checksumOfRange(a, s.over, bytes, from, to);
+      if (problem) findings.push(notHexFinding(s, problem));
+      const ok = bytesAt(bytes, placeChecksum(expected, a.width, s), start);
+      const received = readReceivedChecksum(bytes.subarray(start, start + checksumLength(a.width, s.encoding)), s, a.width);
+      checksums.push({ segmentId: s.id, algorithm: a.name, expected, received, ok, range: [start, end] });
+      spans.push({ index, id: s.id, type: s.type, start, end, raw: received ?? undefined });
+      if (!ok) {
+        const got = received === null ? `"${toHex(bytes.subarray(start, end))}"` : formatChecksumValue(received, a.width);
+        findings.push({ severity: 'error', code: 'checksum-mismatch', segmentId: s.id, range: [start, end], message: `${a.name} should be ${formatChecksumValue(expected, a.width)} but the reply carries ${got}; the reply was corrupted on the line, or the checksum settings (range, byte order, encoding) differ from the device's.` });
+      }
+    } else {
+      const text = bytesToLatin1(bytes.subarray(start, end));
+      const field: DecodedField = { text, range: [start, end] };
       if (s.type === 'integer' || s.type === 'decimal') {
         const raw = readNumber(text, s.type === 'decimal');
         if (raw !== undefined) {
-          field.raw = raw;
-          field.value = rawToEngineering(raw, s.scale);
+          field.raw = toNumber(raw);
+          const value = engineeringExact(raw, s.scale);
+          if (value) field.value = toNumber(value);
         }
       } else if (s.type === 'text') {
         field.raw = text;
@@ -157,15 +168,15 @@ export function decodeReply(template: Template, bytes: Uint8Array): DecodedReply
           field.value = option.value;
         }
       }
-      if (field.raw === undefined && !short) {
+      if (field.raw === undefined && index < shortAt) {
         const shown = text.length ? `"${[...text].map((ch) => (ch >= ' ' && ch <= '~' ? ch : `<x${HEX_PAIR[ch.charCodeAt(0)]}>`)).join('')}"` : 'nothing';
-        findings.push({ severity: 'error', code: 'reply-field-unreadable', segmentId: s.id, range: [pos, end], message: `${s.label || s.name}: received ${shown} at position ${pos}, which is not a valid ${s.type} for this field.` });
+        findings.push({ severity: 'error', code: 'reply-field-unreadable', segmentId: s.id, range: [start, end], message: `${s.label || s.name}: received ${shown} at position ${start}, which is not a valid ${s.type} for this field.` });
       }
       fields[s.name] = field;
-      spans.push({ index, id: s.id, type: s.type, start: pos, end, name: s.name, value: field.value, raw: field.raw });
-      pos = end;
+      spans.push({ index, id: s.id, type: s.type, start, end, name: s.name, value: field.value, raw: field.raw });
     }
   }
+  const pos = ends.length ? ends[ends.length - 1]! : 0;
   if (pos < bytes.length) {
     findings.push({ severity: 'warning', code: 'reply-extra-bytes', range: [pos, bytes.length], message: `${bytes.length - pos} bytes after the end of the template (${toHex(bytes.subarray(pos, Math.min(bytes.length, pos + 16)))}); the template may be missing a segment, or two replies ran together.` });
   }

@@ -1,5 +1,6 @@
 /** Turns one field value into the characters sent, with findings about the value. */
-import { differs, formatNumber, roundDecimals, roundHalfAway, scaleToRaw } from './field-format';
+import { MAX_NUMBER_CHARS, formatNumber } from './field-format';
+import { scaleFieldNumber } from './field-number';
 import type { Finding } from './findings';
 import type { ChoiceField, DecimalField, FieldSegment, FieldValues, IntegerField, TextField } from './template';
 
@@ -10,6 +11,11 @@ export interface EncodedField {
   raw?: number | string;
   /** Findings with ranges relative to the field's first byte. */
   findings: Finding[];
+}
+
+/** ASCII letters only change case: Unicode mappings would turn ſ into S or ß into SS behind the user's back. */
+function asciiCase(text: string, to: 'upper' | 'lower'): string {
+  return to === 'upper' ? text.replace(/[a-z]+/g, (m) => m.toUpperCase()) : text.replace(/[A-Z]+/g, (m) => m.toLowerCase());
 }
 
 const show = (f: FieldSegment, v: number | string) => `${v}${f.unit ? ` ${f.unit}` : ''}`;
@@ -28,45 +34,55 @@ function missing(field: FieldSegment): EncodedField {
   };
 }
 
+/** What is wrong with a numeric field built in code without the schema, or null. */
+function numberFieldProblem(field: IntegerField | DecimalField): string | null {
+  if (field.type === 'decimal' && !(Number.isInteger(field.decimals) && field.decimals >= 0 && field.decimals <= 9)) return `has ${field.decimals} decimals; use 0 to 9`;
+  if (field.width !== undefined && !(Number.isInteger(field.width) && field.width >= 1 && field.width <= MAX_NUMBER_CHARS)) return `is ${field.width} characters wide; use 1 to ${MAX_NUMBER_CHARS}`;
+  return null;
+}
+
 function encodeNumber(field: IntegerField | DecimalField, input: string | number): EncodedField {
   const findings: Finding[] = [];
-  const value = typeof input === 'number' ? input : input.trim() === '' ? Number.NaN : Number(input.trim());
-  if (!Number.isFinite(value)) {
-    return {
-      text: '',
-      findings: [{ severity: 'error', code: 'field-invalid', segmentId: field.id, message: `${title(field)} must be a number; "${input}" is not.` }],
-    };
+  const error = (code: 'field-invalid' | 'field-too-wide', message: string): EncodedField => ({
+    text: '',
+    findings: [{ severity: 'error', code, segmentId: field.id, message }],
+  });
+  const shape = numberFieldProblem(field);
+  if (shape) return error('field-invalid', `${title(field)} ${shape}; fix the field.`);
+  const outcome = scaleFieldNumber(field, input);
+  if (!outcome.ok) {
+    return outcome.problem === 'reading'
+      ? error('field-invalid', `${title(field)}: ${outcome.reason}.`)
+      : error('field-invalid', `${title(field)} has a scale that cannot be used (factor and divisor must be finite and not 0); fix the field's scale.`);
   }
-  if (field.min !== undefined && value < field.min) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${show(field, value)} is below the minimum ${show(field, field.min)}; enter ${show(field, field.min)} or more.` });
+  const n = outcome.number;
+  const shown = show(field, n.valueText);
+  if (n.belowMin) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is below the minimum ${show(field, field.min!)}; enter ${show(field, field.min!)} or more.` });
   }
-  if (field.max !== undefined && value > field.max) {
-    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${show(field, value)} is above the maximum ${show(field, field.max)}; enter ${show(field, field.max)} or less.` });
+  if (n.aboveMax) {
+    findings.push({ severity: 'error', code: 'field-out-of-range', segmentId: field.id, message: `${title(field)} ${shown} is above the maximum ${show(field, field.max!)}; enter ${show(field, field.max!)} or less.` });
   }
-  const exact = scaleToRaw(value, field.scale);
-  let raw: number;
-  if (field.type === 'integer') {
-    raw = roundHalfAway(exact);
-    if (raw !== exact) {
-      findings.push({ severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${show(field, value)} gives ${exact} raw, not a whole number; ${raw} will be sent. Enter a value that scales to a whole number.` });
-    }
-  } else {
-    raw = roundDecimals(exact, field.decimals);
-    if (differs(raw, exact)) {
-      findings.push({ severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${exact} has more than ${field.decimals} decimals; ${raw} will be sent.` });
-    }
+  if (n.rounded) {
+    findings.push(field.type === 'integer'
+      ? { severity: 'warning', code: 'field-not-integer', segmentId: field.id, message: `${title(field)} ${shown} gives ${n.exactText} raw, not a whole number; ${n.rawText} will be sent. Enter a value that scales to a whole number.` }
+      : { severity: 'warning', code: 'field-rounded', segmentId: field.id, message: `${title(field)} ${n.exactText} has more than ${field.decimals} decimals; ${n.rawText} will be sent.` });
   }
-  const text = formatNumber(raw, field);
+  const text = formatNumber(n.rawText, field);
+  if (text.length > MAX_NUMBER_CHARS) {
+    const digits = n.rawText.replace('-', '').length;
+    return { text: '', findings: [...findings, { severity: 'error', code: 'field-too-wide', segmentId: field.id, message: `${title(field)} ${shown} gives a raw value of ${digits} characters, more than the ${MAX_NUMBER_CHARS} a number field can send; enter a smaller value or check the scale.` }] };
+  }
   if (field.width !== undefined && text.length > field.width) {
     findings.push({ severity: 'error', code: 'field-too-wide', segmentId: field.id, range: [0, text.length], message: `${title(field)} needs ${text.length} characters ("${text}") but the field is ${field.width} wide; enter a smaller value or widen the field.` });
   }
-  return { text, value, raw, findings };
+  return { text, value: n.value, raw: n.raw, findings };
 }
 
 function encodeText(field: TextField, input: string | number): EncodedField {
   const findings: Finding[] = [];
   const value = String(input);
-  const text = field.case === 'upper' ? value.toUpperCase() : field.case === 'lower' ? value.toLowerCase() : value;
+  const text = field.case === 'upper' ? asciiCase(value, 'upper') : field.case === 'lower' ? asciiCase(value, 'lower') : value;
   if (field.maxLength !== undefined && text.length > field.maxLength) {
     findings.push({ severity: 'error', code: 'field-too-long', segmentId: field.id, range: [field.maxLength, text.length], message: `${title(field)} is ${text.length} characters long; the limit is ${field.maxLength}. Shorten it.` });
   }
@@ -84,7 +100,8 @@ function encodeText(field: TextField, input: string | number): EncodedField {
 
 function encodeChoice(field: ChoiceField, input: string | number): EncodedField {
   const key = String(input);
-  const option = field.options.find((o) => o.value === key) ?? field.options.find((o) => o.value.toLowerCase() === key.toLowerCase());
+  const folded = asciiCase(key, 'lower');
+  const option = field.options.find((o) => o.value === key) ?? field.options.find((o) => asciiCase(o.value, 'lower') === folded);
   if (!option) {
     const list = field.options.map((o) => o.value).join(', ');
     return { text: '', findings: [{ severity: 'error', code: 'field-invalid', segmentId: field.id, message: `${title(field)} "${key}" is not one of the choices; pick one of ${list}.` }] };

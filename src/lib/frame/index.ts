@@ -26,7 +26,7 @@ export {
   isField, loadTemplate, serializeTemplate, moveSegment,
 } from './template';
 export { hexBytesSchema } from './schema-common';
-export { roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
+export { MAX_NUMBER_CHARS, type NumberReading, readTypedNumber, roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
 
 export { type AssembledFrame, type SegmentSpan, assembleFrame } from './assemble';
 export { checkFrame } from './check-frame';
@@ -43,7 +43,7 @@ export {
 
 export {
   MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, pollCycle, bitSequence,
-  type LineTiming, type PolledDevice, type BitCell, type BitKind,
+  type LineTiming, type PolledDevice, type BitCell, type BitKind, type BitSequence,
 } from './timing';
 
 export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';

@@ -12,9 +12,13 @@ export const TEMPLATE_VERSION = 1;
 const idSchema = z.string().min(1).max(64);
 const nameSchema = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.-]{0,63}$/, 'Use letters, digits, _ . - and start with a letter');
 
-/** raw = round(value × factor + offset), rounding half away from zero. */
+/**
+ * raw = round(value × factor ÷ divisor + offset) in exact decimal arithmetic, rounding half away from
+ * zero. `divisor` keeps ratios such as 1000 steps per 360° exact (factor 1000, divisor 360).
+ */
 export const scaleSchema = z.object({
   factor: z.number().finite().refine((f) => f !== 0, 'factor must not be 0'),
+  divisor: z.number().finite().positive().optional(),
   offset: z.number().finite().default(0),
 });
 export type Scale = z.infer<typeof scaleSchema>;
@@ -168,8 +172,15 @@ export function serializeTemplate(t: TemplateInput): Result<string> {
   return success(JSON.stringify(r.data, null, 2));
 }
 
-/** Moves a segment and renumbers checksum ranges so they still cover the same segments. */
-export function moveSegment(t: Template, from: number, to: number): Template {
+/**
+ * Moves a segment from index `from` to index `to` and renumbers checksum ranges so they still cover
+ * the same segments. An index outside the template is an error (position 0).
+ */
+export function moveSegment(t: Template, from: number, to: number): Result<Template> {
+  const n = t.segments.length;
+  for (const [what, i] of [['from', from], ['to', to]] as const) {
+    if (!Number.isInteger(i) || i < 0 || i >= n) return failure(0, `Cannot move ${what} position ${i}: the template has segments 0 to ${n - 1}`);
+  }
   const order = t.segments.map((_, i) => i);
   const [moved] = order.splice(from, 1);
   order.splice(to, 0, moved!);
@@ -183,5 +194,5 @@ export function moveSegment(t: Template, from: number, to: number): Template {
     } as ChecksumSegment['range'];
     return { ...s, range };
   });
-  return { ...t, segments };
+  return success({ ...t, segments });
 }

@@ -3,7 +3,8 @@
  * bits; Modbus RTU, for example, uses 11 bits (Modbus over Serial Line Specification and
  * Implementation Guide V1.02, 2.5.1). All times are milliseconds unless the name says µs.
  */
-import type { LineSettings } from './port-settings';
+import { type LineSettings, lineSettingsSchema } from './port-settings';
+import { type Result, failure, success } from './result';
 
 /** Above this rate the Modbus guide fixes the silent intervals (2.5.1.1). */
 export const MODBUS_FIXED_TIMING_ABOVE_BAUD = 19200;
@@ -96,7 +97,10 @@ export interface BitCell {
  * significant first, the parity bit (even/odd make the count of 1s even/odd; mark = 1, space = 0), and
  * the stop bits as one cell of 1, 1.5 or 2 bit times; one bit time of idle at the end.
  */
-export function bitSequence(bytes: Uint8Array, s: LineSettings, maxBytes = 16): { cells: BitCell[]; totalUs: number; truncated: boolean } {
+export function bitSequence(bytes: Uint8Array, s: LineSettings, maxBytes = 16): Result<BitSequence> {
+  const problem = lineProblem(s);
+  if (problem) return failure(0, problem);
+  if (Number.isNaN(maxBytes) || maxBytes < 0) return failure(0, `Byte limit ${maxBytes} must be 0 or more`);
   const bitUs = 1e6 / s.baud;
   const cells: BitCell[] = [];
   let t = 0;
@@ -122,5 +126,20 @@ export function bitSequence(bytes: Uint8Array, s: LineSettings, maxBytes = 16): 
     push({ kind: 'stop', level: 1, byteIndex }, s.stopBits);
   }
   push({ kind: 'idle', level: 1 }, 1);
-  return { cells, totalUs: t, truncated: n < bytes.length };
+  return success({ cells, totalUs: t, truncated: n < bytes.length });
+}
+
+export interface BitSequence {
+  cells: BitCell[];
+  totalUs: number;
+  /** True when `maxBytes` cut the sequence short. */
+  truncated: boolean;
+}
+
+/** What is wrong with line settings given in code, or null: the ranges of `lineSettingsSchema`. */
+function lineProblem(s: LineSettings): string | null {
+  const r = lineSettingsSchema.safeParse(s);
+  if (r.success) return null;
+  const key = String(r.error.issues[0]!.path[0]);
+  return `${key} ${String((s as Record<string, unknown>)[key])} is outside the line settings (${r.error.issues[0]!.message})`;
 }

@@ -1,5 +1,6 @@
 /** Request and form schemas for the command library, shared by the API routes and the composer islands. */
 import { z } from 'zod';
+import { readTypedNumber } from '../frame/field-format';
 import { isField, templateSchema, type FieldSegment, type Template } from '../frame/template';
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
@@ -15,11 +16,11 @@ export function fieldValueProblem(field: FieldSegment, raw: unknown): string | n
   const empty = raw === undefined || raw === null || raw === '';
   if (empty) return field.default === undefined ? `Enter ${field.label || field.name}.` : null;
   if (field.type === 'integer' || field.type === 'decimal') {
-    const n = typeof raw === 'number' ? raw : Number(String(raw).trim());
-    if (!Number.isFinite(n) || String(raw).trim() === '') return `${field.label || field.name} must be a number.`;
+    const read = readTypedNumber(typeof raw === 'number' ? raw : String(raw));
+    if (!read.ok) return read.kind === 'form' ? `${field.label || field.name}: ${read.reason}.` : `${field.label || field.name} must be a number.`;
     const unit = field.unit ? ` ${field.unit}` : '';
-    if (field.min !== undefined && n < field.min) return `At least ${field.min}${unit}.`;
-    if (field.max !== undefined && n > field.max) return `At most ${field.max}${unit}.`;
+    if (field.min !== undefined && read.value.lt(field.min)) return `At least ${field.min}${unit}.`;
+    if (field.max !== undefined && read.value.gt(field.max)) return `At most ${field.max}${unit}.`;
     return null;
   }
   const s = String(raw);

@@ -4,31 +4,51 @@
  * Input rules:
  * - printable ASCII 0x20-0x7E other than `\` stands for itself;
  * - `\r` 0D, `\n` 0A, `\t` 09, `\\` 5C, and the other simple escapes of 6.4.4.4
- *   (`\a` 07, `\b` 08, `\f` 0C, `\v` 0B, `\'`, `\"`, `\?`);
+ *   (`\a` 07, `\b` 08, `\f` 0C, `\v` 0B, `\'`, `\"`, `\?`); `\e` 1B (ESC, a common compiler extension);
  * - `\xHH` takes exactly two hex digits (either case); C reads hex digits greedily, this notation does not;
  * - octal escapes as in C: `\` followed by one to three octal digits, so `\0` is NUL, `\000` is NUL,
  *   and `\012` is 0A, exactly as a C compiler reads them; values above `\377` are an error;
  * - any other character (a real line break, a non-ASCII letter) is an error: write it as `\xHH`.
  *
- * Rendering: printable ASCII as itself, `\` as `\\`, CR/LF/TAB as `\r \n \t`, NUL as `\0`, except NUL
- * followed by an octal digit `0`-`7`, which renders as `\000` so neither this parser nor a C compiler
- * merges the digit into the escape. Every other byte renders as `\xHH`, uppercase.
+ * Rendering, made so that a C compiler reads the text inside "..." back as exactly these bytes:
+ * printable ASCII as itself, `\` as `\\`, `"` as `\"`, CR/LF/TAB as `\r \n \t`, NUL as `\0`, every
+ * other byte as `\xHH` (uppercase). Where C would read on into the next character, the escape takes the
+ * three-digit octal form instead: `\xHH` before a hex digit (01 41 → `\001A`, since C reads `\x01A` as
+ * one byte) and `\0` before an octal digit (NUL then `1` → `\0001`). A `?` after a `?` is written `\?`
+ * so no trigraph (`??=`, `??/`, ...) can form.
  */
-import { HEX_PAIR, createRenderTable, hexValue, renderWithTable } from '../bytes';
+import { HEX_PAIR, createRenderTable, hexValue, renderWithChoice } from '../bytes';
 import { type Result, failure, success } from '../result';
 
-const RENDER = createRenderTable(Array.from({ length: 256 }, (_, b) => {
+const NORMAL = Array.from({ length: 256 }, (_, b) => {
   if (b === 0x5c) return '\\\\';
+  if (b === 0x22) return '\\"';
   if (b >= 0x20 && b <= 0x7e) return String.fromCharCode(b);
   if (b === 0x0d) return '\\r';
   if (b === 0x0a) return '\\n';
   if (b === 0x09) return '\\t';
   if (b === 0x00) return '\\0';
   return '\\x' + HEX_PAIR[b];
-}));
+});
+const RENDER = createRenderTable(NORMAL);
+/** The context forms: three-digit octal for numeric escapes, `\?` for a question mark. */
+const CONTEXT = createRenderTable(NORMAL.map((s, b) => (b === 0x3f ? '\\?' : s.startsWith('\\x') || b === 0 ? '\\' + b.toString(8).padStart(3, '0') : s)));
+const TABLES = [RENDER, CONTEXT];
+
+const isHexDigit = (b: number | undefined) => b !== undefined && hexValue(b) >= 0;
+const isOctalDigit = (b: number | undefined) => b !== undefined && b >= 0x30 && b <= 0x37;
+
+/** 1 where byte i needs its context form. */
+function pick(bytes: Uint8Array, i: number): number {
+  const b = bytes[i]!;
+  if (b >= 0x20 && b <= 0x7e) return b === 0x3f && i > 0 && bytes[i - 1] === 0x3f ? 1 : 0;
+  if (b === 0) return isOctalDigit(bytes[i + 1]) ? 1 : 0;
+  if (b === 0x0d || b === 0x0a || b === 0x09) return 0;
+  return isHexDigit(bytes[i + 1]) ? 1 : 0;
+}
 
 const SIMPLE: Record<string, number> = {
-  r: 0x0d, n: 0x0a, t: 0x09, '\\': 0x5c, a: 0x07, b: 0x08, f: 0x0c, v: 0x0b, "'": 0x27, '"': 0x22, '?': 0x3f,
+  r: 0x0d, n: 0x0a, t: 0x09, '\\': 0x5c, a: 0x07, b: 0x08, f: 0x0c, v: 0x0b, "'": 0x27, '"': 0x22, '?': 0x3f, e: 0x1b,
 };
 const SIMPLE_CODES = new Int16Array(128).fill(-1);
 for (const [k, v] of Object.entries(SIMPLE)) SIMPLE_CODES[k.charCodeAt(0)] = v;
@@ -77,20 +97,9 @@ export function parseEscaped(text: string): Result<Uint8Array> {
   return success(out.slice(0, n));
 }
 
-/** Escaped notation of bytes; `parseEscaped(renderEscaped(b))` returns b. */
+/** Escaped notation of bytes; `parseEscaped(renderEscaped(b))` returns b, and so does a C compiler. */
 export function renderEscaped(bytes: Uint8Array): string {
-  // Only NUL before an octal digit needs context; render the runs between such NULs from the table.
-  let parts: string[] | undefined;
-  let from = 0;
-  for (let i = bytes.indexOf(0); i >= 0; i = bytes.indexOf(0, i + 1)) {
-    const next = bytes[i + 1];
-    if (next === undefined || next < 0x30 || next > 0x37) continue;
-    (parts ??= []).push(renderWithTable(bytes.subarray(from, i), RENDER), '\\000');
-    from = i + 1;
-  }
-  if (!parts) return renderWithTable(bytes, RENDER);
-  parts.push(renderWithTable(bytes.subarray(from), RENDER));
-  return parts.join('');
+  return renderWithChoice(bytes, TABLES, pick);
 }
 
 export function notPrintable(code: number): string {

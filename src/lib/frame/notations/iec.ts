@@ -51,7 +51,9 @@ export function parseIec(text: string): Result<Uint8Array> {
       i += 2;
       continue;
     }
-    const named = NAMED[text[i + 1]!.toUpperCase()];
+    const e = text.charCodeAt(i + 1);
+    // ASCII letters only: Unicode case mapping would turn other characters into escape letters
+    const named = e < 0x80 ? NAMED[String.fromCharCode(e >= 0x61 && e <= 0x7a ? e - 32 : e)] : undefined;
     if (named === undefined) {
       return failure(i, `Unknown escape $${text[i + 1]}; use $R $L $N $P $T $$ $' or $hh`);
     }

@@ -1,8 +1,9 @@
 /**
  * Mnemonic notation: control characters by their RFC 20 names (RFC 20, section 4.1) in angle brackets.
  *
- * Input rules (names in either case):
- * - `<NUL>` ... `<US>` for 0x00-0x1F, `<DEL>` for 0x7F, `<SP>` accepted for 0x20;
+ * Input rules (names in either ASCII case):
+ * - `<NUL>` ... `<US>` for 0x00-0x1F, `<DEL>` for 0x7F, `<SP>` accepted for 0x20, `<XON>` / `<XOFF>`
+ *   accepted for DC1 / DC3 (software flow control); names are ASCII letters only (no Unicode case folding);
  * - `<xHH>` for any byte (two hex digits);
  * - any other printable ASCII stands for itself, including `>`; a literal `<` must be written `<x3C>`.
  *
@@ -22,6 +23,15 @@ export const CONTROL_NAMES = [
 const BY_NAME = new Map<string, number>(CONTROL_NAMES.map((name, i) => [name, i]));
 BY_NAME.set('DEL', 0x7f);
 BY_NAME.set('SP', 0x20);
+// software flow control: XON is DC1, XOFF is DC3 (common practice)
+BY_NAME.set('XON', 0x11);
+BY_NAME.set('XOFF', 0x13);
+
+/** Longest text between `<` and `>`: XOFF. */
+const MAX_NAME = 4;
+
+/** ASCII letters to upper case; any other character (ſ, ı, ﬀ, K) stays as it is, so it matches no name. */
+const asciiUpper = (text: string) => text.replace(/[a-z]/g, (c) => String.fromCharCode(c.charCodeAt(0) - 32));
 
 const RENDER = createRenderTable(Array.from({ length: 256 }, (_, b) => {
   if (b < 0x20) return `<${CONTROL_NAMES[b]}>`;
@@ -42,10 +52,10 @@ export function parseMnemonic(text: string): Result<Uint8Array> {
       continue;
     }
     const close = text.indexOf('>', i + 1);
-    if (close < 0 || close - i > 4) {
+    if (close < 0 || close - i > MAX_NAME + 1) {
       return failure(i, '< starts a name such as <CR>; close it with >, or write a literal < as <x3C>');
     }
-    const name = text.slice(i + 1, close).toUpperCase();
+    const name = asciiUpper(text.slice(i + 1, close));
     const named = BY_NAME.get(name);
     if (named !== undefined) {
       out[n++] = named;

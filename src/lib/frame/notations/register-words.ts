@@ -46,19 +46,28 @@ export function packRegisterWords(bytes: Uint8Array, byteOrder: WordByteOrder = 
   };
 }
 
-/** Bytes from words; `byteCount` (default: two per word) trims the padding byte. */
+/**
+ * Bytes from words (unsigned 0-65535, or signed -32768..-1 as INT); `byteCount` (default: two per
+ * word) trims the padding byte. A count that is negative, not whole or more than the words hold, or a
+ * word outside the 16-bit range, is an error (position 0).
+ */
 export function unpackRegisterWords(
   words: readonly number[],
   byteOrder: WordByteOrder = 'high-first',
   byteCount = words.length * 2,
-): Uint8Array {
-  const out = new Uint8Array(Math.min(byteCount, words.length * 2));
+): Result<Uint8Array> {
+  if (!Number.isInteger(byteCount) || byteCount < 0 || byteCount > words.length * 2) {
+    return failure(0, `Byte count ${byteCount} does not fit ${words.length} words; give a whole number from 0 to ${words.length * 2}`);
+  }
+  const bad = words.findIndex((w) => !Number.isInteger(w) || w < -32768 || w > 65535);
+  if (bad >= 0) return failure(0, `Word ${bad + 1} (${words[bad]}) is not a 16-bit word; give -32768 to 65535`);
+  const out = new Uint8Array(byteCount);
   for (let i = 0; i < out.length; i++) {
     const w = words[i >> 1]! & 0xffff;
     const high = (i & 1) === 0 ? byteOrder === 'high-first' : byteOrder === 'low-first';
     out[i] = high ? w >> 8 : w & 0xff;
   }
-  return out;
+  return success(out);
 }
 
 /**
