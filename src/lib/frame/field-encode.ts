@@ -15,6 +15,8 @@ export interface EncodedField {
 
 /** ASCII letters only change case: Unicode mappings would turn ſ into S or ß into SS behind the user's back. */
 function asciiCase(text: string, to: 'upper' | 'lower'): string {
+  // for ASCII text the built-in mapping is the ASCII one
+  if (/^[\x00-\x7f]*$/.test(text)) return to === 'upper' ? text.toUpperCase() : text.toLowerCase();
   return to === 'upper' ? text.replace(/[a-z]+/g, (m) => m.toUpperCase()) : text.replace(/[A-Z]+/g, (m) => m.toLowerCase());
 }
 

@@ -17,7 +17,7 @@
  * one byte) and `\0` before an octal digit (NUL then `1` → `\0001`). A `?` after a `?` is written `\?`
  * so no trigraph (`??=`, `??/`, ...) can form.
  */
-import { HEX_PAIR, createRenderTable, hexValue, renderWithChoice } from '../bytes';
+import { HEX_PAIR, createRenderTable, hexValue, renderWithChoice, renderWithTable } from '../bytes';
 import { type Result, failure, success } from '../result';
 
 const NORMAL = Array.from({ length: 256 }, (_, b) => {
@@ -99,7 +99,8 @@ export function parseEscaped(text: string): Result<Uint8Array> {
 
 /** Escaped notation of bytes; `parseEscaped(renderEscaped(b))` returns b, and so does a C compiler. */
 export function renderEscaped(bytes: Uint8Array): string {
-  return renderWithChoice(bytes, TABLES, pick);
+  for (let i = 0; i < bytes.length; i++) if (pick(bytes, i)) return renderWithChoice(bytes, TABLES, pick);
+  return renderWithTable(bytes, RENDER);
 }
 
 export function notPrintable(code: number): string {
