@@ -11,7 +11,7 @@ import { nextTurn } from './turns';
 /** Rows written to the stage per statement (each its own short write). */
 export const STAGE_BATCH = 500;
 /** Rows moved per `INSERT … SELECT` in the final transaction, which yields to other requests between them. */
-export const APPLY_BATCH = 200;
+export const APPLY_BATCH = 500;
 /**
  * Page cache of the final transaction's connection, in KiB (SQLite's default is 2,000 KiB). The move updates
  * several indexes keyed by random ids; with the default cache their pages are evicted, spilled to the log and
