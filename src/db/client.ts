@@ -5,6 +5,7 @@ import { drizzle } from 'drizzle-orm/libsql';
 import * as schema from './schema';
 import { gateWrites } from './write-gate';
 import { cacheReadStatements } from './statement-cache';
+import { configureConnections } from './connection-settings';
 
 /** Default database: a SQLite file relative to the working directory. */
 export const DEFAULT_DATABASE_URL = 'file:./data/baudbook.db';
@@ -15,6 +16,8 @@ function openClient(url: string): Client {
     if (path && path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
   }
   cacheReadStatements();
+  // Per-connection settings for a local file: no fsync at commit, checkpoints off the main thread.
+  if (url.startsWith('file:')) configureConnections();
   // `timeout` is SQLite's busy timeout in ms: writers in other processes wait instead of failing with SQLITE_BUSY.
   const raw = createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
   return url.startsWith('file:') ? gateWrites(raw) : raw;

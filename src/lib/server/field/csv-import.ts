@@ -31,7 +31,7 @@ export interface CsvPreview {
 interface Planned { device: CsvRowResult['device']; ports: NonNullable<CsvRowResult['port']>[] }
 
 /** Rows checked between turns for other requests. */
-const CHECK_SLICE = 1000;
+const CHECK_SLICE = 250;
 
 async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress?: Progress) {
   const m = await liveMachine(ctx, req.machineId, q);
@@ -88,7 +88,7 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
 }
 
 /** Devices staged per batch (with their ports and creation revisions). */
-const STAGE_DEVICES = 250;
+const STAGE_DEVICES = 100;
 
 /**
  * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.

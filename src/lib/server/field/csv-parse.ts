@@ -17,7 +17,7 @@ const OPTIONS = { header: true, skipEmptyLines: 'greedy' } as const;
  * only at its start, as Papa reads it), and each slice is parsed behind the header line with the
  * delimiter found in the first.
  */
-export async function parseCsvInSlices(text: string, size = 128 * 1024): Promise<ParsedCsv> {
+export async function parseCsvInSlices(text: string, size = 32 * 1024): Promise<ParsedCsv> {
   const headerEnd = text.indexOf('\n') + 1;
   if (headerEnd === 0 || headerEnd >= text.length || text.length <= size) return whole(text);
   const header = text.slice(0, headerEnd);

@@ -66,9 +66,13 @@ export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: Sta
     await work.stage(stage, progress);
     await db.update(job).set({ state: 'applying', updatedAt: new Date() }).where(eq(job.id, id));
     await db.transaction(async (tx) => {
-      await work.verify(tx);
-      await stage.apply(tx);
-      await tx.update(job).set({ state: 'done', updatedAt: new Date(), finishedAt: new Date() }).where(eq(job.id, id));
+      try {
+        await work.verify(tx);
+        await stage.apply(tx);
+        await tx.update(job).set({ state: 'done', updatedAt: new Date(), finishedAt: new Date() }).where(eq(job.id, id));
+      } finally {
+        await stage.restoreCache(tx);
+      }
     });
     return work.result();
   } catch (err) {
