@@ -1,17 +1,15 @@
 /**
  * The command library: command templates kept on a device or on a device profile (exactly one of
- * the two), with their own revision history. Versioning and the trash columns work as in the vault
- * (`version` for optimistic concurrency, `deletedAt` = in the trash).
+ * the two). Versioning, the trash columns and the history work as for vault records: `version` for
+ * optimistic concurrency, `deletedAt` / `trashId` = in the trash, revisions in the one `revision` table
+ * (entity type `command`).
  */
 import { sql } from 'drizzle-orm';
 import { sqliteTable, text, integer, index, check } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
-import { user } from './auth';
-import { device, deviceProfile, versionedColumns, type FieldChange } from './vault';
+import { device, deviceProfile, versionedColumns } from './vault';
 import type { FieldValues, Template } from '../../lib/frame/template';
 
-export const COMMAND_ACTIONS = ['create', 'update', 'delete', 'revert', 'copy'] as const;
-export type CommandAction = (typeof COMMAND_ACTIONS)[number];
 
 export const command = sqliteTable(
   'command',
@@ -38,6 +36,7 @@ export const command = sqliteTable(
     /** The command moves machinery: the composer shows the safety caution above it. */
     movesMachinery: integer('moves_machinery', { mode: 'boolean' }).notNull().default(false),
     ...versionedColumns(),
+    trashId: text('trash_id'),
   },
   (t) => [
     index('command_device_idx').on(t.deviceId, t.deletedAt, t.name),
@@ -45,27 +44,4 @@ export const command = sqliteTable(
     index('command_team_idx').on(t.teamId, t.deletedAt),
     check('command_one_owner', sql`(${t.deviceId} IS NULL) <> (${t.profileId} IS NULL)`),
   ],
-);
-
-/** One row per change of a command: who, when, what changed, and the command as it stood after. */
-export const commandRevision = sqliteTable(
-  'command_revision',
-  {
-    id: text('id').primaryKey(),
-    teamId: text('team_id')
-      .notNull()
-      .references(() => team.id, { onDelete: 'cascade' }),
-    commandId: text('command_id')
-      .notNull()
-      .references(() => command.id, { onDelete: 'cascade' }),
-    version: integer('version').notNull(),
-    action: text('action', { enum: COMMAND_ACTIONS }).notNull(),
-    userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
-    userName: text('user_name').notNull().default(''),
-    summary: text('summary').notNull().default(''),
-    changes: text('changes', { mode: 'json' }).$type<FieldChange[]>().notNull(),
-    snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
-    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
-  },
-  (t) => [index('command_revision_idx').on(t.teamId, t.commandId, t.version)],
 );

@@ -15,9 +15,13 @@ import type { PortSettings } from '../../lib/frame/port-settings';
 export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
 export const LINK_KINDS = ['point-to-point', 'rs485-bus'] as const;
 export const MEMBER_ROLES = ['master', 'slave', 'peer'] as const;
+/** The vault's records (trash, vault history, `/api/vault/…/:type/…`). */
 export const ENTITY_TYPES = ['site', 'machine', 'device', 'port', 'link', 'profile'] as const;
+/** Every versioned record kept in the one `revision` table: the vault's, and commands. */
+export const RECORD_TYPES = [...ENTITY_TYPES, 'command'] as const;
 export type DeviceRole = (typeof DEVICE_ROLES)[number];
 export type EntityType = (typeof ENTITY_TYPES)[number];
+export type RecordType = (typeof RECORD_TYPES)[number];
 
 /** One row of a connector's pin-out. */
 export interface WiringRow {
@@ -189,13 +193,13 @@ export const linkMember = sqliteTable(
   (t) => [primaryKey({ columns: [t.linkId, t.portId] }), index('link_member_port_idx').on(t.portId)],
 );
 
-/** One row per change: who, when, which fields went from what to what, and the record as it stood after. */
+/** One row per change of any versioned record (vault records and commands): who, when, which fields went from what to what, and the record as it stood after. */
 export const revision = sqliteTable(
   'revision',
   {
     id: text('id').primaryKey(),
     teamId: teamId(),
-    entityType: text('entity_type', { enum: ENTITY_TYPES }).notNull(),
+    entityType: text('entity_type', { enum: RECORD_TYPES }).notNull(),
     entityId: text('entity_id').notNull(),
     /** The record's version after this change. */
     version: integer('version').notNull(),

@@ -1,5 +1,6 @@
 import { can, type Permission, type Role } from '../permissions';
-import { HttpError } from './http';
+import { AppError, Forbidden, NotFound, Unauthenticated } from './errors';
+import { httpStatus } from './http';
 
 export interface TeamContext {
   user: { id: string; name: string; email: string };
@@ -13,15 +14,15 @@ export interface TeamContext {
  */
 export function guard(locals: App.Locals, permission: Permission): TeamContext {
   const user = requireUser(locals);
-  if (!locals.team) throw new HttpError(404, 'You are not a member of any team yet.');
+  if (!locals.team) throw new NotFound('You are not a member of any team yet.');
   if (!can(locals.team.role, permission)) {
-    throw new HttpError(403, `Your role (${locals.team.role}) does not allow ${permission.replace(':', ' ')}.`);
+    throw new Forbidden(`Your role (${locals.team.role}) does not allow ${permission.replace(':', ' ')}.`);
   }
   return { user, team: { id: locals.team.id, name: locals.team.name }, role: locals.team.role };
 }
 
 export function requireUser(locals: App.Locals): NonNullable<App.Locals['user']> {
-  if (!locals.user) throw new HttpError(401, 'Sign in first.');
+  if (!locals.user) throw new Unauthenticated('Sign in first.');
   return locals.user;
 }
 
@@ -34,15 +35,16 @@ export function guardPage(
   try {
     return { ok: true, ctx: guard(locals, permission) };
   } catch (err) {
-    if (!(err instanceof HttpError)) throw err;
-    if (err.status === 401) {
+    if (!(err instanceof AppError)) throw err;
+    const status = httpStatus(err);
+    if (status === 401) {
       const next = encodeURIComponent(url.pathname + url.search);
       return { ok: false, status: 401, message: err.message, response: redirect(`/sign-in?next=${next}`) };
     }
-    if (err.status === 404 && !locals.team) {
+    if (status === 404 && !locals.team) {
       return { ok: false, status: 302, message: err.message, response: redirect('/teams/new') };
     }
-    return { ok: false, status: err.status, message: err.message };
+    return { ok: false, status, message: err.message };
   }
 }
 

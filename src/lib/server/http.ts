@@ -1,16 +1,40 @@
 import type { z } from 'zod';
+import { AppError, BadRequest, Conflict, Duplicate, Forbidden, Gone, Invalid, NotFound, ReferenceMissing, Stale, TooLarge, Unauthenticated, Unsupported } from './errors';
 
 /** Default cap for JSON request bodies, in bytes. */
 export const DEFAULT_BODY_LIMIT = 64 * 1024;
 
-export class HttpError extends Error {
+/** An error with its status chosen on the spot; services throw the named errors of ./errors.ts instead. */
+export class HttpError extends AppError {
   constructor(
     readonly status: number,
     message: string,
-    readonly body: Record<string, unknown> = {},
+    body: Record<string, unknown> = {},
   ) {
-    super(message);
+    super(message, body);
   }
+}
+
+/** The named errors and their HTTP status: the one place the catalogue meets HTTP. */
+const STATUS: [new (...args: never[]) => AppError, number][] = [
+  [BadRequest, 400],
+  [Unauthenticated, 401],
+  [Forbidden, 403],
+  [NotFound, 404],
+  [Stale, 409],
+  [Conflict, 409],
+  [ReferenceMissing, 409],
+  [Gone, 410],
+  [TooLarge, 413],
+  [Unsupported, 415],
+  [Duplicate, 422],
+  [Invalid, 422],
+];
+
+export function httpStatus(err: AppError): number {
+  if (err instanceof HttpError) return err.status;
+  for (const [kind, status] of STATUS) if (err instanceof kind) return status;
+  return 500;
 }
 
 export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
@@ -25,18 +49,18 @@ export function jsonText(text: string, status = 200, headers: HeadersInit = {}):
   });
 }
 
-/** Reads a JSON body of at most `limit` bytes; throws HttpError 413 / 400 / 415. */
+/** Reads a JSON body of at most `limit` bytes; throws TooLarge / BadRequest / Unsupported. */
 export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Promise<unknown> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.includes('application/json')) {
-    throw new HttpError(415, 'Send the body as JSON (content-type: application/json).');
+    throw new Unsupported('Send the body as JSON (content-type: application/json).');
   }
-  const bytes = await readBodyBytes(request, limit, () => new HttpError(413, `Request body is larger than ${limit} bytes.`));
+  const bytes = await readBodyBytes(request, limit, () => new TooLarge(`Request body is larger than ${limit} bytes.`));
   const text = new TextDecoder().decode(bytes);
   try {
     return JSON.parse(text);
   } catch {
-    throw new HttpError(400, 'Request body is not valid JSON.');
+    throw new BadRequest('Request body is not valid JSON.');
   }
 }
 
@@ -44,11 +68,11 @@ export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Pr
  * Reads the whole body, refusing it with `tooLarge()` as soon as it passes `limit` bytes
  * (the declared Content-Length is checked first, the streamed byte count after).
  */
-export async function readBodyBytes(request: Request, limit: number, tooLarge: () => HttpError): Promise<Uint8Array> {
+export async function readBodyBytes(request: Request, limit: number, tooLarge: () => AppError): Promise<Uint8Array> {
   const declared = Number(request.headers.get('content-length') ?? '0');
   if (declared > limit) throw tooLarge();
   const reader = request.body?.getReader();
-  if (!reader) throw new HttpError(400, 'Request body is empty.');
+  if (!reader) throw new BadRequest('Request body is empty.');
   const chunks: Uint8Array[] = [];
   let size = 0;
   for (;;) {
@@ -85,16 +109,20 @@ export function validate<S extends z.ZodType>(schema: S, data: unknown): z.infer
   }
   const first = result.error.issues[0];
   const where = first?.path.length ? `${first.path.join('.')}: ` : '';
-  throw new HttpError(422, `${where}${first?.message ?? 'Invalid input'}`, { fields });
+  throw new Invalid(`${where}${first?.message ?? 'Invalid input'}`, { fields });
 }
 
-/** Wraps a route handler so thrown HttpErrors become JSON responses `{ error, ...body }`. */
+/** Wraps a route handler so thrown named errors become JSON responses `{ error, ...details }` with their status. */
 export function route<C>(handler: (context: C) => Promise<Response> | Response) {
   return async (context: C): Promise<Response> => {
     try {
       return await handler(context);
     } catch (err) {
-      if (err instanceof HttpError) return json({ error: err.message, ...err.body }, err.status);
+      if (err instanceof AppError) {
+        const status = httpStatus(err);
+        if (status === 500) console.error(err);
+        return json(status === 500 ? { error: 'Internal error' } : { error: err.message, ...err.details }, status);
+      }
       console.error(err);
       return json({ error: 'Internal error' }, 500);
     }

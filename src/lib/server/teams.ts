@@ -3,10 +3,10 @@ import { db } from '../../db/client';
 import { invitation, membership, team, user } from '../../db/schema';
 import { assignableRoles, type Role } from '../permissions';
 import type { TeamContext } from './guard';
-import { HttpError } from './http';
 import { baseUrl, invitationDays } from './config';
 import { linkMessage, sendMail } from './mail';
 import { newId, randomToken, sha256 } from './ids';
+import { Conflict, Forbidden, Gone, Invalid, NotFound } from './errors';
 
 export async function createTeam(userId: string, name: string) {
   const id = newId('team');
@@ -24,7 +24,7 @@ export async function renameTeam(ctx: TeamContext, name: string) {
 
 export async function deleteTeam(ctx: TeamContext, confirmName: string) {
   if (confirmName.trim() !== ctx.team.name) {
-    throw new HttpError(422, 'Type the team name exactly to confirm deletion.', { fields: { confirmName: 'Does not match the team name.' } });
+    throw new Invalid('Type the team name exactly to confirm deletion.', { fields: { confirmName: 'Does not match the team name.' } });
   }
   await db.delete(team).where(eq(team.id, ctx.team.id));
 }
@@ -48,12 +48,12 @@ export async function listOpenInvitations(teamId: string) {
 
 async function findMember(teamId: string, userId: string) {
   const [row] = await db.select().from(membership).where(and(eq(membership.teamId, teamId), eq(membership.userId, userId)));
-  if (!row) throw new HttpError(404, 'No such member in this team.');
+  if (!row) throw new NotFound('No such member in this team.');
   return row;
 }
 
 function assertAssignable(ctx: TeamContext, role: Role) {
-  if (!assignableRoles(ctx.role).includes(role)) throw new HttpError(403, `Your role cannot hand out the ${role} role.`);
+  if (!assignableRoles(ctx.role).includes(role)) throw new Forbidden(`Your role cannot hand out the ${role} role.`);
 }
 
 export async function inviteMember(ctx: TeamContext, email: string, role: Role) {
@@ -63,7 +63,7 @@ export async function inviteMember(ctx: TeamContext, email: string, role: Role) 
     .from(user)
     .innerJoin(membership, and(eq(membership.userId, user.id), eq(membership.teamId, ctx.team.id)))
     .where(eq(user.email, email));
-  if (existing) throw new HttpError(409, `${email} is already a member of this team.`);
+  if (existing) throw new Conflict(`${email} is already a member of this team.`);
   const token = randomToken();
   const id = newId('inv');
   const expiresAt = new Date(Date.now() + invitationDays * 86_400_000);
@@ -96,7 +96,7 @@ export async function revokeInvitation(ctx: TeamContext, id: string) {
     .update(invitation)
     .set({ revokedAt: new Date() })
     .where(and(eq(invitation.id, id), eq(invitation.teamId, ctx.team.id), isNull(invitation.acceptedAt), isNull(invitation.revokedAt)));
-  if (result.rowsAffected === 0) throw new HttpError(404, 'No open invitation with that id in this team.');
+  if (result.rowsAffected === 0) throw new NotFound('No open invitation with that id in this team.');
 }
 
 /** Looks an invitation up by the token from its e-mail; explains why it cannot be used. */
@@ -116,11 +116,11 @@ export async function findInvitation(token: string) {
 
 export async function acceptInvitation(currentUser: { id: string; email: string }, token: string) {
   const found = await findInvitation(token);
-  if (!found.ok) throw new HttpError(410, found.reason);
+  if (!found.ok) throw new Gone(found.reason);
   const inv = found.invitation;
   if (inv.email.toLowerCase() !== currentUser.email.toLowerCase()) {
     // The invited address is not named: whoever holds a forwarded link learns nothing from trying it.
-    throw new HttpError(403, `This invitation was sent to another e-mail address; you are signed in as ${currentUser.email}. Sign in with the invited address to accept it.`);
+    throw new Forbidden(`This invitation was sent to another e-mail address; you are signed in as ${currentUser.email}. Sign in with the invited address to accept it.`);
   }
   await db.transaction(async (tx) => {
     await tx.insert(membership).values({ teamId: inv.teamId, userId: currentUser.id, role: inv.role }).onConflictDoNothing();
@@ -132,21 +132,21 @@ export async function acceptInvitation(currentUser: { id: string; email: string 
 export async function changeRole(ctx: TeamContext, userId: string, role: Role) {
   assertAssignable(ctx, role);
   const member = await findMember(ctx.team.id, userId);
-  if (member.role === 'owner') throw new HttpError(403, 'The owner keeps the owner role until ownership is transferred.');
-  if (userId === ctx.user.id) throw new HttpError(403, 'You cannot change your own role.');
+  if (member.role === 'owner') throw new Forbidden('The owner keeps the owner role until ownership is transferred.');
+  if (userId === ctx.user.id) throw new Forbidden('You cannot change your own role.');
   await db.update(membership).set({ role }).where(and(eq(membership.teamId, ctx.team.id), eq(membership.userId, userId)));
   return { userId, role };
 }
 
 export async function removeMember(ctx: TeamContext, userId: string) {
   const member = await findMember(ctx.team.id, userId);
-  if (member.role === 'owner') throw new HttpError(403, 'The owner cannot be removed; transfer ownership first.');
+  if (member.role === 'owner') throw new Forbidden('The owner cannot be removed; transfer ownership first.');
   await db.delete(membership).where(and(eq(membership.teamId, ctx.team.id), eq(membership.userId, userId)));
 }
 
 /** Hands the owner role to another member; the previous owner becomes an admin. */
 export async function transferOwnership(ctx: TeamContext, userId: string) {
-  if (userId === ctx.user.id) throw new HttpError(422, 'You already own this team.');
+  if (userId === ctx.user.id) throw new Invalid('You already own this team.');
   await findMember(ctx.team.id, userId);
   await db.batch([
     db.update(membership).set({ role: 'owner' }).where(and(eq(membership.teamId, ctx.team.id), eq(membership.userId, userId))),

@@ -2,12 +2,15 @@
 import { and, asc, eq, isNotNull, isNull, or } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { command } from '../../../db/schema';
+import { recordCreated, trashRecord } from '../records/engine';
+import { commandEntity } from '../records/entities';
 import type { CommandCopy, CommandCreate, CommandUpdate } from '../../schemas/commands';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
-import { diffSnapshots, definedOnly } from '../vault/diff';
+import { definedOnly } from '../records/diff';
 import { findOwner, liveProfileId, type CommandOwner } from './owners';
-import { commandNotFound, findCommand, snapshotOf, staleCommand, updateCommandVersioned, writeCommandRevision, type CommandRow } from './records';
+import { snapshotOf } from '../records/entity';
+import { commandNotFound, findCommand, updateCommandVersioned, type CommandRow } from './records';
 
 export interface CommandView extends CommandRow {
   owner: { kind: CommandOwner['kind']; id: string; label: string };
@@ -69,8 +72,7 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
       .insert(command)
       .values({ id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, ...fields, updatedBy: ctx.user.id })
       .returning();
-    const snapshot = snapshotOf(row!);
-    await writeCommandRevision(tx, ctx, { commandId: row!.id, version: 1, action: 'create', changes: diffSnapshots({}, snapshot), snapshot, summary: `Created command ${row!.name}` });
+    await recordCreated(tx, ctx, commandEntity, row!);
     return view(row!, owner);
   });
 }
@@ -86,15 +88,8 @@ export async function updateCommand(ctx: TeamContext, id: string, input: Command
 /** Moves a command to the trash (its history stays; restoring a revision brings it back). */
 export async function trashCommand(ctx: TeamContext, id: string, version?: number) {
   return db.transaction(async (tx) => {
-    const row = await findCommand(tx, ctx, id);
-    if (version !== undefined && row.version !== version) throw staleCommand(row, version);
-    const res = await tx
-      .update(command)
-      .set({ deletedAt: new Date(), deletedBy: ctx.user.id, version: row.version + 1 })
-      .where(and(eq(command.id, id), eq(command.version, row.version), isNull(command.deletedAt)));
-    if (res.rowsAffected === 0) throw staleCommand(await findCommand(tx, ctx, id, { trashed: true }), row.version);
-    await writeCommandRevision(tx, ctx, { commandId: id, version: row.version + 1, action: 'delete', changes: [], snapshot: snapshotOf(row), summary: `Moved command ${row.name} to the trash` });
-    return { id, trashed: true, version: row.version + 1 };
+    const row = await trashRecord(tx, ctx, commandEntity, id, version);
+    return { id, trashed: true, version: row.version };
   });
 }
 
@@ -103,14 +98,13 @@ export async function copyCommand(ctx: TeamContext, id: string, input: CommandCo
   return db.transaction(async (tx) => {
     const source = await findCommand(tx, ctx, id);
     const owner = await findOwner(tx, ctx, input);
-    const fields = { ...snapshotOf(source), name: input.name ?? source.name } as Omit<CommandRow, 'id'>;
+    const fields = { ...(snapshotOf(commandEntity, source) as Pick<CommandRow, (typeof commandEntity.snapshotKeys)[number]>), name: input.name ?? source.name };
     const [row] = await tx
       .insert(command)
       .values({ ...fields, id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, updatedBy: ctx.user.id })
       .returning();
-    const snapshot = snapshotOf(row!);
     const from = await findOwner(tx, ctx, source);
-    await writeCommandRevision(tx, ctx, { commandId: row!.id, version: 1, action: 'copy', changes: diffSnapshots({}, snapshot), snapshot, summary: `Copied from ${from.label} (command ${source.name})` });
+    await recordCreated(tx, ctx, commandEntity, row!, `Copied from ${from.label} (command ${source.name})`, 'copy');
     return view(row!, owner);
   });
 }

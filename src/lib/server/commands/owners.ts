@@ -1,10 +1,11 @@
 /** Where a command lives: a device or a device profile of the caller's team, with its ports. */
 import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { DbOrTx } from '../../../db/client';
-import { device, deviceProfile, port } from '../../../db/schema';
+import { deviceProfile, port } from '../../../db/schema';
 import type { PortSettings } from '../../frame/port-settings';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
+import { findInTeam } from '../records/engine';
+import { deviceEntity, profileEntity } from '../records/entities';
 
 export type OwnerKind = 'device' | 'profile';
 
@@ -20,11 +21,7 @@ export interface CommandOwner {
 
 export async function findOwner(q: DbOrTx, ctx: TeamContext, ref: { deviceId?: string | null; profileId?: string | null }): Promise<CommandOwner> {
   if (ref.deviceId) {
-    const [d] = await q
-      .select({ id: device.id, tag: device.tag, name: device.name, profileId: device.profileId })
-      .from(device)
-      .where(and(eq(device.id, ref.deviceId), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)));
-    if (!d) throw new HttpError(404, 'No device with that id in this team.');
+    const d = await findInTeam(q, ctx, deviceEntity, ref.deviceId);
     const ports = await q
       .select({ name: port.name, settings: port.settings })
       .from(port)
@@ -32,11 +29,7 @@ export async function findOwner(q: DbOrTx, ctx: TeamContext, ref: { deviceId?: s
       .orderBy(asc(port.position), asc(port.name));
     return { kind: 'device', id: d.id, label: d.name ? `${d.tag} ${d.name}` : d.tag, profileId: d.profileId, ports };
   }
-  const [p] = await q
-    .select({ id: deviceProfile.id, name: deviceProfile.name, ports: deviceProfile.ports })
-    .from(deviceProfile)
-    .where(and(eq(deviceProfile.id, ref.profileId ?? ''), eq(deviceProfile.teamId, ctx.team.id), isNull(deviceProfile.deletedAt)));
-  if (!p) throw new HttpError(404, 'No profile with that id in this team.');
+  const p = await findInTeam(q, ctx, profileEntity, ref.profileId ?? '');
   return { kind: 'profile', id: p.id, label: p.name, profileId: null, ports: p.ports.map((x) => ({ name: x.name, settings: x.settings })) };
 }
 

@@ -3,9 +3,9 @@ import { db } from '../../../db/client';
 import { can } from '../../permissions';
 import { starterTemplate } from '../../composer/segments';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import { getCommand, getCommandForDevice } from './commands';
 import { findOwner, type OwnerKind } from './owners';
+import { Forbidden, NotFound } from '../errors';
 
 export const ownerPath = (kind: OwnerKind, id: string) => `/vault/${kind === 'device' ? 'devices' : 'profiles'}/${id}/commands`;
 
@@ -18,14 +18,14 @@ export async function libraryPage(ctx: TeamContext, kind: OwnerKind, id: string)
 export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string, commandId: string) {
   const lib = await libraryPage(ctx, kind, id);
   if (commandId === 'new') {
-    if (!can(ctx.role, 'command:create')) throw new HttpError(403, `Your role (${ctx.role}) does not allow command create.`);
+    if (!can(ctx.role, 'command:create')) throw new Forbidden(`Your role (${ctx.role}) does not allow command create.`);
     const rules = lib.ports[0]?.settings.frameRules ?? {};
     const template = starterTemplate(rules, lib.ports[0]?.settings.protocol);
     const command = { name: 'New command', purpose: '', notes: '', movesMachinery: false, template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {} };
     return { ...lib, command, inheritedFrom: undefined };
   }
   const c = kind === 'device' ? await getCommandForDevice(ctx, id, commandId) : await getCommand(ctx, commandId);
-  if (kind === 'profile' && c.profileId !== id) throw new HttpError(404, 'No command with that id in this profile.');
+  if (kind === 'profile' && c.profileId !== id) throw new NotFound('No command with that id in this profile.');
   const inheritedFrom = c.inherited && c.profileId ? { profileId: c.profileId, label: c.owner.label } : undefined;
   const command = { id: c.id, version: c.version, name: c.name, purpose: c.purpose, notes: c.notes, movesMachinery: c.movesMachinery, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits };
   return { ...lib, command, inheritedFrom };

@@ -1,22 +1,24 @@
-/** A command's history and restoring any version of it (which writes a new revision). */
+/** A command's history (in the one `revision` table) and restoring any version of it (which writes a new revision). */
 import { and, desc, eq } from 'drizzle-orm';
 import { db } from '../../../db/client';
-import { commandRevision } from '../../../db/schema';
+import { revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
-import { missingReferences, missingReferencesError, type Reference } from '../vault/references';
-import { SNAPSHOT_KEYS, findCommand, updateCommandVersioned, type CommandRow } from './records';
+import { NotFound } from '../errors';
+import { commandEntity, entityOf } from '../records/entities';
+import { snapshotValues } from '../records/entity';
+import { referencesOf, refuseMissing } from '../records/references';
+import { findCommand, updateCommandVersioned } from './records';
 
-export type CommandRevisionRow = typeof commandRevision.$inferSelect;
+/** A revision of a command as the API has always answered it: `commandId` for the entity. */
+export type CommandRevisionRow = Omit<typeof revision.$inferSelect, 'entityType' | 'entityId'> & { commandId: string };
+
+const ofCommand = (teamId: string, id: string) => and(eq(revision.teamId, teamId), eq(revision.entityType, 'command'), eq(revision.entityId, id));
 
 /** Newest first; also for a command in the trash, so it can be brought back. */
 export async function listCommandRevisions(ctx: TeamContext, id: string): Promise<{ commandId: string; version: number; trashed: boolean; items: CommandRevisionRow[] }> {
   const row = await findCommand(db, ctx, id, { trashed: true });
-  const items = await db
-    .select()
-    .from(commandRevision)
-    .where(and(eq(commandRevision.teamId, ctx.team.id), eq(commandRevision.commandId, id)))
-    .orderBy(desc(commandRevision.version), desc(commandRevision.createdAt));
+  const rows = await db.select().from(revision).where(ofCommand(ctx.team.id, id)).orderBy(desc(revision.version), desc(revision.createdAt));
+  const items = rows.map(({ entityType: _t, entityId, ...r }) => ({ ...r, commandId: entityId }));
   return { commandId: id, version: row.version, trashed: row.deletedAt !== null, items };
 }
 
@@ -28,17 +30,10 @@ export async function listCommandRevisions(ctx: TeamContext, id: string): Promis
 export async function restoreCommandRevision(ctx: TeamContext, id: string, revisionId: string, version: number) {
   return db.transaction(async (tx) => {
     const current = await findCommand(tx, ctx, id, { trashed: true });
-    const owner: Reference = current.deviceId
-      ? { type: 'device', id: current.deviceId, field: 'deviceId' }
-      : { type: 'profile', id: current.profileId ?? '', field: 'profileId' };
-    const missing = await missingReferences(tx, ctx, [owner]);
-    if (missing.length) throw missingReferencesError('This command', missing);
-    const [rev] = await tx
-      .select()
-      .from(commandRevision)
-      .where(and(eq(commandRevision.id, revisionId), eq(commandRevision.teamId, ctx.team.id), eq(commandRevision.commandId, id)));
-    if (!rev) throw new HttpError(404, 'No revision with that id for this command.');
-    const values = Object.fromEntries(SNAPSHOT_KEYS.filter((k) => k in rev.snapshot).map((k) => [k, rev.snapshot[k]])) as Partial<CommandRow>;
+    await refuseMissing(tx, ctx, 'This command', referencesOf(entityOf('command'), current));
+    const [rev] = await tx.select().from(revision).where(and(eq(revision.id, revisionId), ofCommand(ctx.team.id, id)));
+    if (!rev) throw new NotFound('No revision with that id for this command.');
+    const values = snapshotValues(commandEntity, rev.snapshot);
     const { row, changes } = await updateCommandVersioned(tx, ctx, id, version, values, {
       action: 'revert',
       summary: `Restored version ${rev.version}`,

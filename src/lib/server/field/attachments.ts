@@ -4,13 +4,14 @@ import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import { db, type Tx } from '../../../db/client';
 import { attachment } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError, validate } from '../http';
+import { validate } from '../http';
 import { newId } from '../ids';
 import { attachmentFieldsSchema } from '../../schemas/field';
 import { checkKind, isInlineType, sanitiseFileName } from '../../field/files';
 import { storage } from './storage';
 import { liveOwner } from './scope';
 import type { UploadBody } from './upload-body';
+import { Conflict, Invalid, NotFound, Unsupported, notFound } from '../errors';
 
 type AttachmentRow = typeof attachment.$inferSelect;
 
@@ -39,9 +40,9 @@ export async function listAttachments(ctx: TeamContext, ownerType: 'device' | 'm
 export async function createAttachment(ctx: TeamContext, body: UploadBody): Promise<AttachmentView> {
   const fields = validate(attachmentFieldsSchema, body.fields);
   await liveOwner(ctx, fields.ownerType, fields.ownerId);
-  if (body.bytes.byteLength === 0) throw new HttpError(422, 'file: the file is empty', { fields: { file: 'The file is empty.' } });
+  if (body.bytes.byteLength === 0) throw new Invalid('file: the file is empty', { fields: { file: 'The file is empty.' } });
   const check = checkKind(fields.kind, body.bytes.subarray(0, 16));
-  if (!check.ok) throw new HttpError(415, check.message, { fields: { file: check.message } });
+  if (!check.ok) throw new Unsupported(check.message, { fields: { file: check.message } });
   const id = newId('att');
   const key = `${ctx.team.id}/${id}`;
   const row = {
@@ -61,7 +62,7 @@ export async function createAttachment(ctx: TeamContext, body: UploadBody): Prom
 
 async function findAttachment(ctx: TeamContext, id: string): Promise<AttachmentRow> {
   const [row] = await db.select().from(attachment).where(and(eq(attachment.id, id), eq(attachment.teamId, ctx.team.id)));
-  if (!row) throw new HttpError(404, 'No file with that id in this team.');
+  if (!row) throw notFound('file');
   await liveOwner(ctx, row.ownerType, row.ownerId);
   return row;
 }
@@ -70,7 +71,7 @@ async function findAttachment(ctx: TeamContext, id: string): Promise<AttachmentR
 export async function downloadAttachment(ctx: TeamContext, id: string): Promise<Response> {
   const row = await findAttachment(ctx, id);
   const bytes = await storage().get(row.storageKey);
-  if (!bytes) throw new HttpError(404, 'The stored file is missing.');
+  if (!bytes) throw new NotFound('The stored file is missing.');
   const inline = isInlineType(row.contentType);
   const ascii = row.fileName.replace(/[^\x20-\x7e]|["\\]/g, '_');
   return new Response(bytes as Uint8Array<ArrayBuffer>, {
@@ -88,7 +89,7 @@ export async function downloadAttachment(ctx: TeamContext, id: string): Promise<
 /** Removes a file and its bytes; a photo that belongs to a field-log entry stays (entries are permanent). */
 export async function deleteAttachment(ctx: TeamContext, id: string): Promise<{ id: string; deleted: true }> {
   const row = await findAttachment(ctx, id);
-  if (row.entryId) throw new HttpError(409, 'This photo belongs to a field-log entry, which cannot be changed; annotate the entry instead.');
+  if (row.entryId) throw new Conflict('This photo belongs to a field-log entry, which cannot be changed; annotate the entry instead.');
   await db.delete(attachment).where(and(eq(attachment.id, id), eq(attachment.teamId, ctx.team.id), isNull(attachment.entryId)));
   await storage().delete(row.storageKey);
   return { id, deleted: true };

@@ -4,7 +4,6 @@ import { and, asc, desc, eq, isNull } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { device, machine, port } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import type { Page } from '../vault/records';
 import { deviceListParams, linkListParams, machineListParams, portExportParams, profileListParams, siteListParams } from '../vault/list-params';
 import { listSites } from '../vault/sites';
@@ -15,6 +14,7 @@ import { listProfiles } from '../vault/profiles';
 import { cardShorthand } from '../../field/card';
 import { guardCell } from '../../field/csv';
 import { nextTurn } from '../jobs/turns';
+import { Invalid } from '../errors';
 
 export const CSV_TABLES = ['sites', 'machines', 'devices', 'ports', 'links', 'profiles'] as const;
 export type CsvTable = (typeof CSV_TABLES)[number];
@@ -80,7 +80,7 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
 export async function exportCsv(ctx: TeamContext, url: URL): Promise<{ filename: string; csv: string }> {
   const table = url.searchParams.get('table');
   if (!table || !(CSV_TABLES as readonly string[]).includes(table)) {
-    throw new HttpError(422, `table: choose one of ${CSV_TABLES.join(', ')}`, { fields: { table: `One of ${CSV_TABLES.join(', ')}.` } });
+    throw new Invalid(`table: choose one of ${CSV_TABLES.join(', ')}`, { fields: { table: `One of ${CSV_TABLES.join(', ')}.` } });
   }
   const { columns, rows } = await tableRows(ctx, table as CsvTable, url);
   const csv = Papa.unparse({ fields: columns, data: rows.map((r) => r.map(guardCell)) }, { newline: '\r\n' });

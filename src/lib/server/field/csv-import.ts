@@ -3,7 +3,6 @@ import { and, eq, isNull } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import { newId } from '../ids';
 import { nameKey } from '../../schemas/vault';
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
@@ -13,6 +12,7 @@ import { creationRevisions } from './import-write';
 import { parseCsvInSlices } from './csv-parse';
 import { inSlices } from '../jobs/turns';
 import { runStagedJob, type Progress } from '../jobs/jobs';
+import { Conflict, Invalid, TooLarge } from '../errors';
 
 export const CSV_MAX_ROWS = 50_000;
 const ERRORS_SHOWN = 200;
@@ -40,11 +40,11 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress
   const mapping = req.mapping as CsvMapping;
   const known = new Set<string>(CSV_FIELDS.map((f) => f.key));
   for (const [field, column] of Object.entries(mapping)) {
-    if (!known.has(field)) throw new HttpError(422, `mapping.${field}: unknown field`, { fields: { [`mapping.${field}`]: 'Not a field of the import.' } });
-    if (!headers.includes(column)) throw new HttpError(422, `mapping.${field}: the file has no column "${column}"`, { fields: { [`mapping.${field}`]: `No column "${column}" in the file.` } });
+    if (!known.has(field)) throw new Invalid(`mapping.${field}: unknown field`, { fields: { [`mapping.${field}`]: 'Not a field of the import.' } });
+    if (!headers.includes(column)) throw new Invalid(`mapping.${field}: the file has no column "${column}"`, { fields: { [`mapping.${field}`]: `No column "${column}" in the file.` } });
   }
-  if (!mapping.tag) throw new HttpError(422, 'mapping.tag: choose the column with the device tag', { fields: { 'mapping.tag': 'Choose the column with the device tag.' } });
-  if (parsed.data.length > CSV_MAX_ROWS) throw new HttpError(413, `At most ${CSV_MAX_ROWS} rows per file; split the file.`);
+  if (!mapping.tag) throw new Invalid('mapping.tag: choose the column with the device tag', { fields: { 'mapping.tag': 'Choose the column with the device tag.' } });
+  if (parsed.data.length > CSV_MAX_ROWS) throw new TooLarge(`At most ${CSV_MAX_ROWS} rows per file; split the file.`);
   const existing = await existingTags(q, ctx, m.id);
   const errors: CsvPreview['errors'] = [];
   const devices = new Map<string, Planned>();
@@ -99,7 +99,7 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
   return runStagedJob(ctx, 'csv-import', {
     async stage(stage, progress) {
       p = await plan(db, ctx, req, progress);
-      if (p.errors.length && !req.skipInvalid) throw new HttpError(422, `${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
+      if (p.errors.length && !req.skipInvalid) throw new Invalid(`${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
       const stamp = { teamId: ctx.team.id, updatedBy: ctx.user.id };
       const summary = 'Imported from CSV';
       stage.target(device);
@@ -120,7 +120,7 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
       await liveMachine(ctx, req.machineId, tx);
       const taken = await existingTags(tx, ctx, p.machine.id);
       const clash = p.devices.find((d) => taken.has(nameKey(d.device.tag)));
-      if (clash) throw new HttpError(409, `Device ${clash.device.tag} was added to ${p.machine.name} while the file was imported; nothing was imported. Check the file again.`);
+      if (clash) throw new Conflict(`Device ${clash.device.tag} was added to ${p.machine.name} while the file was imported; nothing was imported. Check the file again.`);
     },
     result: () => preview(p, true),
   });

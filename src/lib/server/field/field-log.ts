@@ -6,12 +6,12 @@ import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { attachment, fieldLogAnnotation, fieldLogEntry } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import { newId } from '../ids';
 import type { FieldLogCreate } from '../../schemas/field';
 import { cardRevision } from './cards';
 import { liveDevice } from './scope';
 import { presentAttachment, type AttachmentView } from './attachments';
+import { Invalid, notFound } from '../errors';
 
 type EntryRow = typeof fieldLogEntry.$inferSelect;
 type AnnotationRow = typeof fieldLogAnnotation.$inferSelect;
@@ -46,7 +46,7 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
     await liveDevice(ctx, deviceId, tx);
     const rev = await cardRevision(ctx, deviceId);
     if (input.kind === 'replacement' && input.appliedVersion > rev.number) {
-      throw new HttpError(422, `appliedVersion: this card is at revision ${rev.number}`, {
+      throw new Invalid(`appliedVersion: this card is at revision ${rev.number}`, {
         fields: { appliedVersion: `The card is at revision ${rev.number}; enter a revision from 1 to ${rev.number}.` },
       });
     }
@@ -57,7 +57,7 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
         eq(attachment.ownerId, deviceId), eq(attachment.kind, 'photo'), isNull(attachment.entryId),
       ));
       if (found.length !== photoIds.length) {
-        throw new HttpError(422, 'photoIds: upload the photos to this device first', { fields: { photoIds: 'One of the photos is not an unused photo of this device.' } });
+        throw new Invalid('photoIds: upload the photos to this device first', { fields: { photoIds: 'One of the photos is not an unused photo of this device.' } });
       }
     }
     await tx.insert(fieldLogEntry).values({
@@ -76,7 +76,7 @@ export async function annotateEntry(ctx: TeamContext, entryId: string, note: str
   return db.transaction(async (tx) => {
     const [entry] = await tx.select({ id: fieldLogEntry.id, deviceId: fieldLogEntry.deviceId }).from(fieldLogEntry)
       .where(and(eq(fieldLogEntry.id, entryId), eq(fieldLogEntry.teamId, ctx.team.id)));
-    if (!entry) throw new HttpError(404, 'No field-log entry with that id in this team.');
+    if (!entry) throw notFound('field-log entry');
     await liveDevice(ctx, entry.deviceId, tx);
     const [row] = await tx.insert(fieldLogAnnotation).values({ id: newId('fnote'), teamId: ctx.team.id, entryId, note, userId: ctx.user.id, userName: ctx.user.name }).returning();
     return row!;

@@ -1,10 +1,10 @@
 /** Stages a checked import: new rows in parent-first order, their creation revisions and the import map. */
-import { command, commandRevision, device, deviceProfile, importMap, link, linkMember, machine, port, revision, site } from '../../../db/schema';
-import type { EntityType } from '../../../db/schema';
+import { command, device, deviceProfile, importMap, link, linkMember, machine, port, revision, site } from '../../../db/schema';
+import type { RecordType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
-import { diffSnapshots } from '../vault/diff';
-import { SPECS } from '../vault/specs';
+import { entityOf } from '../records/entities';
+import { creationRevision, revisionRow } from '../records/engine';
 import type { ExportDocument } from '../../schemas/field';
 import type { Section } from './import';
 import { sql } from 'drizzle-orm';
@@ -12,20 +12,14 @@ import { STAGE_BATCH as SLICE, type Stage } from '../jobs/stage';
 
 const importId = (section: Section) => newId({ sites: 'site', machines: 'mach', profiles: 'prof', devices: 'dev', ports: 'port', links: 'link', commands: 'cmd' }[section]);
 
-/** Creation revisions for vault rows, as the vault writes them one by one. */
-export function creationRevisions(ctx: TeamContext, type: EntityType, rows: Record<string, unknown>[], summary: string) {
-  const spec = SPECS[type] as unknown as { snapshot(r: unknown): Record<string, unknown> };
-  return rows.map((r) => {
-    const snapshot = spec.snapshot(r);
-    return {
-      id: newId('rev'), teamId: ctx.team.id, entityType: type, entityId: r.id as string, version: 1, action: 'create' as const,
-      userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot,
-    };
-  });
+/** Creation revisions for imported rows, as the engine writes them one by one (snapshot keys from the entity). */
+export function creationRevisions(ctx: TeamContext, type: RecordType, rows: ({ id: string } & Record<string, unknown>)[], summary: string) {
+  const entity = entityOf(type);
+  return rows.map((r) => revisionRow(ctx, creationRevision(entity, r, summary)));
 }
 
 /** Parent-first order of the tables an import fills. */
-const ORDER = [site, machine, deviceProfile, device, port, link, linkMember, command, revision, commandRevision] as const;
+const ORDER = [site, machine, deviceProfile, device, port, link, linkMember, command, revision] as const;
 
 export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>): Promise<void> {
   for (const t of ORDER) stage.target(t);
@@ -67,7 +61,7 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
   await stage.add(linkMember, links.flatMap((l) => l.members.map((m) => ({ linkId: l.id, teamId: team, ...m }))));
   await stage.add(command, commands);
   // Revisions are built a slice at a time, so building them never holds up other requests for long.
-  const revise = async (type: EntityType, rows: Record<string, unknown>[]) => {
+  const revise = async (type: RecordType, rows: ({ id: string } & Record<string, unknown>)[]) => {
     for (let lo = 0; lo < rows.length; lo += SLICE) await stage.add(revision, creationRevisions(ctx, type, rows.slice(lo, lo + SLICE), summary));
   };
   await revise('site', sites);
@@ -76,11 +70,6 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
   await revise('device', devices);
   await revise('port', ports);
   await revise('link', links.map((l) => ({ ...l, members: l.members.map(({ position: _p, ...m }) => m) })));
-  for (let lo = 0; lo < commands.length; lo += SLICE) {
-    await stage.add(commandRevision, commands.slice(lo, lo + SLICE).map((c) => {
-      const snapshot = { name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery };
-      return { id: newId('crev'), teamId: team, commandId: c.id, version: 1, action: 'create' as const, userId: ctx.user.id, userName: ctx.user.name, summary, changes: diffSnapshots({}, snapshot), snapshot };
-    }));
-  }
+  await revise('command', commands);
   await stage.add(importMap, mapRows);
 }

@@ -7,12 +7,12 @@ import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { command, device, deviceProfile, importMap, link, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
 import { nameKey } from '../../schemas/vault';
 import { stageImport } from './import-write';
 import { runStagedJob } from '../jobs/jobs';
+import { Conflict, Invalid } from '../errors';
 
 export const SECTIONS = ['sites', 'machines', 'profiles', 'devices', 'ports', 'links', 'commands'] as const;
 export type Section = (typeof SECTIONS)[number];
@@ -28,16 +28,16 @@ export interface ImportResult {
 export function readDocument(raw: unknown): ExportDocument {
   const head = raw as { format?: unknown; version?: unknown } | null;
   if (!head || typeof head !== 'object' || head.format !== EXPORT_FORMAT) {
-    throw new HttpError(422, `document: not a ${EXPORT_FORMAT} document (format must be "${EXPORT_FORMAT}")`, { fields: { 'document.format': 'Not an export of this app.' } });
+    throw new Invalid(`document: not a ${EXPORT_FORMAT} document (format must be "${EXPORT_FORMAT}")`, { fields: { 'document.format': 'Not an export of this app.' } });
   }
-  if (head.version !== EXPORT_VERSION) throw new HttpError(422, `document: version ${String(head.version)} is not supported; this server reads version ${EXPORT_VERSION}`);
+  if (head.version !== EXPORT_VERSION) throw new Invalid(`document: version ${String(head.version)} is not supported; this server reads version ${EXPORT_VERSION}`);
   const parsed = exportDocumentSchema.safeParse(raw);
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!;
-    throw new HttpError(422, `document.${issue.path.join('.')}: ${issue.message}`, { problems: parsed.error.issues.slice(0, 20).map((i) => `${i.path.join('.')}: ${i.message}`) });
+    throw new Invalid(`document.${issue.path.join('.')}: ${issue.message}`, { problems: parsed.error.issues.slice(0, 20).map((i) => `${i.path.join('.')}: ${i.message}`) });
   }
   const problems = documentProblems(parsed.data);
-  if (problems.length) throw new HttpError(422, `document: ${problems[0]}`, { problems });
+  if (problems.length) throw new Invalid(`document: ${problems[0]}`, { problems });
   return parsed.data;
 }
 
@@ -82,7 +82,7 @@ export async function importDocument(ctx: TeamContext, raw: unknown, apply: bool
       // The same document imported meanwhile, or an earlier copy purged, would change what is new.
       const now = await check(tx);
       if (!sameTargets(now.known, checked.known)) {
-        throw new HttpError(409, 'Records of this document were imported or purged while it was being imported; nothing was written. Import it again.');
+        throw new Conflict('Records of this document were imported or purged while it was being imported; nothing was written. Import it again.');
       }
     },
     result: () => ({ applied: true, source: doc.source, counts: checked.counts }),
@@ -102,7 +102,7 @@ async function tagClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, know
     .where(and(eq(device.teamId, ctx.team.id), inArray(device.machineId, targets), isNull(device.deletedAt)));
   const taken = new Set(live.map((d) => `${d.machineId}\u0000${nameKey(d.tag)}`));
   const clash = fresh.find((d) => taken.has(`${known.machines.get(d.machineId)}\u0000${nameKey(d.tag)}`));
-  if (clash) throw new HttpError(409, `A device tagged ${clash.tag} is already on the machine imported before as ${clash.machineId}; change one of the tags first.`);
+  if (clash) throw new Conflict(`A device tagged ${clash.tag} is already on the machine imported before as ${clash.machineId}; change one of the tags first.`);
 }
 
 /** A new port on a device that is already here must not take the name of one of its live ports. */
@@ -114,5 +114,5 @@ async function portNameClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument,
     .where(and(eq(port.teamId, ctx.team.id), inArray(port.deviceId, targets), isNull(port.deletedAt)));
   const taken = new Set(live.map((p) => `${p.deviceId}\u0000${nameKey(p.name)}`));
   const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${nameKey(p.name)}`));
-  if (clash) throw new HttpError(409, `A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
+  if (clash) throw new Conflict(`A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
 }

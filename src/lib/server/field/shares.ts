@@ -5,12 +5,12 @@ import type { z } from 'zod';
 import { db } from '../../../db/client';
 import { machine, shareLink, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import { newId, randomToken, sha256 } from '../ids';
 import { linkMessage, sendMail } from '../mail';
 import type { shareCreateSchema } from '../../schemas/field';
 import { baseUrl, shareDefaultDays, shareMaxDays } from './config';
 import { liveMachine, liveSite } from './scope';
+import { Conflict, Invalid, notFound } from '../errors';
 
 type ShareRow = typeof shareLink.$inferSelect;
 const DAY = 86_400_000;
@@ -29,7 +29,7 @@ export function shareState(r: Pick<ShareRow, 'expiresAt' | 'revokedAt'>, now = D
 export function parseExpiry(raw: string | undefined, now = Date.now()): Date {
   if (!raw) return new Date(now + shareDefaultDays * DAY);
   const date = /^\d{4}-\d{2}-\d{2}$/.test(raw) ? new Date(`${raw}T23:59:59.999Z`) : new Date(raw);
-  const fail = (msg: string) => new HttpError(422, `expiresAt: ${msg}`, { fields: { expiresAt: msg } });
+  const fail = (msg: string) => new Invalid(`expiresAt: ${msg}`, { fields: { expiresAt: msg } });
   if (Number.isNaN(date.getTime())) throw fail('Enter the last day as YYYY-MM-DD.');
   if (date.getTime() <= now) throw fail('Choose a day in the future.');
   if (date.getTime() > now + shareMaxDays * DAY) throw fail(`A link lasts at most ${shareMaxDays} days.`);
@@ -52,7 +52,7 @@ export async function listShares(ctx: TeamContext): Promise<ShareView[]> {
 
 async function findShare(ctx: TeamContext, id: string) {
   const [row] = await db.select({ share: shareLink, scopeName }).from(shareLink).where(and(eq(shareLink.id, id), eq(shareLink.teamId, ctx.team.id)));
-  if (!row) throw new HttpError(404, 'No share link with that id in this team.');
+  if (!row) throw notFound('share link');
   return { ...row.share, scopeName: row.scopeName };
 }
 
@@ -87,7 +87,7 @@ export async function revokeShare(ctx: TeamContext, id: string): Promise<ShareVi
  */
 export async function emailShare(ctx: TeamContext, id: string, to: string, message: string): Promise<{ sent: true; to: string; share: ShareView }> {
   const row = await findShare(ctx, id);
-  const refuse = (state: string) => new HttpError(409, `This link is ${state}; create a new one to send.`);
+  const refuse = (state: string) => new Conflict(`This link is ${state}; create a new one to send.`);
   if (shareState(row) !== 'active') throw refuse(shareState(row));
   const token = randomToken();
   const [copy] = await db.insert(shareLink).values({

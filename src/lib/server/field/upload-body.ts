@@ -1,6 +1,7 @@
 /** Reads an upload body with the size limit enforced while streaming: multipart/form-data, or the raw file bytes. */
-import { HttpError, readBodyBytes } from '../http';
+import { readBodyBytes } from '../http';
 import { formatBytes } from '../../field/files';
+import { BadRequest, Invalid, TooLarge } from '../errors';
 
 /** Room for multipart boundaries and the small text fields around the file. */
 const MULTIPART_OVERHEAD = 64 * 1024;
@@ -11,7 +12,7 @@ export interface UploadBody {
   bytes: Uint8Array;
 }
 
-const tooLarge = (max: number) => new HttpError(413, `The file is larger than the ${formatBytes(max)} limit.`, { maxBytes: max });
+const tooLarge = (max: number) => new TooLarge(`The file is larger than the ${formatBytes(max)} limit.`, { maxBytes: max });
 
 function readLimited(request: Request, limit: number, max: number): Promise<Uint8Array> {
   return readBodyBytes(request, limit, () => tooLarge(max));
@@ -29,7 +30,7 @@ export async function readUpload(request: Request, url: URL, max: number): Promi
     try {
       form = await new Response(raw as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData();
     } catch {
-      throw new HttpError(400, 'The multipart body could not be read.');
+      throw new BadRequest('The multipart body could not be read.');
     }
     const fields: Record<string, string> = {};
     let file: File | null = null;
@@ -37,7 +38,7 @@ export async function readUpload(request: Request, url: URL, max: number): Promi
       if (typeof v === 'string') fields[k] = v;
       else if (k === 'file') file = v;
     }
-    if (!file) throw new HttpError(422, 'file: choose a file to upload', { fields: { file: 'Choose a file to upload.' } });
+    if (!file) throw new Invalid('file: choose a file to upload', { fields: { file: 'Choose a file to upload.' } });
     if (file.size > max) throw tooLarge(max);
     return { fields, fileName: fields.name || file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
   }

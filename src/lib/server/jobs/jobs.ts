@@ -7,7 +7,7 @@ import { and, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { db, type Tx } from '../../../db/client';
 import { job, type JobKind } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
+import { AppError } from '../errors';
 import { newId } from '../ids';
 import { clearStaged, Stage } from './stage';
 
@@ -76,7 +76,7 @@ export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: Sta
     });
     return work.result();
   } catch (err) {
-    const message = err instanceof HttpError ? err.message : 'The job stopped on an unexpected error; nothing was written.';
+    const message = err instanceof AppError ? err.message : 'The job stopped on an unexpected error; nothing was written.';
     await db.update(job).set({ state: 'failed', message, updatedAt: new Date(), finishedAt: new Date() }).where(eq(job.id, id));
     throw err;
   } finally {

@@ -3,10 +3,10 @@
  * (our own invention). The drive gets a service port at 9600 8-N-1 for them. Fixed ids: idempotent.
  */
 import { db } from '../../../db/client';
-import { command, commandRevision, port, revision } from '../../../db/schema';
+import { command, port } from '../../../db/schema';
 import { portSettingsSchema } from '../../frame/port-settings';
 import { indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
-import { snapshotOf } from '../commands/records';
+import { created } from './vault-builders';
 import { DEMO_ACCOUNTS, DEMO_TEAM_ID } from './platform';
 import type { Role } from '../../permissions';
 
@@ -35,14 +35,12 @@ export async function seedCommands(ids: Record<Role, string>): Promise<void> {
   const userName = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!.name;
   const userId = ids.engineer;
   await db.insert(port).values({ ...servicePort, teamId: DEMO_TEAM_ID, deviceId: DEMO_DRIVE_ID, updatedBy: userId }).onConflictDoNothing();
-  const portSnap = { name: servicePort.name, position: servicePort.position, settings: servicePort.settings, wiring: servicePort.wiring, notes: servicePort.notes };
-  await db.insert(revision).values({ id: `rev_${servicePort.id}_1`, teamId: DEMO_TEAM_ID, entityType: 'port', entityId: servicePort.id, version: 1, action: 'create', userId, userName,
-    summary: `Created port ${servicePort.name}`, changes: Object.entries(portSnap).map(([field, to]) => ({ field, from: null, to })), snapshot: portSnap }).onConflictDoNothing();
+  const seed = { teamId: DEMO_TEAM_ID, userId, userName };
+  await created(seed, 'port', servicePort.id, servicePort, `Created port ${servicePort.name}`);
   for (const c of commands) {
-    const row = { replyTemplate: null, portName: DEMO_SERVICE_PORT, ...c } as unknown as Omit<typeof command.$inferInsert, 'teamId'> & Parameters<typeof snapshotOf>[0];
+    const row = { replyTemplate: null, portName: DEMO_SERVICE_PORT, ...c } as unknown as Omit<typeof command.$inferInsert, 'teamId'>;
     await db.insert(command).values({ ...row, teamId: DEMO_TEAM_ID, deviceId: DEMO_DRIVE_ID, updatedBy: userId }).onConflictDoNothing();
-    const snapshot = snapshotOf(row);
-    await db.insert(commandRevision).values({ id: `crev_${c.id}_1`, teamId: DEMO_TEAM_ID, commandId: c.id, version: 1, action: 'create', userId, userName,
-      summary: `Created command ${c.name}`, changes: Object.entries(snapshot).map(([field, to]) => ({ field, from: null, to })), snapshot }).onConflictDoNothing();
+    // Revision ids as the first seeds wrote them (moved from command_revision), so seeding again adds nothing.
+    await created(seed, 'command', c.id, row, `Created command ${c.name}`, `crev_${c.id}_1`);
   }
 }

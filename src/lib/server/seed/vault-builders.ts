@@ -2,7 +2,9 @@
 import { db } from '../../../db/client';
 import { device, deviceProfile, link, linkMember, machine, port, revision, site, type ProfilePort, type WiringRow } from '../../../db/schema';
 import { portSettingsSchema, type PortSettingsInput } from '../../frame/port-settings';
-import type { DeviceRole, EntityType } from '../../../db/schema';
+import type { DeviceRole, RecordType } from '../../../db/schema';
+import { creationRevision, revisionRow } from '../records/engine';
+import { entityOf } from '../records/entities';
 
 export interface SeedCtx {
   teamId: string;
@@ -12,14 +14,10 @@ export interface SeedCtx {
 
 const settings = (s: PortSettingsInput) => portSettingsSchema.parse(s);
 
-async function created(c: SeedCtx, type: EntityType, entityId: string, snapshot: Record<string, unknown>, summary: string) {
-  await db
-    .insert(revision)
-    .values({
-      id: `rev_${entityId}_1`, teamId: c.teamId, entityType: type, entityId, version: 1, action: 'create',
-      userId: c.userId, userName: c.userName, summary, changes: Object.entries(snapshot).map(([field, to]) => ({ field, from: null, to })), snapshot,
-    })
-    .onConflictDoNothing();
+/** The creation revision of a seeded record, as the record engine writes it (snapshot keys from the entity declaration). */
+export async function created(c: SeedCtx, type: RecordType, entityId: string, row: Record<string, unknown>, summary: string, revisionId = `rev_${entityId}_1`) {
+  const rev = creationRevision(entityOf(type), { ...row, id: entityId }, summary);
+  await db.insert(revision).values(revisionRow({ team: { id: c.teamId }, user: { id: c.userId, name: c.userName } }, rev, revisionId)).onConflictDoNothing();
 }
 
 export async function addSite(c: SeedCtx, id: string, name: string, customer: string, address: string, notes = '') {

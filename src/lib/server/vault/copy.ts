@@ -3,12 +3,12 @@ import type { FieldChange } from '../../../db/schema';
 import type { DbOrTx } from '../../../db/client';
 import { db } from '../../../db/client';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import type { CopySettings } from '../../schemas/vault';
-import { diffSnapshots } from './diff';
+import { diffSnapshots } from '../records/diff';
 import { findLive, updateVersioned } from './records';
-import { deviceSpec, portSpec, type PortRow } from './specs';
+import { deviceEntity, portEntity, type PortRow } from '../records/entities';
 import { livePorts } from './devices';
+import { Conflict, Invalid } from '../errors';
 
 export interface CopyPair {
   sourcePortId: string;
@@ -30,11 +30,11 @@ type Labelled = PortRow & { label: string };
 
 async function resolve(q: DbOrTx, ctx: TeamContext, end: CopySettings['source']): Promise<Labelled[]> {
   if (end.kind === 'port') {
-    const p = await findLive(q, ctx, portSpec, end.id);
-    const d = await findLive(q, ctx, deviceSpec, p.deviceId);
+    const p = await findLive(q, ctx, portEntity, end.id);
+    const d = await findLive(q, ctx, deviceEntity, p.deviceId);
     return [{ ...p, label: `${d.tag} ${p.name}` }];
   }
-  const d = await findLive(q, ctx, deviceSpec, end.id);
+  const d = await findLive(q, ctx, deviceEntity, end.id);
   return (await livePorts(q, d.id)).map((p) => ({ ...p, label: `${d.tag} ${p.name}` }));
 }
 
@@ -73,10 +73,10 @@ async function plan(q: DbOrTx, ctx: TeamContext, opts: CopySettings) {
   const [sources, targets] = await Promise.all([resolve(q, ctx, opts.source), resolve(q, ctx, opts.target)]);
   const targetIds = new Set(targets.map((t) => t.id));
   if (sources.some((s) => targetIds.has(s.id))) {
-    throw new HttpError(422, 'target: choose a different device or port to copy onto', { fields: { target: 'The target is the same as the source.' } });
+    throw new Invalid('target: choose a different device or port to copy onto', { fields: { target: 'The target is the same as the source.' } });
   }
-  if (sources.length === 0) throw new HttpError(422, 'source: the source has no ports', { fields: { source: 'The source has no ports to copy from.' } });
-  if (targets.length === 0) throw new HttpError(422, 'target: the target has no ports', { fields: { target: 'The target has no ports; add one first.' } });
+  if (sources.length === 0) throw new Invalid('source: the source has no ports', { fields: { source: 'The source has no ports to copy from.' } });
+  if (targets.length === 0) throw new Invalid('target: the target has no ports', { fields: { target: 'The target has no ports; add one first.' } });
   const { pairs, unmatched } = pairUp(sources, targets);
   return {
     pairs: pairs.map(([s, t]) => {
@@ -103,18 +103,18 @@ export async function previewCopy(ctx: TeamContext, opts: CopySettings): Promise
 /** Writes every pair with changes as one transaction; any target changed since the preview answers 409 with a fresh preview. */
 export async function applyCopy(ctx: TeamContext, opts: CopySettings): Promise<CopyPreview> {
   const basedOn = opts.basedOn;
-  if (!basedOn) throw new HttpError(422, 'basedOn: preview first and send the versions you saw', { fields: { basedOn: 'Preview first and send the target versions you saw.' } });
+  if (!basedOn) throw new Invalid('basedOn: preview first and send the versions you saw', { fields: { basedOn: 'Preview first and send the target versions you saw.' } });
   return db.transaction(async (tx) => {
     const p = await plan(tx, ctx, opts);
     const stale = p.pairs.filter((x) => x.summary.changes.length > 0 && basedOn[x.target.id] !== x.target.version);
     if (stale.length) {
-      throw new HttpError(409, `${stale.map((s) => s.target.label).join(', ')} changed since the preview; look at the differences again.`, {
+      throw new Conflict(`${stale.map((s) => s.target.label).join(', ')} changed since the preview; look at the differences again.`, {
         current: { pairs: p.pairs.map((x) => x.summary), unmatched: p.unmatched, applied: false },
       });
     }
     for (const x of p.pairs) {
       if (x.summary.changes.length === 0) continue;
-      await updateVersioned(tx, ctx, portSpec, x.target.id, x.target.version, x.next, { action: 'copy', summary: `Copied settings from ${x.source.label}` });
+      await updateVersioned(tx, ctx, portEntity, x.target.id, x.target.version, x.next, { action: 'copy', summary: `Copied settings from ${x.source.label}` });
     }
     return { pairs: p.pairs.map((x) => x.summary), unmatched: p.unmatched, applied: true };
   });

@@ -4,15 +4,14 @@ import type { z } from 'zod';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
-import { isUniqueViolation } from '../db-errors';
 import { newId } from '../ids';
 import type { deviceCreateSchema, deviceUpdateSchema, PortInput } from '../../schemas/vault';
 import { findLive, recordCreated, updateVersioned, type Page } from './records';
-import { deviceSpec, machineSpec, portSpec, profileSpec, type DeviceRow, type PortRow } from './specs';
+import { deviceEntity, machineEntity, portEntity, profileEntity, type DeviceRow, type PortRow } from '../records/entities';
 import { presentPort, type PortView } from './present';
-import { definedOnly } from './diff';
+import { definedOnly } from '../records/diff';
 import { deviceListStatement, type DeviceListOptions } from './device-list-sql';
+import { duplicateFrom, notFound } from '../errors';
 
 export interface DeviceListItem {
   id: string; tag: string; name: string; role: DeviceRow['role']; maker: string; model: string; serialNumber: string;
@@ -56,7 +55,7 @@ export async function getDevice(ctx: TeamContext, id: string, q: DbOrTx = db): P
     .innerJoin(machine, eq(machine.id, device.machineId))
     .innerJoin(site, eq(site.id, machine.siteId))
     .where(and(eq(device.id, id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt)));
-  if (!row) throw new HttpError(404, 'No device with that id in this team.');
+  if (!row) throw notFound('device');
   const ports = await livePorts(q, id);
   return { ...row.device, machineName: row.machineName, siteId: row.siteId, siteName: row.siteName, ports: ports.map(presentPort) };
 }
@@ -81,7 +80,7 @@ export async function insertPorts(
     } catch (err) {
       throw uniqueName(err, fieldFor(i));
     }
-    await recordCreated(tx, ctx, portSpec, row!);
+    await recordCreated(tx, ctx, portEntity, row!);
     out.push(row!);
   }
   return out;
@@ -90,8 +89,8 @@ export async function insertPorts(
 export async function createDevice(ctx: TeamContext, input: z.infer<typeof deviceCreateSchema>): Promise<DeviceView> {
   const { ports, profileId, ...fields } = input;
   return db.transaction(async (tx) => {
-    await findLive(tx, ctx, machineSpec, fields.machineId);
-    const profile = profileId ? await findLive(tx, ctx, profileSpec, profileId) : null;
+    await findLive(tx, ctx, machineEntity, fields.machineId);
+    const profile = profileId ? await findLive(tx, ctx, profileEntity, profileId) : null;
     const values = {
       ...fields,
       role: fields.role ?? profile?.role ?? 'other',
@@ -107,7 +106,7 @@ export async function createDevice(ctx: TeamContext, input: z.infer<typeof devic
     } catch (err) {
       throw uniqueTag(err);
     }
-    await recordCreated(tx, ctx, deviceSpec, row!, profile ? `Created device ${row!.tag} from profile ${profile.name}` : undefined);
+    await recordCreated(tx, ctx, deviceEntity, row!, profile ? `Created device ${row!.tag} from profile ${profile.name}` : undefined);
     await insertPorts(tx, ctx, row!.id, ports ?? profile?.ports ?? []);
     return getDevice(ctx, row!.id, tx);
   });
@@ -116,9 +115,9 @@ export async function createDevice(ctx: TeamContext, input: z.infer<typeof devic
 export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<typeof deviceUpdateSchema>): Promise<DeviceView> {
   const { version, ...values } = input;
   return db.transaction(async (tx) => {
-    if (values.machineId) await findLive(tx, ctx, machineSpec, values.machineId);
+    if (values.machineId) await findLive(tx, ctx, machineEntity, values.machineId);
     try {
-      await updateVersioned(tx, ctx, deviceSpec, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
+      await updateVersioned(tx, ctx, deviceEntity, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
     } catch (err) {
       throw uniqueTag(err);
     }
@@ -131,10 +130,7 @@ export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<
  * on (machine, tag ignoring case)); other errors pass through.
  */
 export function uniqueTag(err: unknown, field = 'tag'): unknown {
-  if (!isUniqueViolation(err)) return err;
-  return new HttpError(422, `${field}: another device on this machine already has this tag (letter case aside)`, {
-    fields: { [field]: 'Another device on this machine already has this tag (letter case aside).' },
-  });
+  return duplicateFrom(err, field, `${field}: another device on this machine already has this tag (letter case aside)`, 'Another device on this machine already has this tag (letter case aside).');
 }
 
 /**
@@ -142,8 +138,5 @@ export function uniqueTag(err: unknown, field = 'tag'): unknown {
  * on (device, name ignoring case)); other errors pass through.
  */
 export function uniqueName(err: unknown, field: string): unknown {
-  if (!isUniqueViolation(err)) return err;
-  return new HttpError(422, `${field}: another port on this device already has this name (letter case aside)`, {
-    fields: { [field]: 'Another port on this device already has this name (letter case aside).' },
-  });
+  return duplicateFrom(err, field, `${field}: another port on this device already has this name (letter case aside)`, 'Another port on this device already has this name (letter case aside).');
 }

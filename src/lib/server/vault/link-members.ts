@@ -4,8 +4,8 @@ import type { DbOrTx } from '../../../db/client';
 import { device, linkMember, port } from '../../../db/schema';
 import type { PortSettings } from '../../frame/port-settings';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import type { LinkMemberInput } from '../../schemas/vault';
+import { NotFound } from '../errors';
 
 export interface StoredMember {
   portId: string;
@@ -68,7 +68,7 @@ export async function assertMemberPorts(q: DbOrTx, ctx: TeamContext, members: Li
     if (!ok.has(m.portId)) fields[`members.${i}.portId`] = 'No port with that id in this team.';
   });
   const keys = Object.keys(fields);
-  if (keys.length) throw new HttpError(404, `${keys[0]}: no port with that id in this team`, { fields });
+  if (keys.length) throw new NotFound(`${keys[0]}: no port with that id in this team`, { fields });
 }
 
 export async function replaceMembers(q: DbOrTx, ctx: TeamContext, linkId: string, members: StoredMember[] | LinkMemberInput[]): Promise<void> {

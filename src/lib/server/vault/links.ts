@@ -8,10 +8,10 @@ import { newId } from '../ids';
 import type { linkCreateSchema, linkUpdateSchema } from '../../schemas/vault';
 import { portShorthand } from '../../frame/port-settings';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
-import { linkSpec, machineSpec, type LinkRow } from './specs';
+import { linkEntity, machineEntity, type LinkRow } from '../records/entities';
 import { assertMemberPorts, loadMembers, replaceMembers, storedMembers, type MemberView } from './link-members';
 import { reportFor, type VaultLinkReport } from './link-report';
-import { definedOnly } from './diff';
+import { definedOnly } from '../records/diff';
 
 export const LINK_SORTS = ['name', 'kind', 'updatedAt'] as const;
 
@@ -58,8 +58,8 @@ export async function listLinks(
 }
 
 export async function getLink(ctx: TeamContext, id: string, q: DbOrTx = db): Promise<LinkView> {
-  const row = await findLive(q, ctx, linkSpec, id);
-  const m = await findLive(q, ctx, machineSpec, row.machineId);
+  const row = await findLive(q, ctx, linkEntity, id);
+  const m = await findLive(q, ctx, machineEntity, row.machineId);
   const members = await loadMembers(q, [id]);
   return view(row, m.name, members.get(id) ?? []);
 }
@@ -67,11 +67,11 @@ export async function getLink(ctx: TeamContext, id: string, q: DbOrTx = db): Pro
 export async function createLink(ctx: TeamContext, input: z.infer<typeof linkCreateSchema>): Promise<LinkView> {
   const { members, ...fields } = input;
   return db.transaction(async (tx) => {
-    await findLive(tx, ctx, machineSpec, fields.machineId);
+    await findLive(tx, ctx, machineEntity, fields.machineId);
     await assertMemberPorts(tx, ctx, members);
     const [row] = await tx.insert(link).values({ id: newId('link'), teamId: ctx.team.id, ...fields, updatedBy: ctx.user.id }).returning();
     await replaceMembers(tx, ctx, row!.id, members);
-    await recordCreated(tx, ctx, linkSpec, { ...row!, members: storedMembers(members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null }))) });
+    await recordCreated(tx, ctx, linkEntity, { ...row!, members: storedMembers(members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null }))) });
     return getLink(ctx, row!.id, tx);
   });
 }
@@ -82,7 +82,7 @@ export async function updateLink(ctx: TeamContext, id: string, input: z.infer<ty
     if (values.members) await assertMemberPorts(tx, ctx, values.members);
     const patch = definedOnly(values);
     if (patch.members) patch.members = storedMembers(patch.members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null })));
-    await updateVersioned(tx, ctx, linkSpec, id, version, patch, { present: () => getLink(ctx, id, tx) });
+    await updateVersioned(tx, ctx, linkEntity, id, version, patch, { present: () => getLink(ctx, id, tx) });
     return getLink(ctx, id, tx);
   });
 }

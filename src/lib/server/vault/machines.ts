@@ -7,8 +7,8 @@ import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import type { machineCreateSchema, machineUpdateSchema } from '../../schemas/vault';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
-import { machineSpec, siteSpec, type MachineRow } from './specs';
-import { definedOnly } from './diff';
+import { machineEntity, siteEntity, type MachineRow } from '../records/entities';
+import { definedOnly } from '../records/diff';
 
 export const MACHINE_SORTS = ['name', 'code', 'siteName', 'updatedAt'] as const;
 
@@ -48,19 +48,19 @@ export async function listMachines(
 }
 
 export async function getMachine(ctx: TeamContext, id: string): Promise<MachineRow & { siteName: string }> {
-  const row = await findLive(db, ctx, machineSpec, id);
-  const s = await findLive(db, ctx, siteSpec, row.siteId);
+  const row = await findLive(db, ctx, machineEntity, id);
+  const s = await findLive(db, ctx, siteEntity, row.siteId);
   return { ...row, siteName: s.name };
 }
 
 export async function createMachine(ctx: TeamContext, input: z.infer<typeof machineCreateSchema>): Promise<MachineRow> {
   return db.transaction(async (tx) => {
-    await findLive(tx, ctx, siteSpec, input.siteId);
+    await findLive(tx, ctx, siteEntity, input.siteId);
     const [row] = await tx
       .insert(machine)
       .values({ id: newId('mach'), teamId: ctx.team.id, ...input, updatedBy: ctx.user.id })
       .returning();
-    await recordCreated(tx, ctx, machineSpec, row!);
+    await recordCreated(tx, ctx, machineEntity, row!);
     return row!;
   });
 }
@@ -68,7 +68,7 @@ export async function createMachine(ctx: TeamContext, input: z.infer<typeof mach
 export async function updateMachine(ctx: TeamContext, id: string, input: z.infer<typeof machineUpdateSchema>): Promise<MachineRow> {
   const { version, ...values } = input;
   return db.transaction(async (tx) => {
-    if (values.siteId) await findLive(tx, ctx, siteSpec, values.siteId);
-    return (await updateVersioned(tx, ctx, machineSpec, id, version, definedOnly(values))).row;
+    if (values.siteId) await findLive(tx, ctx, siteEntity, values.siteId);
+    return (await updateVersioned(tx, ctx, machineEntity, id, version, definedOnly(values))).row;
   });
 }

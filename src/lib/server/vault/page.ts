@@ -1,14 +1,15 @@
 /** Helpers for vault and field pages, which call services directly. */
 import type { Permission } from '../../permissions';
 import { guardPage, type TeamContext } from '../guard';
-import { HttpError } from '../http';
+import { AppError, NotFound } from '../errors';
+import { httpStatus } from '../http';
 
 /** The record, or null when the service answers 404 (the page then sets status 404 and shows NotFound). */
 export async function orNotFound<T>(load: () => Promise<T>): Promise<T | null> {
   try {
     return await load();
   } catch (err) {
-    if (err instanceof HttpError && err.status === 404) return null;
+    if (err instanceof AppError && httpStatus(err) === 404) return null;
     throw err;
   }
 }
@@ -30,9 +31,9 @@ export async function loadPage<T>(locals: App.Locals, url: URL, permission: Perm
   try {
     return { ok: true, ctx: g.ctx, data: await load(g.ctx) };
   } catch (err) {
-    if (!(err instanceof HttpError)) throw err;
-    if (err.status === 404) return { ok: false, status: 404, message: err.message };
-    return { ok: false, response: plain(err.message, err.status) };
+    if (!(err instanceof AppError) || httpStatus(err) === 500) throw err;
+    if (err instanceof NotFound || httpStatus(err) === 404) return { ok: false, status: 404, message: err.message };
+    return { ok: false, response: plain(err.message, httpStatus(err)) };
   }
 }
 

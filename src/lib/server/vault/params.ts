@@ -1,7 +1,8 @@
 /** Small parsers shared by the vault's API routes. */
 import { z } from 'zod';
 import { ENTITY_TYPES } from '../../../db/schema';
-import { HttpError, validate } from '../http';
+import { validate } from '../http';
+import { NotFound } from '../errors';
 
 /** `?version=N` on DELETE: optional, but when sent it must be the current version. */
 export function versionParam(url: URL): number | undefined {
@@ -12,7 +13,7 @@ export function versionParam(url: URL): number | undefined {
 
 export function entityTypeParam(value: string | undefined) {
   const parsed = z.enum(ENTITY_TYPES).safeParse(value);
-  if (!parsed.success) throw new HttpError(404, `Unknown record type "${value}"; use one of ${ENTITY_TYPES.join(', ')}.`);
+  if (!parsed.success) throw new NotFound(`Unknown record type "${value}"; use one of ${ENTITY_TYPES.join(', ')}.`);
   return parsed.data;
 }
 

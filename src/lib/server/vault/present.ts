@@ -1,6 +1,6 @@
 /** How ports look in API answers: the stored row plus the shorthand and the copy-as-text block. */
 import { portSettingsText, portShorthand, type PortSettings } from '../../frame/port-settings';
-import type { PortRow } from './specs';
+import type { PortRow } from '../records/entities';
 
 export interface PortView extends PortRow {
   shorthand: string;

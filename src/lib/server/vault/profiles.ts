@@ -7,10 +7,10 @@ import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import type { profileCreateSchema, profileUpdateSchema } from '../../schemas/vault';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
-import { deviceSpec, profileSpec, type ProfileRow } from './specs';
+import { deviceEntity, profileEntity, type ProfileRow } from '../records/entities';
 import { livePorts } from './devices';
 import { shorthandOf } from './present';
-import { definedOnly } from './diff';
+import { definedOnly } from '../records/diff';
 
 export const PROFILE_SORTS = ['name', 'role', 'maker', 'model', 'updatedAt'] as const;
 
@@ -42,7 +42,7 @@ export async function listProfiles(
 }
 
 export async function getProfile(ctx: TeamContext, id: string): Promise<ProfileView> {
-  const row = await findLive(db, ctx, profileSpec, id);
+  const row = await findLive(db, ctx, profileEntity, id);
   const n = await countWhere(device, and(eq(device.profileId, id), isNull(device.deletedAt)));
   return view(row, n);
 }
@@ -50,21 +50,21 @@ export async function getProfile(ctx: TeamContext, id: string): Promise<ProfileV
 export async function createProfile(ctx: TeamContext, input: z.infer<typeof profileCreateSchema>): Promise<ProfileView> {
   return db.transaction(async (tx) => {
     const [row] = await tx.insert(deviceProfile).values({ id: newId('prof'), teamId: ctx.team.id, ...input, updatedBy: ctx.user.id }).returning();
-    await recordCreated(tx, ctx, profileSpec, row!);
+    await recordCreated(tx, ctx, profileEntity, row!);
     return view(row!, 0);
   });
 }
 
 export async function updateProfile(ctx: TeamContext, id: string, input: z.infer<typeof profileUpdateSchema>): Promise<ProfileView> {
   const { version, ...values } = input;
-  await db.transaction((tx) => updateVersioned(tx, ctx, profileSpec, id, version, definedOnly(values), { present: () => getProfile(ctx, id) }));
+  await db.transaction((tx) => updateVersioned(tx, ctx, profileEntity, id, version, definedOnly(values), { present: () => getProfile(ctx, id) }));
   return getProfile(ctx, id);
 }
 
 /** "Save as profile": the device's role, maker, model and ports (addresses cleared) become a new profile. */
 export async function profileFromDevice(ctx: TeamContext, deviceId: string, name: string): Promise<ProfileView> {
   return db.transaction(async (tx) => {
-    const dev = await findLive(tx, ctx, deviceSpec, deviceId);
+    const dev = await findLive(tx, ctx, deviceEntity, deviceId);
     const ports = (await livePorts(tx, deviceId)).map((p) => ({
       name: p.name,
       settings: { ...p.settings, nodeAddress: null },
@@ -75,7 +75,7 @@ export async function profileFromDevice(ctx: TeamContext, deviceId: string, name
       .insert(deviceProfile)
       .values({ id: newId('prof'), teamId: ctx.team.id, name, role: dev.role, maker: dev.maker, model: dev.model, notes: '', ports, updatedBy: ctx.user.id })
       .returning();
-    await recordCreated(tx, ctx, profileSpec, row!, `Saved ${dev.tag} as profile ${name}`);
+    await recordCreated(tx, ctx, profileEntity, row!, `Saved ${dev.tag} as profile ${name}`);
     return view(row!, 0);
   });
 }

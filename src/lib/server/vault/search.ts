@@ -2,9 +2,9 @@
 import { sql } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
 import type { Page } from './records';
 import { ftsQuery } from './fts';
+import { Invalid } from '../errors';
 
 export const SEARCH_FIELDS = ['tag', 'name', 'maker', 'model', 'serialNumber', 'siteName', 'machineName'] as const;
 
@@ -17,7 +17,7 @@ export interface SearchHit {
 
 export async function searchDevices(ctx: TeamContext, q: string, page: number, pageSize: number): Promise<Page<SearchHit> & { q: string }> {
   const match = ftsQuery(q);
-  if (!match) throw new HttpError(422, 'q: type at least one letter or digit', { fields: { q: 'Type at least one letter or digit.' } });
+  if (!match) throw new Invalid('q: type at least one letter or digit', { fields: { q: 'Type at least one letter or digit.' } });
   const offset = (page - 1) * pageSize;
   // Ranked by FTS5's bm25; the team filter is on the index row, so other teams' devices are never joined.
   const [rows, totals] = await Promise.all([

@@ -7,8 +7,8 @@ import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import type { siteCreateSchema, siteUpdateSchema } from '../../schemas/vault';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
-import { siteSpec, type SiteRow } from './specs';
-import { definedOnly } from './diff';
+import { siteEntity, type SiteRow } from '../records/entities';
+import { definedOnly } from '../records/diff';
 
 export const SITE_SORTS = ['name', 'customer', 'updatedAt'] as const;
 
@@ -46,7 +46,7 @@ export async function listSites(
 }
 
 export function getSite(ctx: TeamContext, id: string): Promise<SiteRow> {
-  return findLive(db, ctx, siteSpec, id);
+  return findLive(db, ctx, siteEntity, id);
 }
 
 export async function createSite(ctx: TeamContext, input: z.infer<typeof siteCreateSchema>): Promise<SiteRow> {
@@ -55,12 +55,12 @@ export async function createSite(ctx: TeamContext, input: z.infer<typeof siteCre
       .insert(site)
       .values({ id: newId('site'), teamId: ctx.team.id, ...input, updatedBy: ctx.user.id })
       .returning();
-    await recordCreated(tx, ctx, siteSpec, row!);
+    await recordCreated(tx, ctx, siteEntity, row!);
     return row!;
   });
 }
 
 export async function updateSite(ctx: TeamContext, id: string, input: z.infer<typeof siteUpdateSchema>): Promise<SiteRow> {
   const { version, ...values } = input;
-  return db.transaction(async (tx) => (await updateVersioned(tx, ctx, siteSpec, id, version, definedOnly(values))).row);
+  return db.transaction(async (tx) => (await updateVersioned(tx, ctx, siteEntity, id, version, definedOnly(values))).row);
 }

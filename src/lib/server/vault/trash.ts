@@ -1,61 +1,44 @@
 /**
  * The trash: deleting moves a record (and everything inside it) out of sight; restoring brings
- * the same set back; purging (admins) removes it for good, with its history.
+ * the same set back; purging (admins) removes it for good, with its history. What lives inside what
+ * comes from the entity declarations (`parent`); the record mechanics from the record engine.
  */
-import { and, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
+import { and, eq, getTableColumns, inArray, or, sql } from 'drizzle-orm';
 import { db, type DbOrTx, type Tx } from '../../../db/client';
-import { device, deviceProfile, link, machine, port, revision, site, type EntityType } from '../../../db/schema';
+import { command, type EntityType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { HttpError } from '../http';
-import { findLive, now, staleError, writeRevision, type Page } from './records';
-import { SPECS } from './specs';
-import { findAny } from './revisions';
+import { Conflict } from '../errors';
+import { clearTrash, findInTeam, idsInTrash, purgeRevisions, recordRestored, stampTrash, trashRecord, type TrashStamp } from '../records/engine';
+import { ENTITIES, childrenOf, entityOf } from '../records/entities';
+import type { AnyEntity } from '../records/entity';
+import type { Page } from './records';
 import { nextTurn } from '../jobs/turns';
 
 /** Rows (or ids) per statement when purging. */
 const PURGE_BATCH = 500;
 
-const TABLES = [site, machine, device, port, link, deviceProfile] as const;
+/** Every entity, children before parents (the order a purge deletes in, so no statement cascades far). */
+const CHILDREN_FIRST = (Object.keys(ENTITIES) as EntityType[]).map(entityOf).reverse();
 
-/** Parent that must be live for a record to come back from the trash. */
-const PARENT: Partial<Record<EntityType, { type: EntityType; key: string }>> = {
-  machine: { type: 'site', key: 'siteId' },
-  device: { type: 'machine', key: 'machineId' },
-  port: { type: 'device', key: 'deviceId' },
-  link: { type: 'machine', key: 'machineId' },
-};
-
-async function cascade(tx: DbOrTx, ctx: TeamContext, type: EntityType, id: string, stamp: { deletedAt: Date; deletedBy: string; trashId: string }) {
-  const team = ctx.team.id;
-  const inTrash = <T extends typeof machine | typeof device>(t: T) => tx.select({ id: t.id }).from(t).where(and(eq(t.teamId, team), eq(t.trashId, id)));
-  if (type === 'site') await tx.update(machine).set(stamp).where(and(eq(machine.teamId, team), eq(machine.siteId, id), isNull(machine.deletedAt)));
-  if (type === 'site' || type === 'machine') {
-    const machines = type === 'site' ? inTrash(machine) : [id];
-    await tx.update(device).set(stamp).where(and(eq(device.teamId, team), inArray(device.machineId, machines), isNull(device.deletedAt)));
-    await tx.update(link).set(stamp).where(and(eq(link.teamId, team), inArray(link.machineId, machines), isNull(link.deletedAt)));
-  }
-  if (type === 'site' || type === 'machine' || type === 'device') {
-    const devices = type === 'device' ? [id] : inTrash(device);
-    await tx.update(port).set(stamp).where(and(eq(port.teamId, team), inArray(port.deviceId, devices), isNull(port.deletedAt)));
+/**
+ * Moves what lives inside `entity`'s rows `ids` (a site's machines, their devices and links, the devices'
+ * ports) to the trash with the same stamp, a level at a time.
+ */
+async function cascade(tx: DbOrTx, ctx: TeamContext, entity: AnyEntity, ids: string[] | 'root', stamp: TrashStamp) {
+  for (const child of childrenOf(entity.type)) {
+    const parentCol = getTableColumns(child.table)[child.parent!.field]!;
+    const parents = ids === 'root' ? [stamp.trashId] : ids;
+    if (parents.length === 0) continue;
+    await stampTrash(tx, ctx, child, inArray(parentCol, parents), stamp);
+    if (childrenOf(child.type).length) await cascade(tx, ctx, child, await idsInTrash(tx, ctx, child, stamp.trashId), stamp);
   }
 }
 
 /** Moves a record and its contents to the trash. `version`, when given, must be current (else 409). */
 export async function moveToTrash(ctx: TeamContext, type: EntityType, id: string, version?: number) {
-  const spec = SPECS[type];
+  const entity = entityOf(type);
   return db.transaction(async (tx) => {
-    const row = (await findLive(tx, ctx, spec as never, id)) as Record<string, unknown> & { version: number };
-    if (version !== undefined && row.version !== version) throw staleError(spec as never, row, version);
-    const stamp = { deletedAt: now(), deletedBy: ctx.user.id, trashId: id };
-    const t = spec.table;
-    const res = await tx
-      .update(t)
-      .set({ ...stamp, version: row.version + 1 })
-      .where(and(eq(t.id, id), eq(t.teamId, ctx.team.id), eq(t.version, row.version), isNull(t.deletedAt)));
-    if (res.rowsAffected === 0) throw staleError(spec as never, row, row.version);
-    await cascade(tx, ctx, type, id, stamp);
-    const snap = spec.snapshot((spec.hydrate ? await spec.hydrate(tx, row as never) : row) as never);
-    await writeRevision(tx, ctx, { type, entityId: id, version: row.version + 1, action: 'delete', changes: [], snapshot: snap, summary: `Moved ${spec.noun} ${spec.describe(row as never)} to the trash` });
+    await trashRecord(tx, ctx, entity, id, version, (stamp) => cascade(tx, ctx, entity, 'root', stamp));
     return { type, id, trashed: true };
   });
 }
@@ -95,12 +78,6 @@ export async function listTrash(ctx: TeamContext, opts: { page: number; pageSize
   };
 }
 
-async function trashedRoot(q: DbOrTx, ctx: TeamContext, type: EntityType, id: string) {
-  const row = await findAny(q, ctx, type, id);
-  if (!row.deletedAt || row.trashId !== id) throw new HttpError(404, `No ${SPECS[type].noun} with that id in the trash.`);
-  return row;
-}
-
 /**
  * 409 when a device coming back would share its tag with a live device of its machine, or a port its name
  * with a live port of its device (letter case aside, as the unique indexes compare them).
@@ -112,7 +89,7 @@ async function refuseNameClashes(tx: DbOrTx, ctx: TeamContext, trashId: string) 
     JOIN machine m ON m.id = r.machine_id
     WHERE r.team_id = ${ctx.team.id} AND r.trash_id = ${trashId} LIMIT 1`);
   if (tag) {
-    throw new HttpError(409, `Machine ${tag.machine} now has a device tagged "${tag.taken}", the same tag as "${tag.tag}" (letter case aside); change one of the tags first.`, {
+    throw new Conflict(`Machine ${tag.machine} now has a device tagged "${tag.taken}", the same tag as "${tag.tag}" (letter case aside); change one of the tags first.`, {
       clash: { tag: tag.tag, taken: tag.taken, machine: tag.machine },
     });
   }
@@ -122,29 +99,24 @@ async function refuseNameClashes(tx: DbOrTx, ctx: TeamContext, trashId: string) 
     JOIN device d ON d.id = r.device_id
     WHERE r.team_id = ${ctx.team.id} AND r.trash_id = ${trashId} LIMIT 1`);
   if (clash) {
-    throw new HttpError(409, `Device ${clash.tag} now has a port named "${clash.taken}", the same name as "${clash.name}" (letter case aside); rename one of them first.`, {
+    throw new Conflict(`Device ${clash.tag} now has a port named "${clash.taken}", the same name as "${clash.name}" (letter case aside); rename one of them first.`, {
       clash: { port: clash.name, taken: clash.taken, deviceTag: clash.tag },
     });
   }
 }
 
 export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: string) {
-  const spec = SPECS[type];
+  const entity = entityOf(type);
   return db.transaction(async (tx) => {
-    const row = await trashedRoot(tx, ctx, type, id);
-    const parent = PARENT[type];
+    const row = await findInTeam(tx, ctx, entity, id, 'trash');
+    const parent = entity.parent;
     if (parent) {
-      const p = await findAny(tx, ctx, parent.type, String(row[parent.key]));
-      if (p.deletedAt) throw new HttpError(409, `Its ${SPECS[parent.type].noun} is in the trash too; restore that first.`, { parent: { type: parent.type, id: p.id } });
+      const p = await findInTeam(tx, ctx, entityOf(parent.type), String(row[parent.field]), 'any');
+      if (p.deletedAt) throw new Conflict(`Its ${entityOf(parent.type).noun} is in the trash too; restore that first.`, { parent: { type: parent.type, id: p.id } });
     }
     await refuseNameClashes(tx, ctx, id);
-    const clear = { deletedAt: null, deletedBy: null, trashId: null };
-    for (const t of TABLES) await tx.update(t).set(clear).where(and(eq(t.teamId, ctx.team.id), eq(t.trashId, id)));
-    const t = spec.table;
-    await tx.update(t).set({ version: row.version + 1, updatedAt: now(), updatedBy: ctx.user.id }).where(eq(t.id, id));
-    const live = (await findLive(tx, ctx, spec as never, id)) as Record<string, unknown>;
-    const snap = spec.snapshot((spec.hydrate ? await spec.hydrate(tx, live as never) : live) as never);
-    await writeRevision(tx, ctx, { type, entityId: id, version: row.version + 1, action: 'restore', changes: [], snapshot: snap, summary: `Restored ${spec.noun} ${spec.describe(live as never)} from the trash` });
+    for (const e of CHILDREN_FIRST) await clearTrash(tx, ctx, e, id);
+    await recordRestored(tx, ctx, entity, row);
     return { type, id, restored: true };
   });
 }
@@ -163,19 +135,20 @@ export async function purge(
   // One transaction (a half-purged tree must never be restorable), in short statements that let other
   // requests run between them; the write gate keeps other writes waiting until it commits.
   return db.transaction(async (tx) => {
-    await trashedRoot(tx, ctx, type, id);
+    await findInTeam(tx, ctx, entityOf(type), id, 'trash');
     const ids: string[] = [];
-    for (const t of TABLES) {
-      const rows = await tx.select({ id: t.id }).from(t).where(and(eq(t.teamId, team), eq(t.trashId, id), isNotNull(t.deletedAt)));
-      ids.push(...rows.map((r) => r.id));
-    }
+    for (const e of CHILDREN_FIRST) ids.push(...(await idsInTrash(tx, ctx, e, id)));
     await hooks.beforeDelete?.(tx, ids);
+    // Commands kept on purged devices and profiles go with them (foreign key), and so does their history.
+    const commands: string[] = [];
     for (let lo = 0; lo < ids.length; lo += PURGE_BATCH) {
-      await tx.delete(revision).where(and(eq(revision.teamId, team), inArray(revision.entityId, ids.slice(lo, lo + PURGE_BATCH))));
-      await nextTurn();
+      const slice = ids.slice(lo, lo + PURGE_BATCH);
+      const rows = await tx.select({ id: command.id }).from(command).where(and(eq(command.teamId, team), or(inArray(command.deviceId, slice), inArray(command.profileId, slice))));
+      commands.push(...rows.map((r) => r.id));
     }
+    await purgeRevisions(tx, ctx, [...ids, ...commands], PURGE_BATCH, nextTurn);
     // Children first, so no single statement cascades through a whole tree; the root goes with its own table.
-    for (const t of [port, link, device, machine, site, deviceProfile] as const) {
+    for (const { table: t } of CHILDREN_FIRST) {
       const where = and(eq(t.teamId, team), eq(t.trashId, id));
       for (;;) {
         const res = await tx.run(sql`DELETE FROM ${t} WHERE rowid IN (SELECT rowid FROM ${t} WHERE ${where} LIMIT ${PURGE_BATCH})`);

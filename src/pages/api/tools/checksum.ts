@@ -3,7 +3,8 @@ import { z } from 'zod';
 import {
   type ChecksumAlgorithm, crcParamsSchema, findChecksumAlgorithm, formatChecksumValue, isCustomCrcName, listChecksumAlgorithms, parseHex, placeChecksum, resolveChecksum, toHex,
 } from '../../../lib/frame';
-import { HttpError, json, readJson, route, validate } from '../../../lib/server/http';
+import { json, readJson, route, validate } from '../../../lib/server/http';
+import { Invalid } from '../../../lib/server/errors';
 
 const checksumSchema = z.object({ algorithm: z.string().min(1).max(64), crc: crcParamsSchema.optional(), bytes: z.string().max(60000) });
 
@@ -14,14 +15,14 @@ const checksumSchema = z.object({ algorithm: z.string().min(1).max(64), crc: crc
 export const POST: APIRoute = route(async ({ request }) => {
   const body = validate(checksumSchema, await readJson(request, 64 * 1024));
   const custom = isCustomCrcName(body.algorithm);
-  if (custom && !body.crc) throw new HttpError(422, 'A custom CRC needs its parameters in "crc": width, poly, init, refin, refout, xorout.', { fields: { crc: 'Required with the algorithm "custom"' } });
-  if (!custom && body.crc) throw new HttpError(422, `CRC parameters are given only with the algorithm "custom", not with "${body.algorithm}".`, { fields: { crc: 'Only with the algorithm "custom"' } });
+  if (custom && !body.crc) throw new Invalid('A custom CRC needs its parameters in "crc": width, poly, init, refin, refout, xorout.', { fields: { crc: 'Required with the algorithm "custom"' } });
+  if (!custom && body.crc) throw new Invalid(`CRC parameters are given only with the algorithm "custom", not with "${body.algorithm}".`, { fields: { crc: 'Only with the algorithm "custom"' } });
   const algorithm: ChecksumAlgorithm | undefined = custom ? resolveChecksum(body) : findChecksumAlgorithm(body.algorithm);
   if (!algorithm) {
-    throw new HttpError(422, `Unknown checksum algorithm "${body.algorithm}".`, { algorithms: listChecksumAlgorithms().map((a) => a.name) });
+    throw new Invalid(`Unknown checksum algorithm "${body.algorithm}".`, { algorithms: listChecksumAlgorithms().map((a) => a.name) });
   }
   const parsed = parseHex(body.bytes);
-  if (!parsed.ok) throw new HttpError(422, parsed.error.message, { position: parsed.error.position });
+  if (!parsed.ok) throw new Invalid(parsed.error.message, { position: parsed.error.position });
   const value = algorithm.compute(parsed.value);
   const place = (byteOrder: 'low-first' | 'high-first') => toHex(placeChecksum(value, algorithm.width, { encoding: 'binary', byteOrder, case: 'upper' }));
   return json({

@@ -1,7 +1,8 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { NOTATIONS, parseNotation, renderAllNotations, toHex } from '../../../lib/frame';
-import { HttpError, json, readJson, route, validate } from '../../../lib/server/http';
+import { json, readJson, route, validate } from '../../../lib/server/http';
+import { Invalid } from '../../../lib/server/errors';
 
 const convertSchema = z.object({ from: z.enum(NOTATIONS), text: z.string().max(32768) });
 
@@ -9,7 +10,7 @@ const convertSchema = z.object({ from: z.enum(NOTATIONS), text: z.string().max(3
 export const POST: APIRoute = route(async ({ request }) => {
   const { from, text } = validate(convertSchema, await readJson(request, 64 * 1024));
   const parsed = parseNotation(from, text);
-  if (!parsed.ok) throw new HttpError(422, parsed.error.message, { position: parsed.error.position });
+  if (!parsed.ok) throw new Invalid(parsed.error.message, { position: parsed.error.position });
   const bytes = parsed.value;
   return json({ bytes: toHex(bytes), byteCount: bytes.length, notations: renderAllNotations(bytes) });
 });
