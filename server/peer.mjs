@@ -36,20 +36,39 @@ export function isLoopbackHost(hostHeader) {
   return host === 'localhost' || host === '[::1]' || isLoopback(host);
 }
 
+/** An X-Forwarded-For entry as some proxies write it (`1.2.3.4:5678`, `[2001:db8::1]:443`), as a bare address. */
+export function hopAddress(hop) {
+  const h = hop.trim();
+  const bracketed = /^\[([^\]]+)\](?::\d+)?$/.exec(h);
+  if (bracketed) return plainAddress(bracketed[1]);
+  const v4port = /^(\d{1,3}(?:\.\d{1,3}){3}):\d+$/.exec(h);
+  return plainAddress(v4port ? v4port[1] : h);
+}
+
 /**
- * The client address: the socket peer, or with `trustedHops` proxies in front, the right-most
- * X-Forwarded-For entry that no trusted proxy wrote (entries to its left are the client's own claims).
- * An entry that is not an IP address falls back to the socket peer.
+ * Which socket peers may speak for a client in X-Forwarded-For: loopback (a proxy on this host) and the
+ * addresses in PROXY_ADDRESSES (comma-separated). Anyone else reaching the port directly is taken at its socket.
  */
-export function clientAddress(socketAddress, forwardedFor, trustedHops) {
+export function trustedProxyPeers(value) {
+  const listed = new Set((value ?? '').split(',').map((a) => plainAddress(a.trim())).filter(Boolean));
+  return (address) => isLoopback(address) || listed.has(plainAddress(address));
+}
+
+/**
+ * The client address: the socket peer, or with `trustedHops` proxies in front (and the socket peer one of
+ * them), the right-most X-Forwarded-For entry that no trusted proxy wrote (entries to its left are the
+ * client's own claims). With fewer entries than proxies, or an entry that is not an IP address, the socket
+ * peer is used: the client's own words never are.
+ */
+export function clientAddress(socketAddress, forwardedFor, trustedHops, isProxyPeer = isLoopback) {
   const socket = plainAddress(socketAddress) || '127.0.0.1';
-  if (!trustedHops || !forwardedFor) return socket;
+  if (!trustedHops || !forwardedFor || !isProxyPeer(socket)) return socket;
   const hops = forwardedFor
     .split(',')
     .map((h) => h.trim())
     .filter(Boolean);
-  if (hops.length === 0) return socket;
-  const chosen = plainAddress(hops[Math.max(0, hops.length - trustedHops)]);
+  if (hops.length < trustedHops) return socket;
+  const chosen = hopAddress(hops[hops.length - trustedHops]);
   return isIP(chosen) ? chosen : socket;
 }
 
@@ -58,10 +77,10 @@ export function clientAddress(socketAddress, forwardedFor, trustedHops) {
  * machine's loopback interface to a loopback host name, with no proxy in between (no forwarding headers,
  * no trusted proxy configured): the person at the machine, not a client behind a reverse proxy on it.
  */
-export function resolvePeer(req, trustedHops) {
+export function resolvePeer(req, trustedHops, isProxyPeer = isLoopback) {
   const headers = req.headers;
   const forwardedFor = Array.isArray(headers['x-forwarded-for']) ? headers['x-forwarded-for'].join(',') : headers['x-forwarded-for'];
-  const address = clientAddress(req.socket?.remoteAddress, forwardedFor, trustedHops);
+  const address = clientAddress(req.socket?.remoteAddress, forwardedFor, trustedHops, isProxyPeer);
   const forwarded = FORWARDING_HEADERS.some((h) => headers[h] !== undefined);
   const atMachine = trustedHops === 0 && !forwarded && isLoopback(req.socket?.remoteAddress) && isLoopbackHost(headers.host);
   return { address, atMachine };
@@ -80,5 +99,17 @@ export function scrubForwardingHeaders(req, peer, trustedHops) {
     req.headers['x-forwarded-for'] = peer.address;
     delete req.headers['forwarded'];
     delete req.headers['x-real-ip'];
+    // X-Forwarded-Host, -Proto and -Port pass on for the trusted proxy's sake; Astro accepts a forwarded host
+    // only when it is one of ALLOWED_HOSTS.
   }
+}
+
+/** A rate-limit key: an IPv6 client holds a whole /64, so it is counted per /64 (as the sign-in limits count it). */
+export function quotaKeyOf(ip) {
+  if (!ip.includes(':')) return ip;
+  const [head = '', tail = ''] = ip.split('::');
+  const left = head ? head.split(':') : [];
+  const right = tail ? tail.split(':') : [];
+  const groups = ip.includes('::') ? [...left, ...Array(Math.max(0, 8 - left.length - right.length)).fill('0'), ...right] : left;
+  return `${groups.slice(0, 4).map((g) => g.toLowerCase().replace(/^0+(?=.)/, '')).join(':')}::/64`;
 }

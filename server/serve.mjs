@@ -4,11 +4,12 @@
 // unless TRUST_PROXY names trusted proxies), whether a request comes from the person at this machine, static
 // files with their headers, and where to listen. Usage: node server/serve.mjs [path/to/dist]
 import { existsSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import { createServer } from 'node:http';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import send from 'send';
-import { isLoopbackHost, parseTrustProxy, resolvePeer, scrubForwardingHeaders } from './peer.mjs';
+import { isLoopbackHost, parseTrustProxy, resolvePeer, scrubForwardingHeaders, trustedProxyPeers } from './peer.mjs';
 import { outboxMode } from './outbox.mjs';
 
 if (existsSync('.env')) process.loadEnvFile('.env');
@@ -22,22 +23,25 @@ if (!existsSync(entry)) {
 }
 
 let trustedHops;
+let mode;
 try {
   trustedHops = parseTrustProxy(process.env.TRUST_PROXY);
-  outboxMode(process.env);
+  mode = outboxMode(process.env);
 } catch (err) {
   console.error(err.message);
   process.exit(1);
 }
 
+const isProxyPeer = trustedProxyPeers(process.env.PROXY_ADDRESSES);
 const port = Number(process.env.PORT ?? 4321);
 /**
- * Listen on loopback unless told otherwise, or unless BASE_URL names a host other machines use: a demo on
- * one's own machine is never reachable from the network by default.
+ * Listen on loopback unless told otherwise, or unless BASE_URL names a host other machines use and no proxy is
+ * trusted: a demo on one's own machine is never reachable from the network by default, and behind a proxy on
+ * this host only the proxy reaches the app.
  */
 function defaultHost() {
   const base = process.env.BASE_URL;
-  if (!base) return '127.0.0.1';
+  if (!base || (trustedHops > 0 && !process.env.PROXY_ADDRESSES)) return '127.0.0.1';
   try {
     return isLoopbackHost(new URL(base).host) ? '127.0.0.1' : '0.0.0.0';
   } catch {
@@ -45,6 +49,12 @@ function defaultHost() {
   }
 }
 const host = process.env.HOST || defaultHost();
+
+/**
+ * The local outbox's key: only someone who can read this server's console (or its OUTBOX_KEY setting) gets the
+ * link that opens the outbox, so a relay on this host that hides the real client cannot hand mail to anyone.
+ */
+const outboxKey = mode === 'local' ? process.env.OUTBOX_KEY || randomBytes(18).toString('base64url') : undefined;
 
 const { handler } = await import(pathToFileURL(entry).href);
 
@@ -79,13 +89,14 @@ const server = createServer((req, res) => {
     res.end('Bad request: the address is not valid.');
     return;
   }
-  const peer = resolvePeer(req, trustedHops);
+  const peer = resolvePeer(req, trustedHops, isProxyPeer);
   scrubForwardingHeaders(req, peer, trustedHops);
-  serveStatic(req, res, () => handler(req, res, undefined, { peer }));
+  serveStatic(req, res, () => handler(req, res, undefined, { peer, outboxKey }));
 });
 
 server.listen(port, host, () => {
   console.log(`Baudbook listening on http://${host.includes(':') ? `[${host}]` : host}:${port}`);
+  if (outboxKey) console.log(`Outbox (e-mails kept on this machine; open it in a browser here): http://localhost:${port}/dev/outbox?key=${outboxKey}`);
 });
 
 for (const signal of ['SIGINT', 'SIGTERM']) {

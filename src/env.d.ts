@@ -14,5 +14,7 @@ declare namespace App {
      * socket's unless TRUST_PROXY trusts proxies) and whether it is the person at this machine.
      */
     peer: { address: string; atMachine: boolean };
+    /** The local outbox's key, printed by server/serve.mjs at start (local outbox mode only). */
+    outboxKey?: string;
   }
 }

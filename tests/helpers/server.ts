@@ -31,6 +31,9 @@ export const startedServers = new Map<string, { databaseUrl: string; outbox: boo
 const distDir = process.env.DIST_DIR ?? 'dist';
 const entry = join(distDir, 'server/entry.mjs');
 
+/** The local outbox's key on test servers (a real server prints a random one at start). */
+export const TEST_OUTBOX_KEY = 'test-outbox-key-0123456789';
+
 export async function startServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
   if (!existsSync(entry)) {
     throw new Error(`${entry} is missing: run \`npm run build\` first (npm test does this).`);
@@ -51,6 +54,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
       TRUST_PROXY: '1',
       SEED_DEMO: '0',
       UPLOAD_DIR: join(dir, 'uploads'),
+      OUTBOX_KEY: TEST_OUTBOX_KEY,
       ...extraEnv,
     },
     stdio: ['ignore', 'pipe', 'pipe'],

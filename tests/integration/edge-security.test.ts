@@ -5,16 +5,16 @@
  */
 import { request as httpRequest } from 'node:http';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { startServer, type RunningServer } from '../helpers/server';
+import { startServer, TEST_OUTBOX_KEY, type RunningServer } from '../helpers/server';
 import { PASSWORD, TestClient } from '../helpers/client';
 
 /** A GET with exactly these headers (fetch cannot set Host), answering status and body. */
-function rawGet(baseUrl: string, path: string, headers: Record<string, string> = {}): Promise<{ status: number; body: string }> {
+function rawGet(baseUrl: string, path: string, headers: Record<string, string> = {}): Promise<{ status: number; body: string; setCookie: string[] }> {
   return new Promise((resolve, reject) => {
     const req = httpRequest(baseUrl + path, { headers }, (res) => {
       let body = '';
       res.on('data', (d) => (body += d));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, body, setCookie: res.headers['set-cookie'] ?? [] }));
     });
     req.on('error', reject);
     req.end();
@@ -106,11 +106,21 @@ describe('the local outbox', () => {
     expect(asked.status).toBe(200);
     const host = new URL(app.baseUrl).host;
 
-    const atMachine = await rawGet(app.baseUrl, '/dev/outbox', { host });
+    // Even at the machine, the page opens only with the key the server printed at start (a relay on this
+    // host that adds no forwarding header, such as a TCP forwarder, would otherwise look like the person here).
+    expect((await rawGet(app.baseUrl, '/dev/outbox', { host })).status).toBe(404);
+    expect((await rawGet(app.baseUrl, '/dev/outbox?key=wrong-key-0123456789abcdef', { host })).status).toBe(404);
+    const opened = await rawGet(app.baseUrl, `/dev/outbox?key=${TEST_OUTBOX_KEY}`, { host });
+    expect(opened.status).toBe(303);
+    const cookie = opened.setCookie.find((c) => c.startsWith('bb_outbox='))!;
+    expect(cookie).toMatch(/HttpOnly/i);
+    expect(cookie).toMatch(/SameSite=Strict/i);
+    const atMachine = await rawGet(app.baseUrl, '/dev/outbox', { host, cookie: cookie.split(';')[0]! });
     expect(atMachine.status).toBe(200);
     expect(atMachine.body).toContain(victim.user!.email);
     expect(atMachine.body).toContain('/reset-password');
 
+    const withKey = `/dev/outbox?key=${TEST_OUTBOX_KEY}`;
     for (const headers of <Record<string, string>[]>[
       { host, 'x-forwarded-for': '203.0.113.7' },
       { host, forwarded: 'for=203.0.113.7' },
@@ -118,7 +128,7 @@ describe('the local outbox', () => {
       { host: 'baudbook.example.test' },
       { host: `localhost.evil.test:${new URL(app.baseUrl).port}` },
     ]) {
-      const res = await rawGet(app.baseUrl, '/dev/outbox', headers);
+      const res = await rawGet(app.baseUrl, withKey, headers);
       expect(res.status, JSON.stringify(headers)).toBe(404);
       expect(res.body).not.toContain(victim.user!.email);
     }
@@ -126,7 +136,7 @@ describe('the local outbox', () => {
 
   it('is closed on a server behind a trusted proxy, even to loopback clients', async () => {
     // The shared test server runs with TRUST_PROXY=1: a reverse proxy on the same host looks like 127.0.0.1.
-    const res = await rawGet(inject('baseUrl'), '/dev/outbox', { host: new URL(inject('baseUrl')).host });
+    const res = await rawGet(inject('baseUrl'), `/dev/outbox?key=${TEST_OUTBOX_KEY}`, { host: new URL(inject('baseUrl')).host });
     expect(res.status).toBe(404);
   });
 
@@ -136,7 +146,7 @@ describe('the local outbox', () => {
     const owner = new TestClient(app.baseUrl);
     const up = await owner.request('POST', '/api/auth/sign-up/email', { email: `pub-${Date.now()}@example.test`, name: 'Pub', password: PASSWORD });
     expect(up.status).toBe(200);
-    expect((await rawGet(app.baseUrl, '/dev/outbox', { host: new URL(app.baseUrl).host })).status).toBe(404);
+    expect((await rawGet(app.baseUrl, `/dev/outbox?key=${TEST_OUTBOX_KEY}`, { host: new URL(app.baseUrl).host })).status).toBe(404);
     expect((await owner.get('/dev/outbox')).status).toBe(404);
     await expect(startServer({ TRUST_PROXY: '', BASE_URL: publicOrigin, OUTBOX: 'local' })).rejects.toThrow(/OUTBOX=local/);
   });

@@ -4,7 +4,7 @@
  * machine cannot produce over the network (a client whose socket is not loopback).
  */
 import { describe, expect, it } from 'vitest';
-import { clientAddress, isLoopback, isLoopbackHost, parseTrustProxy, resolvePeer } from '../../server/peer.mjs';
+import { clientAddress, hopAddress, quotaKeyOf, isLoopback, isLoopbackHost, parseTrustProxy, resolvePeer, trustedProxyPeers } from '../../server/peer.mjs';
 import { outboxMode } from '../../server/outbox.mjs';
 
 const req = (remoteAddress: string, headers: Record<string, string>) => ({ socket: { remoteAddress }, headers }) as never;
@@ -18,7 +18,21 @@ describe('client address', () => {
     // One proxy appends the address it saw: the entries to its left are the client's own claims.
     expect(clientAddress('127.0.0.1', '6.6.6.6, 198.51.100.7', 1)).toBe('198.51.100.7');
     expect(clientAddress('127.0.0.1', '6.6.6.6, 198.51.100.7, 10.0.0.2', 2)).toBe('198.51.100.7');
-    expect(clientAddress('127.0.0.1', '198.51.100.7', 3)).toBe('198.51.100.7');
+  });
+  it('never takes the header from a peer that is not a trusted proxy', () => {
+    // Anyone who reaches the port directly is taken at the socket, whatever they claim.
+    expect(clientAddress('203.0.113.9', '198.51.100.1', 1)).toBe('203.0.113.9');
+    const peers = trustedProxyPeers('10.0.0.5, 10.0.0.6');
+    expect(clientAddress('10.0.0.5', '198.51.100.1', 1, peers)).toBe('198.51.100.1');
+    expect(clientAddress('10.0.0.7', '198.51.100.1', 1, peers)).toBe('10.0.0.7');
+  });
+  it('uses the socket when there are fewer hops than trusted proxies (the rest would be the client\'s words)', () => {
+    expect(clientAddress('127.0.0.1', '198.51.100.7', 3)).toBe('127.0.0.1');
+  });
+  it('reads hops written with a port', () => {
+    expect(hopAddress('198.51.100.7:5678')).toBe('198.51.100.7');
+    expect(hopAddress('[2001:db8::1]:443')).toBe('2001:db8::1');
+    expect(clientAddress('127.0.0.1', '6.6.6.6, 198.51.100.7:5678', 1)).toBe('198.51.100.7');
   });
   it('falls back to the socket for a missing or malformed hop', () => {
     expect(clientAddress('127.0.0.1', undefined, 1)).toBe('127.0.0.1');
@@ -79,5 +93,15 @@ describe('outbox mode', () => {
     expect(() => outboxMode({ TRUST_PROXY: '1', OUTBOX: 'local' })).toThrow(/TRUST_PROXY/);
     expect(() => outboxMode({ OUTBOX: 'everyone' })).toThrow(/local, own or off/);
     expect(outboxMode({ OUTBOX: 'own', SMTP_URL: 'smtp://mail.test' })).toBe('off');
+  });
+});
+
+describe('tools budget key', () => {
+  it('counts an IPv6 client per /64 and an IPv4 client per address', () => {
+    expect(quotaKeyOf('198.51.100.7')).toBe('198.51.100.7');
+    expect(quotaKeyOf('2001:db8:1:2:aaaa::1')).toBe('2001:db8:1:2::/64');
+    expect(quotaKeyOf('2001:0db8:0001:0002:ffff:ffff:ffff:ffff')).toBe('2001:db8:1:2::/64');
+    expect(quotaKeyOf('2001:db8::1')).toBe('2001:db8:0:0::/64');
+    expect(quotaKeyOf('::1')).toBe('0:0:0:0::/64');
   });
 });

@@ -1,3 +1,5 @@
+import { timingSafeEqual } from 'node:crypto';
+import type { AstroCookies } from 'astro';
 import nodemailer from 'nodemailer';
 import { desc, sql } from 'drizzle-orm';
 import { db } from '../../db/client';
@@ -26,9 +28,26 @@ export async function sendMail(message: MailMessage): Promise<void> {
 /** What of the outbox a request may read: every message, only mail to one address, or nothing. */
 export type OutboxView = { kind: 'all' } | { kind: 'own'; email: string } | null;
 
-/** Applies the outbox mode to one request (see server/outbox.mjs and decision 007). */
-export function outboxView(locals: App.Locals): OutboxView {
-  if (outboxMode === 'local') return locals.peer.atMachine ? { kind: 'all' } : null;
+export const OUTBOX_COOKIE = 'bb_outbox';
+
+function sameKey(given: string | undefined, key: string): boolean {
+  if (!given) return false;
+  const a = Buffer.from(given);
+  const b = Buffer.from(key);
+  return a.length === b.length && timingSafeEqual(a, b);
+}
+
+/**
+ * Applies the outbox mode to one request (see server/outbox.mjs and decision 007). In `local` mode the request
+ * must come from the person at this machine and carry the key the server printed at start (in the link's
+ * `key`, or the cookie that link sets); under `astro dev` there is no key and the first condition suffices.
+ */
+export function outboxView(locals: App.Locals, cookies: AstroCookies, key?: string | null): OutboxView {
+  if (outboxMode === 'local') {
+    if (!locals.peer.atMachine) return null;
+    if (!locals.outboxKey) return import.meta.env.DEV ? { kind: 'all' } : null;
+    return sameKey(key ?? cookies.get(OUTBOX_COOKIE)?.value, locals.outboxKey) ? { kind: 'all' } : null;
+  }
   if (outboxMode === 'own') return locals.user ? { kind: 'own', email: locals.user.email } : null;
   return null;
 }

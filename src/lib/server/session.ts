@@ -25,7 +25,11 @@ async function sessionToken(headers: Headers): Promise<string | null> {
   const cookie = headers.get('cookie');
   if (!cookie) return null;
   const { authCookies, secret } = await auth.$context;
-  const signed = parseCookies(cookie).get(authCookies.sessionToken.name);
+  const name = authCookies.sessionToken.name;
+  // Two session cookies (one planted from a sibling host, say) would let this lookup and the auth layer's
+  // read different sessions: such a request has no session at all.
+  if (cookie.split(';').filter((c) => c.trim().startsWith(`${name}=`)).length > 1) return null;
+  const signed = parseCookies(cookie).get(name);
   return signed ? verifySignedValue(signed, secret) : null;
 }
 

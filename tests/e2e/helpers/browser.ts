@@ -1,4 +1,5 @@
 /** Launches Debian's Chromium through playwright-core (never a downloaded browser). */
+import { TEST_OUTBOX_KEY } from '../../helpers/server';
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -81,7 +82,7 @@ export async function shot(page: Page, name: string, fullPage = true): Promise<s
 
 /** The newest outbox message to `to` and its first link, read through the development outbox page. */
 export async function outboxLink(page: Page, to: string): Promise<string> {
-  await page.goto('/dev/outbox');
+  await page.goto(`/dev/outbox?key=${TEST_OUTBOX_KEY}`);
   const link = page.locator(`li[data-to="${to}"]`).first().locator('a').first();
   return (await link.getAttribute('href'))!;
 }

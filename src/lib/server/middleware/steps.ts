@@ -2,6 +2,7 @@ import type { MiddlewareHandler } from 'astro';
 import { startup } from '../startup';
 import { baseUrl, secureCookies, toolsRequestsPerMinute, trustedOrigins } from '../config';
 import { clientIp, peerOf } from '../client-ip';
+import { quotaKeyOf } from '../../../../server/peer.mjs';
 import { takeQuota } from '../quota';
 import { json } from '../http';
 
@@ -93,7 +94,7 @@ export const originRule: MiddlewareHandler = async (context, next) => {
 /** Public tools API: a per-address request budget shared by all servers through the database. */
 export const toolsQuota: MiddlewareHandler = async (context, next) => {
   if (!context.url.pathname.startsWith('/api/tools/')) return next();
-  const ip = clientIp(context.locals);
+  const ip = quotaKeyOf(clientIp(context.locals));
   const { allowed, retryAfter } = await takeQuota(`tools|${ip}`, toolsRequestsPerMinute, 60);
   if (!allowed) {
     return json({ error: `Too many requests: at most ${toolsRequestsPerMinute} a minute. Try again in ${retryAfter} s.` }, 429, {
