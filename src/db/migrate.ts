@@ -10,14 +10,16 @@ let ready: Promise<void> | null = null;
 
 /**
  * Applies pending migrations once per process; WAL for a file database (libSQL turns foreign keys on for every
- * connection), with its checkpoints run from a worker thread (src/db/checkpointer.ts).
+ * connection). The app server (`{ checkpointer: true }`) runs the log's checkpoints from a worker thread
+ * (src/db/checkpointer.ts); a script (seed, migrate, benchmark) does not start one, so it exits when done, and
+ * SQLite checkpoints the log when its last connection closes.
  */
-export function ensureDatabase(): Promise<void> {
+export function ensureDatabase(options: { checkpointer?: boolean } = {}): Promise<void> {
   ready ??= (async () => {
     if (databaseUrl.startsWith('file:')) {
       await client.execute('PRAGMA journal_mode = WAL');
       const path = databaseUrl.slice('file:'.length);
-      if (path && path !== ':memory:') startCheckpointer(path);
+      if (options.checkpointer && path && path !== ':memory:') startCheckpointer(path);
     }
     await migrate(db, { migrationsFolder });
   })();

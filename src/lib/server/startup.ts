@@ -10,7 +10,7 @@ let ready: Promise<void> | null = null;
  */
 export function startup(): Promise<void> {
   ready ??= (async () => {
-    await ensureDatabase();
+    await ensureDatabase({ checkpointer: true });
     await sweepAbandoned();
     if (process.env.SEED_DEMO === '1') {
       const { seedDemo } = await import('./seed');
