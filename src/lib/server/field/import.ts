@@ -93,6 +93,13 @@ function sameTargets(a: Record<Section, Map<string, string>>, b: Record<Section,
   return SECTIONS.every((s) => a[s].size === b[s].size && [...a[s]].every(([k, v]) => b[s].get(k) === v));
 }
 
+/** The first new record whose name, under its parent, a live record there already has (names compare by `nameKey`). */
+function firstClash<T>(fresh: T[], live: [parent: string, name: string][], placeOf: (r: T) => [parent: string, name: string]): T | undefined {
+  const key = ([parent, name]: [string, string]) => `${parent}\u0000${nameKey(name)}`;
+  const taken = new Set(live.map(key));
+  return fresh.find((r) => taken.has(key(placeOf(r))));
+}
+
 /** A new device on a machine that is already here must not take the tag of one of its live devices. */
 async function tagClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, known: Record<Section, Map<string, string>>) {
   const fresh = doc.devices.filter((d) => !known.devices.has(d.id) && known.machines.has(d.machineId));
@@ -100,8 +107,7 @@ async function tagClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument, know
   const targets = [...new Set(fresh.map((d) => known.machines.get(d.machineId)!))];
   const live = await q.select({ machineId: device.machineId, tag: device.tag }).from(device)
     .where(and(eq(device.teamId, ctx.team.id), inArray(device.machineId, targets), isNull(device.deletedAt)));
-  const taken = new Set(live.map((d) => `${d.machineId}\u0000${nameKey(d.tag)}`));
-  const clash = fresh.find((d) => taken.has(`${known.machines.get(d.machineId)}\u0000${nameKey(d.tag)}`));
+  const clash = firstClash(fresh, live.map((d) => [d.machineId, d.tag]), (d) => [known.machines.get(d.machineId)!, d.tag]);
   if (clash) throw new Conflict(`A device tagged ${clash.tag} is already on the machine imported before as ${clash.machineId}; change one of the tags first.`);
 }
 
@@ -112,7 +118,6 @@ async function portNameClashes(q: DbOrTx, ctx: TeamContext, doc: ExportDocument,
   const targets = [...new Set(fresh.map((p) => known.devices.get(p.deviceId)!))];
   const live = await q.select({ deviceId: port.deviceId, name: port.name }).from(port)
     .where(and(eq(port.teamId, ctx.team.id), inArray(port.deviceId, targets), isNull(port.deletedAt)));
-  const taken = new Set(live.map((p) => `${p.deviceId}\u0000${nameKey(p.name)}`));
-  const clash = fresh.find((p) => taken.has(`${known.devices.get(p.deviceId)}\u0000${nameKey(p.name)}`));
+  const clash = firstClash(fresh, live.map((p) => [p.deviceId, p.name]), (p) => [known.devices.get(p.deviceId)!, p.name]);
   if (clash) throw new Conflict(`A port named ${clash.name} already exists on the device imported before as ${clash.deviceId}; rename one of them first.`);
 }
