@@ -115,7 +115,7 @@ describe('all rows or none', () => {
     }
   }, 60_000);
 
-  it('an import interrupted by a server stop writes nothing; the next start clears its staged rows once it has been silent long enough', async () => {
+  it('an import interrupted by a server stop shows nothing; the next start removes what it wrote once it has been silent long enough', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'long-jobs-'));
     const databaseUrl = `file:${join(dir, 'shared.db')}`;
     const first = await startServer({ DATABASE_URL: databaseUrl });
@@ -130,8 +130,10 @@ describe('all rows or none', () => {
       await first.stop();
       expect(await importing).toBeInstanceOf(Error);
 
+      // Written so far: devices out of sight (the job's stamp) and their staged history; none of it shown.
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(0);
       expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
-      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND deleted_at IS NULL', [m.id])).toBe(0);
       // Silent for longer than a running job ever is (every batch touches the job).
       await db.execute({ sql: 'UPDATE job SET updated_at = updated_at - 11 * 60 * 1000 WHERE id = ?', args: [job.id] });
 
@@ -139,11 +141,97 @@ describe('all rows or none', () => {
       try {
         expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
         expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
+        expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBe(0);
         const again = new TestClient(second.baseUrl);
         again.cookies = owner.cookies;
         const listed = expectOk(await again.get('/api/import/jobs')).items[0];
         expect(listed).toMatchObject({ id: job.id, state: 'failed' });
         expect(listed.message).toMatch(/Interrupted/);
+      } finally {
+        await second.stop();
+      }
+    } finally {
+      db.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 90_000);
+});
+
+describe('records written before the final transaction', () => {
+  it('stay out of sight of every list, search, export and the trash until the import commits, then all show with their history', async () => {
+    const eng = team.members.engineer;
+    const viewer = team.members.viewer;
+    const m = await makeMachine(eng);
+    const known = await jobIds(eng);
+    const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'OS'), mapping, apply: true });
+    const job = await untilStaging(team.members.admin, ROWS + ROWS / 2, known);
+    const db = testDb();
+    try {
+      // Half the file is written, out of sight: stamped with the job's id like the trash stamps a record.
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(ROWS / 4);
+      expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBeGreaterThan(ROWS / 4);
+      expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBe(0);
+    } finally {
+      db.close();
+    }
+    expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(0);
+    expect(expectOk(await viewer.get('/api/devices?q=OS-000001&pageSize=5')).total).toBe(0);
+    expect(expectOk(await viewer.get('/api/devices/search?q=OS-000001')).items).toHaveLength(0);
+    expect(expectOk(await eng.get('/api/trash')).items.some((i: { label: string }) => i.label.startsWith('OS-'))).toBe(false);
+    const exported = expectOk(await eng.get(`/api/export`));
+    expect(exported.devices.some((d: { tag: string }) => d.tag.startsWith('OS-'))).toBe(false);
+    const csvPorts = await eng.get(`/api/export/csv?table=ports&machineId=${m.id}`);
+    expect(String(csvPorts.body)).not.toMatch(/OS-0/);
+
+    expectOk(await importing, 201);
+    expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(ROWS);
+    expect(expectOk(await viewer.get('/api/devices?q=OS-000001&pageSize=5')).total).toBe(1);
+    const after = testDb();
+    try {
+      expect(await count(after, 'SELECT count(*) AS n FROM device WHERE trash_id = ? OR (machine_id = ? AND deleted_at IS NOT NULL)', [job.id, m.id])).toBe(0);
+      // Every device and port has its creation revision by the time the request is answered; the stage is empty.
+      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN device d ON d.id = r.entity_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
+      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN port p ON p.id = r.entity_id JOIN device d ON d.id = p.device_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
+      expect(await count(after, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+    } finally {
+      after.close();
+    }
+  }, 90_000);
+
+  it('a committed import whose server stopped before its history was recorded gets it at the next start', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'long-jobs-history-'));
+    const databaseUrl = `file:${join(dir, 'shared.db')}`;
+    const first = await startServer({ DATABASE_URL: databaseUrl });
+    const db = createClient({ url: databaseUrl });
+    try {
+      const owner = await new TestClient(first.baseUrl).signUp('history-resume');
+      expectOk(await owner.post('/api/teams', { name: 'History resumes' }), 201);
+      const site = await makeSite(owner);
+      const m = expectOk(await owner.post('/api/machines', { siteId: site.id, name: 'Line 1' }), 201);
+      expectOk(await owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(1200, 'HR'), mapping, apply: true }), 201);
+      await first.stop();
+      const [job] = (await db.execute("SELECT id FROM job WHERE kind = 'csv-import' AND state = 'done'")).rows;
+      const imported = "SELECT count(*) AS n FROM revision WHERE summary = 'Imported from CSV'";
+      expect(await count(db, imported, [])).toBe(2400);
+      // As the server leaves it when it stops right after the commit: the history still staged, part of it moved.
+      const columns = (await db.execute('PRAGMA table_info(revision)')).rows.map((r) => String(r.name));
+      await db.execute({
+        sql: `INSERT INTO job_row (job_id, target, seq, data) SELECT ?, 'revision', (SELECT count(*) FROM revision r2 WHERE r2.rowid < revision.rowid), json_array(${columns.join(', ')}) FROM revision WHERE summary = 'Imported from CSV' AND rowid > (SELECT min(rowid) + 499 FROM revision WHERE summary = 'Imported from CSV')`,
+        args: [String(job!.id)],
+      });
+      await db.execute("DELETE FROM revision WHERE summary = 'Imported from CSV' AND rowid > (SELECT min(rowid) + 499 FROM revision WHERE summary = 'Imported from CSV')");
+      expect(await count(db, imported, [])).toBe(500);
+
+      const second = await startServer({ DATABASE_URL: databaseUrl });
+      try {
+        expect(await count(db, imported, [])).toBe(2400);
+        expect(await count(db, 'SELECT count(DISTINCT entity_id) AS n FROM revision WHERE summary = ?', ['Imported from CSV'])).toBe(2400);
+        expect(await count(db, 'SELECT count(*) AS n FROM job_row', [])).toBe(0);
+        const again = new TestClient(second.baseUrl);
+        again.cookies = owner.cookies;
+        const d = expectOk(await again.get(`/api/devices?machineId=${m.id}&pageSize=1&sort=tag`)).items[0];
+        const history = expectOk(await again.get(`/api/revisions?entityType=device&entityId=${d.id}`)).items;
+        expect(history.map((r: { summary: string; version: number }) => [r.summary, r.version])).toEqual([['Imported from CSV', 1]]);
       } finally {
         await second.stop();
       }

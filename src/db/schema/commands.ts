@@ -7,7 +7,7 @@
 import { sql } from 'drizzle-orm';
 import { sqliteTable, text, integer, index, check } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
-import { device, deviceProfile, versionedColumns } from './vault';
+import { device, deviceProfile, trashIndex, versionedColumns } from './vault';
 import type { FieldValues, Template } from '../../lib/frame/template';
 
 
@@ -42,6 +42,7 @@ export const command = sqliteTable(
     index('command_device_idx').on(t.deviceId, t.deletedAt, t.name),
     index('command_profile_idx').on(t.profileId, t.deletedAt, t.name),
     index('command_team_idx').on(t.teamId, t.deletedAt),
+    trashIndex('command_trash_idx', t.trashId),
     check('command_one_owner', sql`(${t.deviceId} IS NULL) <> (${t.profileId} IS NULL)`),
   ],
 );

@@ -7,7 +7,7 @@
  * the user deleted, so a site and everything moved with it are restored or purged together.
  */
 import { sql } from 'drizzle-orm';
-import { sqliteTable, text, integer, real, index, primaryKey, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, integer, real, index, primaryKey, uniqueIndex, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
 import { user } from './auth';
 import type { PortSettings } from '../../lib/frame/port-settings';
@@ -55,6 +55,12 @@ export const versionedColumns = () => ({
 
 const bookkeeping = () => ({ ...versionedColumns(), trashId: text('trash_id') });
 
+/**
+ * Rows by trash stamp: what a restore or purge moves, and the rows a long job writes out of sight before its
+ * final transaction shows them (their `trash_id` is the job's id, see src/lib/server/jobs/stage.ts).
+ */
+export const trashIndex = (name: string, trashId: AnySQLiteColumn) => index(name).on(trashId).where(sql`trash_id IS NOT NULL`);
+
 export const site = sqliteTable(
   'site',
   {
@@ -66,7 +72,7 @@ export const site = sqliteTable(
     notes: text('notes').notNull().default(''),
     ...bookkeeping(),
   },
-  (t) => [index('site_team_idx').on(t.teamId, t.deletedAt, t.name)],
+  (t) => [index('site_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('site_trash_idx', t.trashId)],
 );
 
 export const machine = sqliteTable(
@@ -83,7 +89,7 @@ export const machine = sqliteTable(
     notes: text('notes').notNull().default(''),
     ...bookkeeping(),
   },
-  (t) => [index('machine_site_idx').on(t.siteId, t.deletedAt, t.name), index('machine_team_idx').on(t.teamId, t.deletedAt, t.name)],
+  (t) => [index('machine_site_idx').on(t.siteId, t.deletedAt, t.name), index('machine_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('machine_trash_idx', t.trashId)],
 );
 
 export const deviceProfile = sqliteTable(
@@ -99,7 +105,7 @@ export const deviceProfile = sqliteTable(
     ports: text('ports', { mode: 'json' }).$type<ProfilePort[]>().notNull(),
     ...bookkeeping(),
   },
-  (t) => [index('profile_team_idx').on(t.teamId, t.deletedAt, t.name)],
+  (t) => [index('profile_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('profile_trash_idx', t.trashId)],
 );
 
 export const device = sqliteTable(
@@ -129,6 +135,7 @@ export const device = sqliteTable(
     index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag, t.id),
     // Two live devices of one machine never share a tag, letter case of A–Z aside (as port names on a device).
     uniqueIndex('device_machine_tag_nocase_uq').on(t.machineId, sql`${t.tag} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
+    trashIndex('device_trash_idx', t.trashId),
   ],
 );
 
@@ -152,6 +159,7 @@ export const port = sqliteTable(
     // Two live ports of one device never share a name, letter case of A–Z aside (`nameKey` in
     // src/lib/schemas/vault.ts is the same rule for imports); the trash may hold an old one.
     uniqueIndex('port_device_name_nocase_uq').on(t.deviceId, sql`${t.name} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
+    trashIndex('port_trash_idx', t.trashId),
   ],
 );
 
@@ -170,7 +178,7 @@ export const link = sqliteTable(
     notes: text('notes').notNull().default(''),
     ...bookkeeping(),
   },
-  (t) => [index('link_machine_idx').on(t.machineId, t.deletedAt, t.name), index('link_team_idx').on(t.teamId, t.deletedAt, t.name)],
+  (t) => [index('link_machine_idx').on(t.machineId, t.deletedAt, t.name), index('link_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('link_trash_idx', t.trashId)],
 );
 
 export const linkMember = sqliteTable(

@@ -38,7 +38,8 @@ export async function listCommands(ctx: TeamContext, ref: { deviceId?: string; p
     .where(
       and(
         eq(command.teamId, ctx.team.id),
-        ref.trashed ? isNotNull(command.deletedAt) : isNull(command.deletedAt),
+        // Trashed on their own (an import's commands out of sight until it commits carry the job's stamp instead).
+        ref.trashed ? and(isNotNull(command.deletedAt), eq(command.trashId, command.id)) : isNull(command.deletedAt),
         profileId ? or(eq(ownerCol, owner.id), eq(command.profileId, profileId)) : eq(ownerCol, owner.id),
       ),
     )

@@ -9,7 +9,7 @@ import { job, type JobKind } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { AppError } from '../errors';
 import { newId } from '../ids';
-import { clearStaged, Stage } from './stage';
+import { clearStaged, discardJob, finishAfterCommit, jobsWithHiddenRecords, Stage } from './stage';
 
 /** A running job touches its row with every batch; one silent for this long was interrupted. */
 export const ABANDONED_AFTER_MS = 10 * 60_000;
@@ -46,14 +46,14 @@ export interface Progress {
 }
 
 /**
- * Runs a staged job to the end and answers its result, so a request can simply await it. Staged rows are
- * cleared whatever happens; a failed job keeps its message.
+ * Runs a staged job to the end and answers its result, so a request can simply await it. A failed job keeps its
+ * message and leaves nothing behind; a committed one records its history before the request is answered.
  */
 export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: StagedJob<T>): Promise<T> {
   await sweepAbandoned();
   const id = newId('job');
   await db.insert(job).values({ id, teamId: ctx.team.id, userId: ctx.user.id, userName: ctx.user.name, kind, state: 'checking' });
-  const stage = new Stage(id);
+  const stage = new Stage(id, ctx.user.id);
   let written = 0;
   const progress: Progress = async (done, total) => {
     stage.report(done, total);
@@ -74,29 +74,35 @@ export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: Sta
         await stage.restoreCache(tx);
       }
     });
-    return work.result();
   } catch (err) {
     const message = err instanceof AppError ? err.message : 'The job stopped on an unexpected error; nothing was written.';
     await db.update(job).set({ state: 'failed', message, updatedAt: new Date(), finishedAt: new Date() }).where(eq(job.id, id));
+    await stage.discard();
     throw err;
-  } finally {
-    await stage.clear();
   }
+  // Committed: the records are in. Their history follows in short batches; should this stop (the server going
+  // down), the next sweep carries on from where it was.
+  await stage.afterCommit().catch((err) => console.error(`job ${id}: history not yet recorded, the next sweep finishes it:`, err));
+  return work.result();
 }
 
 /**
- * Interrupted jobs (their server stopped) are marked failed and their staged rows cleared; finished jobs
- * older than a week are forgotten. Runs before each new job and at start-up.
+ * Interrupted jobs (their server stopped) are marked failed and what they wrote is removed; a job that committed
+ * but had not yet recorded its history records it; finished jobs older than a week are forgotten. Runs before
+ * each new job and at start-up.
  */
 export async function sweepAbandoned(now = Date.now()): Promise<void> {
   const stale = await db.select({ id: job.id }).from(job)
     .where(and(inArray(job.state, ['checking', 'applying']), lt(job.updatedAt, new Date(now - ABANDONED_AFTER_MS))));
   for (const { id } of stale) {
     await db.update(job).set({ state: 'failed', message: 'Interrupted (the server stopped); nothing was written.', finishedAt: new Date(now) }).where(eq(job.id, id));
-    await clearStaged(id);
+    await discardJob(id);
   }
-  const orphans = await db.all<{ jobId: string }>(sql`SELECT DISTINCT job_id AS jobId FROM job_row WHERE job_id NOT IN (SELECT id FROM job WHERE state IN ('checking', 'applying'))`);
-  for (const { jobId } of orphans) await clearStaged(jobId);
+  const running = sql`SELECT id FROM job WHERE state IN ('checking', 'applying')`;
+  const orphans = await db.all<{ jobId: string; state: string | null }>(sql`SELECT s.job_id AS jobId, j.state FROM (SELECT DISTINCT job_id FROM job_row WHERE job_id NOT IN (${running})) s LEFT JOIN job j ON j.id = s.job_id`);
+  for (const { jobId, state } of orphans) await (state === 'done' ? finishAfterCommit(jobId) : clearStaged(jobId));
+  const unfinished = new Set((await db.all<{ id: string }>(running)).map((r) => r.id));
+  for (const jobId of await jobsWithHiddenRecords()) if (!unfinished.has(jobId)) await discardJob(jobId);
   await db.delete(job).where(and(inArray(job.state, ['done', 'failed']), lt(job.createdAt, new Date(now - KEPT_MS))));
 }
 

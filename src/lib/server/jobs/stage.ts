@@ -1,31 +1,50 @@
 /**
- * Staged rows: a long job writes the rows it means to create into `job_row` in short batches, then moves
- * them into their tables in its one final transaction with `INSERT … SELECT`, and clears them out again.
+ * What a long job writes, and when (docs/decisions/008-long-jobs-in-batches.md):
+ * - **Versioned records** (sites, machines, profiles, devices, ports, links, commands) go straight into their
+ *   tables in short batches, out of sight: stamped like the trash (`deleted_at` set) with the job's id as their
+ *   `trash_id`, so no list, search, export or trash page shows them and no unique name rule counts them. The
+ *   final transaction shows them all at once, a stamp cleared per row (`show`), after checking their parents.
+ * - **Other rows** are staged in `job_row` as JSON and moved with `INSERT … SELECT`: link members and the
+ *   import map inside the final transaction, creation revisions after it (`afterCommit`), a batch per short
+ *   transaction that also removes what it moved, so an interrupted move carries on where it stopped.
+ * A failed job removes what it wrote out of sight (`discardJob`); so does the sweep for a job whose server stopped.
  */
 import { eq, getTableColumns, getTableName, is, sql, SQL, type Column } from 'drizzle-orm';
 import type { SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { db, type Tx } from '../../../db/client';
-import { job, jobRow } from '../../../db/schema';
+import { job, jobRow, revision } from '../../../db/schema';
+import { Conflict } from '../errors';
+import { ENTITIES, entityOf } from '../records/entities';
+import type { AnyEntity } from '../records/entity';
 import { nextTurn } from './turns';
 
-/** Rows written to the stage per statement (each its own short write). */
+/** Rows written per statement while staging (each its own short write). */
 export const STAGE_BATCH = 500;
-/** Rows moved per `INSERT … SELECT` in the final transaction, which yields to other requests between them. */
+/** Rows shown (or moved) per statement in the final transaction, which yields to other requests between them. */
 export const APPLY_BATCH = 500;
 /**
- * Page cache of the final transaction's connection, in KiB (SQLite's default is 2,000 KiB). The move updates
- * several indexes keyed by random ids; with the default cache their pages are evicted, spilled to the log and
- * read back again and again, which more than doubled the time the transaction holds the write lock.
+ * Page cache of the final transaction's connection, in KiB (SQLite's default is 2,000 KiB). Showing the rows
+ * moves their entries in several indexes keyed by random ids; with the default cache those pages are evicted
+ * and read back again and again, which more than doubled the time the transaction holds the write lock.
  */
 export const APPLY_CACHE_KIB = 65_536;
-/** Staged rows removed per statement when clearing. */
+/** Rows removed (or moved after the commit) per statement. */
 const CLEAR_BATCH = 500;
+
+/** The versioned records a job may write out of sight, parents first. */
+const RECORDS: AnyEntity[] = [...(Object.keys(ENTITIES) as (keyof typeof ENTITIES)[]).map(entityOf), entityOf('command')];
+const recordOf = (table: SQLiteTable) => RECORDS.find((e) => e.table === table);
+/** Tables whose staged rows are moved after the commit: a job's own history, which only its new records have. */
+const AFTER_COMMIT: SQLiteTable[] = [revision];
 
 interface Target {
   table: SQLiteTable;
   name: string;
   columns: [string, Column][];
   count: number;
+  /** Set for a versioned record, written out of sight rather than staged. */
+  record?: AnyEntity;
+  afterCommit: boolean;
   /** Raw SQL appended to the INSERT, e.g. an ON CONFLICT clause. */
   onConflict?: SQL;
 }
@@ -43,14 +62,28 @@ function driverValue(col: Column, value: unknown): unknown {
   return col.mapToDriverValue(v);
 }
 
+const columnList = (t: Target) => sql.join(t.columns.map(([, col]) => sql.identifier(col.name)), sql`, `);
+const fromStage = (t: Target) => sql.join(t.columns.map((_, i) => sql.raw(`json_extract(data, '$[${i}]')`)), sql`, `);
+
+function targetOf(table: SQLiteTable, opts: { onConflict?: SQL } = {}): Target {
+  const record = recordOf(table);
+  return {
+    table, name: getTableName(table), columns: Object.entries(getTableColumns(table)) as [string, Column][], count: 0,
+    record, afterCommit: AFTER_COMMIT.includes(table), onConflict: opts.onConflict,
+  };
+}
+
 export class Stage {
   private targets = new Map<string, Target>();
   /** Progress written with the next batch: input records checked, of the total. */
   private progress = { done: 0, total: 0 };
-
-  constructor(readonly jobId: string) {}
-
   private expected: number | null = null;
+  /** The trash stamp that keeps the job's records out of sight until its final transaction. */
+  private readonly hidden: { deletedAt: Date; deletedBy: string };
+
+  constructor(readonly jobId: string, userId: string) {
+    this.hidden = { deletedAt: new Date(), deletedBy: userId };
+  }
 
   report(done: number, total: number): void {
     this.progress = { done, total };
@@ -64,9 +97,7 @@ export class Stage {
   /** Declares a target table, in the order the final transaction fills them (parents first). */
   target(table: SQLiteTable, opts: { onConflict?: SQL } = {}): void {
     const name = getTableName(table);
-    if (!this.targets.has(name)) {
-      this.targets.set(name, { table, name, columns: Object.entries(getTableColumns(table)) as [string, Column][], count: 0, onConflict: opts.onConflict });
-    }
+    if (!this.targets.has(name)) this.targets.set(name, targetOf(table, opts));
   }
 
   get staged(): number {
@@ -75,37 +106,68 @@ export class Stage {
     return n;
   }
 
-  /** Writes rows (as they would be given to `db.insert(table).values(...)`) to the stage, a batch at a time. */
+  /**
+   * Writes rows (as they would be given to `db.insert(table).values(...)`), a batch at a time: versioned records
+   * into their own table out of sight, other rows into the stage.
+   */
   async add(table: SQLiteTable, rows: Record<string, unknown>[]): Promise<void> {
     this.target(table);
     const t = this.targets.get(getTableName(table))!;
     for (let i = 0; i < rows.length; i += STAGE_BATCH) {
-      const values = rows.slice(i, i + STAGE_BATCH).map((row) => ({
-        jobId: this.jobId, target: t.name, seq: t.count++,
-        data: JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key]))),
-      }));
+      const slice = rows.slice(i, i + STAGE_BATCH);
+      const write = t.record
+        ? sql`INSERT INTO ${sql.identifier(t.name)} (${columnList(t)}) VALUES ${sql.join(slice.map((row) => {
+          const values: Record<string, unknown> = { ...row, ...this.hidden, trashId: this.jobId };
+          return sql`(${sql.join(t.columns.map(([key, col]) => sql`${driverValue(col, values[key])}`), sql`, `)})`;
+        }), sql`, `)}`
+        : sql`INSERT INTO job_row (job_id, target, seq, data) VALUES ${sql.join(slice.map((row, k) =>
+          sql`(${this.jobId}, ${t.name}, ${t.count + k}, ${JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key])))})`), sql`, `)}`;
+      t.count += slice.length;
       if (this.expected !== null) this.progress = { done: this.staged, total: this.expected };
       await db.batch([
-        db.insert(jobRow).values(values),
+        db.run(write),
         db.update(job).set({ done: this.progress.done, total: this.progress.total, updatedAt: new Date() }).where(eq(job.id, this.jobId)),
       ]);
       await nextTurn();
     }
   }
 
-  /** Inside the final transaction: every staged row into its table, in batches that let other requests in between. */
+  /**
+   * Inside the final transaction: refuses if a record's parent went to the trash meanwhile or a record was
+   * removed with its parent; shows the job's records, parents first; moves the staged rows that belong in it.
+   * Other requests are answered between its statements.
+   */
   async apply(tx: Tx): Promise<void> {
     await tx.run(sql.raw(`PRAGMA cache_size = -${APPLY_CACHE_KIB}`));
-    for (const t of this.targets.values()) {
-      const cols = sql.join(t.columns.map(([, col]) => sql.identifier(col.name)), sql`, `);
-      const values = sql.join(t.columns.map((_, i) => sql.raw(`json_extract(data, '$[${i}]')`)), sql`, `);
-      for (let lo = 0; lo < t.count; lo += APPLY_BATCH) {
-        // `WHERE` is required before an upsert clause on INSERT … SELECT; it is there anyway.
-        await tx.run(sql`INSERT INTO ${sql.identifier(t.name)} (${cols}) SELECT ${values} FROM job_row
-          WHERE job_id = ${this.jobId} AND target = ${t.name} AND seq >= ${lo} AND seq < ${lo + APPLY_BATCH} ORDER BY seq ${t.onConflict ?? sql``}`);
+    const records = [...this.targets.values()].filter((t) => t.record);
+    for (const t of records) await this.refuseTrashedParent(tx, t);
+    for (const t of records) {
+      let shown = 0;
+      for (;;) {
+        const res = await tx.run(sql`UPDATE ${sql.identifier(t.name)} SET deleted_at = NULL, deleted_by = NULL, trash_id = NULL
+          WHERE rowid IN (SELECT rowid FROM ${sql.identifier(t.name)} WHERE trash_id = ${this.jobId} LIMIT ${APPLY_BATCH})`);
+        shown += res.rowsAffected;
         await nextTurn();
+        if (res.rowsAffected < APPLY_BATCH) break;
+      }
+      if (shown !== t.count) {
+        throw new Conflict(`Some ${t.record!.noun}s this import was adding were removed meanwhile, with a record they belong to; nothing was imported. Import again.`);
       }
     }
+    for (const t of this.targets.values()) {
+      if (!t.record && !t.afterCommit) await moveStaged(tx, this.jobId, t);
+    }
+  }
+
+  private async refuseTrashedParent(tx: Tx, t: Target): Promise<void> {
+    const parent = t.record!.parent;
+    if (!parent) return;
+    const p = entityOf(parent.type);
+    const parentCol = getTableColumns(t.table)[parent.field]!;
+    const [hit] = await tx.all<{ id: string }>(sql`SELECT c.id FROM ${sql.identifier(t.name)} c
+      JOIN ${sql.identifier(getTableName(p.table))} p ON p.id = c.${sql.identifier(parentCol.name)}
+      WHERE c.trash_id = ${this.jobId} AND p.deleted_at IS NOT NULL AND p.trash_id IS NOT ${this.jobId} LIMIT 1`);
+    if (hit) throw new Conflict(`A ${p.noun} this import adds ${t.record!.noun}s to was moved to the trash meanwhile; nothing was imported. Restore it, or import into another ${p.noun}.`);
   }
 
   /** Last in the final transaction, whatever happened: the connection goes back to the pool with SQLite's default page cache. */
@@ -113,10 +175,72 @@ export class Stage {
     await tx.run(sql.raw('PRAGMA cache_size = -2000')).catch(() => undefined);
   }
 
-  /** Removes this job's staged rows, a batch per statement. */
-  async clear(): Promise<void> {
-    await clearStaged(this.jobId);
+  /** After the commit: the rows that follow it (the job's history), then whatever is left in the stage. */
+  async afterCommit(): Promise<void> {
+    await finishAfterCommit(this.jobId);
   }
+
+  /** After a failure: what the job wrote out of sight, and its stage, removed a batch per statement. */
+  async discard(): Promise<void> {
+    await discardJob(this.jobId);
+  }
+}
+
+const stagedRange = (jobId: string, t: Target, lo: number) => sql`job_id = ${jobId} AND target = ${t.name} AND seq >= ${lo} AND seq < ${lo + APPLY_BATCH}`;
+// `WHERE` is required before an upsert clause on INSERT … SELECT; it is there anyway.
+const moveRange = (jobId: string, t: Target, lo: number) => sql`INSERT INTO ${sql.identifier(t.name)} (${columnList(t)}) SELECT ${fromStage(t)} FROM job_row
+  WHERE ${stagedRange(jobId, t, lo)} ORDER BY seq ${t.onConflict ?? sql``}`;
+
+/** Inside the final transaction: every staged row of a target into its table (the stage is cleared after the commit). */
+async function moveStaged(tx: Tx, jobId: string, t: Target): Promise<void> {
+  for (let lo = 0; lo < t.count; lo += APPLY_BATCH) {
+    await tx.run(moveRange(jobId, t, lo));
+    await nextTurn();
+  }
+}
+
+/**
+ * After the commit: a target's staged rows into its table, each batch in its own short transaction that also
+ * removes it from the stage, so a move cut short (the server stopped) resumes where it was.
+ */
+async function moveStagedAfterCommit(jobId: string, t: Target): Promise<void> {
+  for (;;) {
+    const [first] = await db.all<{ lo: number | null }>(sql`SELECT min(seq) AS lo FROM job_row WHERE job_id = ${jobId} AND target = ${t.name}`);
+    const lo = first?.lo;
+    if (lo === null || lo === undefined) return;
+    await db.batch([db.run(moveRange(jobId, t, lo)), db.run(sql`DELETE FROM job_row WHERE ${stagedRange(jobId, t, lo)}`)]);
+    await nextTurn();
+  }
+}
+
+/** A committed job's rows that follow the commit are moved (resuming where a stopped server left off); the rest of its stage goes. */
+export async function finishAfterCommit(jobId: string): Promise<void> {
+  for (const table of AFTER_COMMIT) await moveStagedAfterCommit(jobId, targetOf(table));
+  await clearStaged(jobId);
+}
+
+/** Removes what a job that did not commit wrote out of sight, children first, and its stage. */
+export async function discardJob(jobId: string): Promise<void> {
+  for (const e of [...RECORDS].reverse()) {
+    for (;;) {
+      const name = sql.identifier(getTableName(e.table));
+      const res = await db.run(sql`DELETE FROM ${name} WHERE rowid IN (SELECT rowid FROM ${name} WHERE trash_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
+      if (res.rowsAffected < CLEAR_BATCH) break;
+      await nextTurn();
+    }
+  }
+  await clearStaged(jobId);
+}
+
+/** Ids of jobs that still have records out of sight (a job's id is its records' trash stamp). */
+export async function jobsWithHiddenRecords(): Promise<string[]> {
+  const ids = new Set<string>();
+  for (const e of RECORDS) {
+    const name = sql.identifier(getTableName(e.table));
+    const rows = await db.all<{ id: string }>(sql`SELECT DISTINCT trash_id AS id FROM ${name} WHERE trash_id IS NOT NULL AND trash_id LIKE 'job\\_%' ESCAPE '\\'`);
+    rows.forEach((r) => ids.add(r.id));
+  }
+  return [...ids];
 }
 
 export async function clearStaged(jobId: string): Promise<void> {
