@@ -1,6 +1,6 @@
 /** Team-wide device search: every field, prefixes, other teams, trash. */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { createTeamWithRoles, type TeamFixture, type TestClient } from '../helpers/client';
+import { createTeamWithRoles, testDb, type TeamFixture, type TestClient } from '../helpers/client';
 import { expectOk, uid } from './vault-fixtures';
 
 let team: TeamFixture;
@@ -58,6 +58,32 @@ describe('search', () => {
     expect(expectOk(await eng.get(`/api/devices/search?q=GONE-${u}`)).total).toBe(0);
     expectOk(await eng.post(`/api/trash/device/${extra.id}`));
     expect(expectOk(await eng.get(`/api/devices/search?q=GONE-${u}`)).total).toBe(1);
+  });
+
+  it('keeps exactly one search row per live device through edits, trash, restore and purge', async () => {
+    const db = testDb();
+    const rows = async (id: string) => Number((await db.execute({ sql: 'SELECT count(*) AS n FROM device_search WHERE device_id = ?', args: [id] })).rows[0]!.n);
+    try {
+      let d = expectOk(await eng.post('/api/devices', { machineId: device.machineId, tag: `KEEP-${u}` }), 201);
+      d = expectOk(await eng.patch(`/api/devices/${d.id}`, { version: d.version, tag: `KEPT-${u}` }));
+      expect(await rows(d.id)).toBe(1);
+      expect(expectOk(await eng.get(`/api/devices/search?q=KEPT-${u}`)).total).toBe(1);
+      expect(expectOk(await eng.get(`/api/devices/search?q=KEEP-${u}`)).total).toBe(0);
+      expectOk(await eng.del(`/api/devices/${d.id}`));
+      expect(await rows(d.id)).toBe(0);
+      expectOk(await eng.post(`/api/trash/device/${d.id}`));
+      expect(await rows(d.id)).toBe(1);
+      d = expectOk(await eng.get(`/api/devices/${d.id}`));
+      expectOk(await eng.patch(`/api/devices/${d.id}`, { version: d.version, name: `Renamed${u}` }));
+      expect(await rows(d.id)).toBe(1);
+      expect(ids(expectOk(await eng.get(`/api/devices/search?q=Renamed${u}`)))).toEqual([d.id]);
+      expectOk(await eng.del(`/api/devices/${d.id}`));
+      expectOk(await team.members.admin.del(`/api/trash/device/${d.id}`));
+      expect(await rows(d.id)).toBe(0);
+      expect(expectOk(await eng.get(`/api/devices/search?q=KEPT-${u}`)).total).toBe(0);
+    } finally {
+      db.close();
+    }
   });
 
   it('refuses an empty or symbol-only query and unknown parameters (422)', async () => {
