@@ -7,6 +7,7 @@
  * prints the total per page against the budget. A page without islands must load no React at all.
  */
 import { gzipSync } from 'node:zlib';
+import { build } from 'esbuild';
 import { startServer } from '../tests/helpers/server';
 
 const BUDGET_KB = 150;
@@ -64,8 +65,34 @@ async function signIn(baseUrl: string): Promise<string> {
   return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 }
 
-const server = await startServer({ SEED_DEMO: '1' });
+/**
+ * What the form resolver costs the composer: @hookform/resolvers' zod resolver bundled and minified on its own,
+ * with what every composer page loads anyway (React, react-hook-form, zod) left out, against a hand-written
+ * resolver of the same job. The redesign keeps the library unless it costs more than 2 KB gzip.
+ */
+async function resolverCost(): Promise<void> {
+  const sizes: Record<string, number> = {};
+  const entries = {
+    '@hookform/resolvers/zod': `import { zodResolver } from '@hookform/resolvers/zod'; globalThis.r = zodResolver;`,
+    'hand-written (for comparison)': `globalThis.r = (schema) => async (values) => { const r = schema.safeParse(values); if (r.success) return { values, errors: {} };
+      const errors = {}; for (const i of r.error.issues) errors[i.path.join('.') || 'root'] ??= { type: i.code, message: i.message }; return { values: {}, errors }; };`,
+  };
+  for (const [name, contents] of Object.entries(entries)) {
+    const out = await build({
+      stdin: { contents, resolveDir: process.cwd(), loader: 'js' }, bundle: true, minify: true, format: 'esm', write: false,
+      external: ['react', 'react-hook-form', 'zod', 'zod/*'], logLevel: 'error',
+    });
+    sizes[name] = gzipSync(out.outputFiles[0]!.contents, { level: 9 }).length;
+  }
+  const cost = sizes['@hookform/resolvers/zod']! - sizes['hand-written (for comparison)']!;
+  for (const [name, n] of Object.entries(sizes)) console.log(`resolver ${name}: ${(n / 1024).toFixed(2)} KB gzip`);
+  console.log(`${cost <= 2048 ? 'PASS' : 'FAIL'} @hookform/resolvers costs ${(cost / 1024).toFixed(2)} KB gzip more than a hand-written resolver (keep it unless over 2 KB)`);
+  failed ||= cost > 2048;
+}
+
 let failed = false;
+await resolverCost();
+const server = await startServer({ SEED_DEMO: '1' });
 try {
   await fetch(`${server.baseUrl}/`); // runs migrations and the demo seed
   const cookie = await signIn(server.baseUrl);

@@ -5,9 +5,10 @@ import { isField, type FieldSegment, type Template } from '../../lib/frame/templ
 import type { FieldValues } from '../../lib/frame/template';
 import { valuesSchemaFor } from '../../lib/schemas/commands';
 import { bothUnits } from '../../lib/composer/scaling';
-import { flatZodResolver } from './resolver';
+import { zodResolver } from '@hookform/resolvers/zod';
 
-type Values = Record<string, string>;
+/** As the shared schema reads them; the inputs give text. */
+type Values = Record<string, string | number | null>;
 
 interface Props {
   template: Template;
@@ -20,7 +21,8 @@ const asText = (v: unknown) => (v === undefined || v === null ? '' : String(v));
 
 export function ValuesForm({ template, values, rawUnits, onChange }: Props) {
   const fields = template.segments.filter(isField);
-  const resolver = useMemo(() => flatZodResolver<Values>(valuesSchemaFor(template)), [template]);
+  // `raw`: the form keeps the text as typed (the engine reads numbers from the text, exactly).
+  const resolver = useMemo(() => zodResolver(valuesSchemaFor(template), undefined, { raw: true }), [template]);
   const form = useForm<Values>({
     resolver,
     mode: 'onChange',
