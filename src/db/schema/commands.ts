@@ -9,6 +9,7 @@ import { sqliteTable, text, integer, index, check } from 'drizzle-orm/sqlite-cor
 import { team } from './teams';
 import { device, deviceProfile, trashIndex, versionedColumns } from './vault';
 import type { FieldValues, Template } from '../../lib/frame/template';
+import type { CommandPreset } from '../../lib/composer/presets';
 
 
 export const command = sqliteTable(
@@ -32,6 +33,8 @@ export const command = sqliteTable(
     portName: text('port_name').notNull().default(''),
     /** Name of the raw unit per scaled field, e.g. `{ angle: 'steps' }`, shown beside the sent value. */
     rawUnits: text('raw_units', { mode: 'json' }).$type<Record<string, string>>().notNull(),
+    /** Named value sets ("index one station", "jog 1° one way"), each over the saved values (src/lib/composer/presets.ts). */
+    presets: text('presets', { mode: 'json' }).$type<CommandPreset[]>().notNull().default([]),
     notes: text('notes').notNull().default(''),
     /** The command moves machinery: the composer shows the safety caution above it. */
     movesMachinery: integer('moves_machinery', { mode: 'boolean' }).notNull().default(false),

@@ -1,5 +1,6 @@
 /** The content of a field card, built from vault records: what a technician reads at the cabinet. */
-import { assembleFrame, renderHex, renderIecLiteral, portSettingsText, type PortSettings, type Template, type FieldValues } from '../frame';
+import { portSettingsText, type PortSettings, type Template, type FieldValues } from '../frame';
+import { renderCommandVariants, type CommandPreset, type CommandRendering } from '../composer/presets';
 
 export { MACHINERY_CAUTION as CAUTION } from '../caution';
 
@@ -24,6 +25,8 @@ export interface CardCommandInput {
   purpose: string;
   template: Template;
   fieldValues: FieldValues;
+  presets: CommandPreset[];
+  portName: string;
   movesMachinery: boolean;
 }
 
@@ -42,10 +45,11 @@ export interface CardCommand {
   id: string;
   name: string;
   purpose: string;
-  plc: string;
-  hex: string;
   movesMachinery: boolean;
-  problem: string | null;
+  /** The saved values first (`preset` null), then every preset: PLC literal, hex, bytes and time on the wire. */
+  sends: CommandRendering[];
+  /** The port the times are for, e.g. `Service RS-232, 9600 8-N-1`; null when the device has no serial port. */
+  line: string | null;
 }
 
 export function cardShorthand(s: PortSettings): string {
@@ -76,16 +80,16 @@ export function cardPort(p: CardPortInput, heading: string): CardPort {
   return { id: p.id, name: p.name, shorthand: cardShorthand(s), facts, wiring: p.wiring, notes: p.notes, copyText };
 }
 
-/** The command's bytes as a PLC string literal and as hex, with the frame engine's defaults. */
-export function cardCommand(c: CardCommandInput): CardCommand {
-  try {
-    const frame = assembleFrame(c.template, c.fieldValues);
-    const error = frame.findings.find((f) => f.severity === 'error');
-    return {
-      id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
-      plc: renderIecLiteral(frame.bytes), hex: renderHex(frame.bytes), problem: error ? error.message : null,
-    };
-  } catch (err) {
-    return { id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery, plc: '', hex: '', problem: (err as Error).message };
-  }
+/**
+ * The command's bytes as a PLC string literal and as hex, with its saved values and with each preset, timed on
+ * its port (the one it names, else the device's first serial port).
+ */
+export function cardCommand(c: CardCommandInput, ports: { name: string; settings: PortSettings }[] = []): CardCommand {
+  const serial = ports.filter((p) => p.settings.interface !== 'tcp');
+  const port = serial.find((p) => p.name === c.portName) ?? serial[0] ?? null;
+  return {
+    id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
+    sends: renderCommandVariants(c, port ? port.settings : null),
+    line: port ? `${port.name}, ${cardShorthand(port.settings)}` : null,
+  };
 }

@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { readTypedNumber } from '../frame/field-format';
 import { isField, templateSchema, type FieldSegment, type Template } from '../frame/template';
+import { MAX_PRESETS, presetKey } from '../composer/presets';
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
 const id = z.string().min(1, 'Choose a record.').max(64);
@@ -55,6 +56,18 @@ export function valuesSchemaFor(template: Template) {
 
 const rawUnitsSchema = z.record(z.string().max(64), text(24)).refine((r) => Object.keys(r).length <= 64, 'At most 64 raw units.');
 
+export const presetSchema = z.strictObject({
+  name: text(60).min(1, 'Name the preset.'),
+  values: fieldValuesSchema,
+});
+export const presetsSchema = z.array(presetSchema).max(MAX_PRESETS, `At most ${MAX_PRESETS} presets per command.`).superRefine((list, ctx) => {
+  const seen = new Set<string>();
+  list.forEach((p, i) => {
+    if (seen.has(presetKey(p.name))) ctx.addIssue({ code: 'custom', path: [i, 'name'], message: `Another preset is already named "${p.name}".` });
+    seen.add(presetKey(p.name));
+  });
+});
+
 const commandFields = {
   name: text(120).min(1, 'Enter a command name.'),
   purpose: text(300).default(''),
@@ -63,19 +76,30 @@ const commandFields = {
   replyTemplate: templateSchema.nullable().default(null),
   portName: text(60).default(''),
   rawUnits: rawUnitsSchema.default({}),
+  presets: presetsSchema.default([]),
   notes: text(5000).default(''),
   movesMachinery: z.boolean().default(false),
 };
 
-/** Field values must fit the template they are saved with. */
-function valuesFit(data: { template?: Template; fieldValues?: Record<string, unknown> }, ctx: z.RefinementCtx) {
-  if (!data.template || !data.fieldValues) return;
-  const fields = data.template.segments.filter(isField);
-  for (const [key, v] of Object.entries(data.fieldValues)) {
+/** Problems of values (saved or a preset's) with the template, each at its key; empty when they fit. */
+export function valuesProblems(template: Template, values: Record<string, unknown>): [key: string, message: string][] {
+  const fields = template.segments.filter(isField);
+  const out: [string, string][] = [];
+  for (const [key, v] of Object.entries(values)) {
     const f = fields.find((x) => x.name === key);
     const problem = f ? (v === null || v === '' ? null : fieldValueProblem(f, v)) : `The template has no field named "${key}".`;
-    if (problem) ctx.addIssue({ code: 'custom', path: ['fieldValues', key], message: problem });
+    if (problem) out.push([key, problem]);
   }
+  return out;
+}
+
+/** Field values and every preset's values must fit the template they are saved with. */
+function valuesFit(data: { template?: Template; fieldValues?: Record<string, unknown>; presets?: { name: string; values: Record<string, unknown> }[] }, ctx: z.RefinementCtx) {
+  if (!data.template) return;
+  for (const [key, message] of valuesProblems(data.template, data.fieldValues ?? {})) ctx.addIssue({ code: 'custom', path: ['fieldValues', key], message });
+  (data.presets ?? []).forEach((p, i) => {
+    for (const [key, message] of valuesProblems(data.template!, p.values)) ctx.addIssue({ code: 'custom', path: ['presets', i, 'values', key], message: `Preset "${p.name}": ${message}` });
+  });
 }
 
 export const commandCreateSchema = z

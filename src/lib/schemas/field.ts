@@ -1,6 +1,7 @@
 /** Request schemas for field work and sharing: field log, attachments, share links, import and export. */
 import { z } from 'zod';
 import { templateSchema } from '../frame/template';
+import { presetsSchema, valuesProblems } from './commands';
 import { emailSchema } from './platform';
 import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, wiringRowSchema } from './vault';
 
@@ -104,6 +105,12 @@ export const exportDocumentSchema = z.strictObject({
     template: templateSchema, fieldValues: z.record(z.string(), z.union([z.string(), z.number(), z.null()])),
     replyTemplate: templateSchema.nullable(), portName: text(60), rawUnits: z.record(z.string(), z.string().max(40)),
     notes: text(5000), movesMachinery: z.boolean(),
+    // Exports made before presets existed have none.
+    presets: presetsSchema.default([]),
+  }).superRefine((c, ctx) => {
+    c.presets.forEach((p, i) => {
+      for (const [key, message] of valuesProblems(c.template, p.values)) ctx.addIssue({ code: 'custom', path: ['presets', i, 'values', key], message: `Preset "${p.name}": ${message}` });
+    });
   })).max(100000),
 });
 export type ExportDocument = z.infer<typeof exportDocumentSchema>;

@@ -4,7 +4,8 @@ import { db, type DbOrTx } from '../../../db/client';
 import { command } from '../../../db/schema';
 import { recordCreated, trashRecord } from '../records/engine';
 import { commandEntity } from '../records/entities';
-import type { CommandCopy, CommandCreate, CommandUpdate } from '../../schemas/commands';
+import { valuesProblems, type CommandCopy, type CommandCreate, type CommandUpdate } from '../../schemas/commands';
+import { Invalid } from '../errors';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import { definedOnly } from '../records/diff';
@@ -81,9 +82,25 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
 export async function updateCommand(ctx: TeamContext, id: string, input: CommandUpdate): Promise<CommandView> {
   const { version, ...patch } = input;
   return db.transaction(async (tx) => {
+    if (patch.presets !== undefined || patch.template !== undefined) await presetsFit(tx, ctx, id, patch);
     const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>);
     return view(row, await findOwner(tx, ctx, row));
   });
+}
+
+/**
+ * Presets must fit the template they are kept with: the one sent, or the saved one when only presets are sent;
+ * a new template must fit the saved presets (send presets with it to change both at once).
+ */
+async function presetsFit(q: DbOrTx, ctx: TeamContext, id: string, patch: Omit<CommandUpdate, 'version'>) {
+  const current = await findCommand(q, ctx, id);
+  const template = patch.template ?? current.template;
+  const fields: Record<string, string> = {};
+  (patch.presets ?? current.presets).forEach((p, i) => {
+    for (const [key, message] of valuesProblems(template, p.values)) fields[`presets.${i}.values.${key}`] ??= `Preset "${p.name}": ${message}`;
+  });
+  const first = Object.values(fields)[0];
+  if (first) throw new Invalid(patch.presets ? first : `${first} Change the preset with the template, or remove it.`, { fields });
 }
 
 /** Moves a command to the trash (its history stays; restoring a revision brings it back). */

@@ -52,10 +52,11 @@ async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: Devic
     const own = cmds.filter((c) => c.deviceId === d.id);
     const names = new Set(own.map((c) => c.name.toLowerCase()));
     const inherited = d.profileId ? cmds.filter((c) => c.profileId === d.profileId && !names.has(c.name.toLowerCase())) : [];
+    const mine = ports.filter((p) => p.deviceId === d.id);
     return {
       device: { id: d.id, tag: d.tag, name: d.name, role: d.role, maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, version: d.version, machineId: d.machineId },
-      ports: ports.filter((p) => p.deviceId === d.id).map((p) => ({ ...cardPort(p, heading(d)), version: p.version })),
-      commands: [...own, ...inherited].map((c) => cardCommand(c)),
+      ports: mine.map((p) => ({ ...cardPort(p, heading(d)), version: p.version })),
+      commands: [...own, ...inherited].map((c) => cardCommand(c, mine)),
       revision: revs.get(d.id) ?? { number: 0, date: null },
     };
   });

@@ -76,6 +76,7 @@ export async function exportDocument(ctx: TeamContext, opts: { siteId?: string }
     commands: C.map((c) => ({
       id: c.id, deviceId: c.deviceId, profileId: c.profileId, name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues as Record<string, string | number | null>,
       replyTemplate: c.replyTemplate ?? null, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery,
+      presets: c.presets.map((p) => ({ name: p.name, values: p.values as Record<string, string | number | null> })),
     })),
   };
 }

@@ -24,7 +24,12 @@ const servicePort = {
 const commands = [
   { id: 'cmd_demo_drv501_index', name: 'Index 45°', purpose: 'Index the turret one station (45°) with ramps and speed', template: indexMoveTemplate,
     fieldValues: { address: 1, angle: 45, accel: 5, decel: 5, speed: 0.5 }, movesMachinery: true,
-    rawUnits: { angle: 'steps', accel: 'steps/s²', decel: 'steps/s²', speed: 'steps/s' }, notes: 'Drive set to 36,000 steps per revolution (parameter group 3).' },
+    rawUnits: { angle: 'steps', accel: 'steps/s²', decel: 'steps/s²', speed: 'steps/s' }, notes: 'Drive set to 36,000 steps per revolution (parameter group 3).',
+    presets: [
+      { name: 'Index one station', values: { angle: 45 } },
+      { name: 'Jog 1° one way', values: { angle: 1, speed: 0.05 } },
+      { name: 'Jog 1° the other way', values: { angle: -1, speed: 0.05 } },
+    ] },
   { id: 'cmd_demo_drv501_jog_fwd', name: 'Jog +1°', purpose: 'Jog forward one degree for setting up', template: jogTemplate('+'), fieldValues: { address: 1, angle: 1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
   { id: 'cmd_demo_drv501_jog_rev', name: 'Jog −1°', purpose: 'Jog back one degree for setting up', template: jogTemplate('-'), fieldValues: { address: 1, angle: -1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
   { id: 'cmd_demo_drv501_status', name: 'Status query', purpose: 'Ask the position and state; the answer carries an XOR-8 check', template: statusQueryTemplate,

@@ -1,0 +1,1 @@
+ALTER TABLE `command` ADD `presets` text DEFAULT '[]' NOT NULL;
