@@ -12,13 +12,12 @@ import { createClient, type InArgs } from '@libsql/client';
 import { SQLiteAsyncDialect } from 'drizzle-orm/sqlite-core';
 // @ts-expect-error autocannon ships no type declarations (and none are installed)
 import autocannon from 'autocannon';
+import { ftsQuery } from '../src/lib/server/vault/fts';
 
 const LIST_PATHS = Array.from({ length: 20 }, (_, i) => `/api/devices?page=${i + 1}&pageSize=50&sort=tag&dir=asc`);
 const SEARCHES = ['DRV-001', 'quillmoor 12', 'plant 7 line 3', 'SN12', 'printer 4'];
 
 // ---- baseline: the app's queries, straight through @libsql/client ----
-const ftsQuery = (text: string) => text.toLowerCase().match(/[\p{L}\p{N}]+/gu)!.map((t) => `"${t}"*`).join(' ');
-
 async function baseline(url: string, port: number, teamId: string) {
   const db = createClient({ url, timeout: 5000 });
   const { deviceListStatement } = await import('../src/lib/server/vault/device-list-sql');
@@ -43,6 +42,10 @@ async function baseline(url: string, port: number, teamId: string) {
       return;
     } else if (u.pathname === '/api/devices/search') {
       const match = ftsQuery(u.searchParams.get('q') ?? '');
+      if (!match) {
+        res.writeHead(422).end();
+        return;
+      }
       const [rows, total] = await Promise.all([
         db.execute({
           sql: `SELECT d.id, d.tag, d.name, d.role, d.maker, d.model, d.serial_number, f.machine_name, f.site_name, d.machine_id, m.site_id

@@ -64,7 +64,3 @@ export function assignableRoles(role: Role): Role[] {
   if (role === 'owner' || role === 'admin') return ['admin', 'engineer', 'technician', 'viewer'];
   return [];
 }
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
-}

@@ -97,4 +97,21 @@ describe('vault and field pages', () => {
     expect((await mine.members.viewer.get(`/vault/devices/${own.device}/commands/new`)).status).toBe(403);
     expect((await mine.members.viewer.get('/vault/trash')).status).toBe(403);
   });
+
+  it('keep the query in the sign-in redirect, send a signed-in person without a team to start one, and let them open that page', async () => {
+    const anon = new TestClient();
+    const withQuery = `/field/shares?scopeType=machine&scopeId=${own.machine}`;
+    expect((await anon.get(withQuery)).headers.get('location')).toBe(`/sign-in?next=${encodeURIComponent(withQuery)}`);
+    const startTeam = await anon.get('/teams/new');
+    expect(startTeam.status).toBe(302);
+    expect(new URL(startTeam.headers.get('location')!, 'http://x').searchParams.get('next')).toBe('/teams/new');
+
+    const teamless = await new TestClient().signUp('pages-teamless');
+    for (const path of ['/vault', `/vault/devices/${own.device}`, '/field/shares', '/team']) {
+      const res = await teamless.get(path);
+      expect(res.status, path).toBe(302);
+      expect(res.headers.get('location'), path).toBe('/teams/new');
+    }
+    expect((await teamless.get('/teams/new')).status).toBe(200);
+  });
 });

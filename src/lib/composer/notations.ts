@@ -26,8 +26,3 @@ export function notationRows(bytes: Uint8Array, wordOrder: WordByteOrder = 'high
     { id: 'wordsDecimal', label: 'Register words (decimal)', hint: wordNote, text: words.decimal },
   ];
 }
-
-/** "35 bytes · 35 characters" — every byte is one character on a serial line, but a PLC literal is longer. */
-export function sizeSummary(bytes: Uint8Array): { bytes: number; literalChars: number } {
-  return { bytes: bytes.length, literalChars: renderAllNotations(bytes).iecLiteral.length };
-}

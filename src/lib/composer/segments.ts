@@ -19,8 +19,6 @@ export const ADD_KINDS: { kind: AddKind; label: string }[] = [
   { kind: 'terminator', label: 'Terminator' },
 ];
 
-export const emptyTemplate = (): Template => ({ version: 1, segments: [] });
-
 type Protocol = PortSettings['protocol'];
 
 /**

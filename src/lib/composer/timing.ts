@@ -1,5 +1,5 @@
 /** The timing panel's rows, from port settings and the frame and reply sizes. */
-import { lineTiming, pollCycle } from '../frame/timing';
+import { lineTiming, MODBUS_FIXED_TIMING_ABOVE_BAUD, pollCycle } from '../frame/timing';
 import { portShorthand, type LineSettings, type PortSettings } from '../frame/port-settings';
 import { ms, rate } from './format';
 
@@ -33,7 +33,7 @@ export function timingSummary(settings: LineSettings & Partial<PortSettings>, re
   if (replyBytes !== null) {
     rows.push({ id: 'reply', label: 'Reply time', value: ms(t.replyTimeMs), how: `${replyBytes} bytes × ${ms(t.charTimeMs)}, after a ${ms(turnaroundMs)} turnaround` });
   }
-  const fixed = settings.baud > 19200 ? ' (fixed above 19200 bit/s)' : '';
+  const fixed = settings.baud > MODBUS_FIXED_TIMING_ABOVE_BAUD ? ` (fixed above ${MODBUS_FIXED_TIMING_ABOVE_BAUD} bit/s)` : '';
   rows.push(
     { id: 't15', label: 'Inter-character timeout', value: ms(t.interCharTimeoutMs), how: `1.5 character times${fixed}` },
     { id: 't35', label: 'Silent gap between frames', value: ms(t.interFrameGapMs), how: `3.5 character times${fixed}` },

@@ -16,11 +16,6 @@ export function hexValue(code: number): number {
   return -1;
 }
 
-/** True for printable ASCII, 0x20 (space) to 0x7E (~). */
-export function isPrintable(byte: number): boolean {
-  return byte >= 0x20 && byte <= 0x7e;
-}
-
 /** A 256-entry table of ASCII strings (one per byte value), pre-encoded for `renderWithTable`. */
 export interface RenderTable {
   strings: readonly string[];

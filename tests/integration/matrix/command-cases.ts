@@ -5,6 +5,7 @@ import type { RouteCase } from './types';
 
 const ALL = ['owner', 'admin', 'engineer', 'technician', 'viewer'] as const;
 const EDITORS = ['owner', 'admin', 'engineer'] as const;
+const STAFF = ['owner', 'admin'] as const;
 
 const owner = (t: TeamFixture) => t.members.owner;
 const fresh = (t: TeamFixture) => makeCommand(owner(t));
@@ -14,6 +15,13 @@ async function restoreRequest(t: TeamFixture) {
   const c = await fresh(t);
   const revs = await owner(t).get(`/api/commands/${c.id}/revisions`);
   return { path: `/api/commands/${c.id}/restore`, body: { revisionId: revs.body.items[0].id, version: c.version } };
+}
+
+/** A command moved to the trash on its own, as the trash routes address it. */
+async function trashed(t: TeamFixture) {
+  const c = await fresh(t);
+  await owner(t).del(`/api/commands/${c.id}`);
+  return { path: `/api/trash/command/${c.id}` };
 }
 
 export const commandCases: RouteCase[] = [
@@ -57,4 +65,7 @@ export const commandCases: RouteCase[] = [
     prepare: async (t) => ({ path: at('/copy')(await fresh(t)), body: { deviceId: (await makeDevice(owner(t))).id } }),
     otherTeam: async (t, o) => ({ path: at('/copy')(await fresh(o)), body: { deviceId: (await makeDevice(owner(t))).id } }),
   },
+  // The trash routes again, for a command (the vault cases use a site).
+  { method: 'POST', route: '/api/trash/[type]/[id]', allowed: EDITORS, prepare: (t) => trashed(t), otherTeam: (_t, o) => trashed(o) },
+  { method: 'DELETE', route: '/api/trash/[type]/[id]', allowed: STAFF, prepare: (t) => trashed(t), otherTeam: (_t, o) => trashed(o) },
 ];

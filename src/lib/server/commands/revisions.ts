@@ -1,10 +1,11 @@
 /** A command's history (in the one `revision` table) and restoring any version of it (which writes a new revision). */
 import { and, desc, eq } from 'drizzle-orm';
-import { db } from '../../../db/client';
+import { db, type DbOrTx } from '../../../db/client';
 import { revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { NotFound } from '../errors';
-import { commandEntity, entityOf } from '../records/entities';
+import { findInTeam } from '../records/engine';
+import { commandEntity, entityOf, type CommandRow } from '../records/entities';
 import { snapshotValues } from '../records/entity';
 import { referencesOf, refuseMissing } from '../records/references';
 import { findCommand, updateCommandVersioned } from './records';
@@ -30,7 +31,7 @@ export async function listCommandRevisions(ctx: TeamContext, id: string): Promis
 export async function restoreCommandRevision(ctx: TeamContext, id: string, revisionId: string, version: number) {
   return db.transaction(async (tx) => {
     const current = await findCommand(tx, ctx, id, { trashed: true });
-    await refuseMissing(tx, ctx, 'This command', referencesOf(entityOf('command'), current));
+    await refuseMissingOwner(tx, ctx, current);
     const [rev] = await tx.select().from(revision).where(and(eq(revision.id, revisionId), ofCommand(ctx.team.id, id)));
     if (!rev) throw new NotFound('No revision with that id for this command.');
     const values = snapshotValues(commandEntity, rev.snapshot);
@@ -41,4 +42,27 @@ export async function restoreCommandRevision(ctx: TeamContext, id: string, revis
     });
     return { command: row, restoredVersion: rev.version, changed: changes.length };
   });
+}
+
+/**
+ * The trash page's restore: the command comes back as it was moved to the trash (a `restore` revision, as
+ * vault records write). 404 unless it is in the team's trash; refused (409) like a revision restore while its
+ * device or profile is in the trash.
+ */
+export async function restoreCommandFromTrash(ctx: TeamContext, id: string) {
+  return db.transaction(async (tx) => {
+    const current = await findInTeam(tx, ctx, commandEntity, id, 'trash');
+    await refuseMissingOwner(tx, ctx, current);
+    await updateCommandVersioned(tx, ctx, id, current.version, {}, {
+      action: 'restore',
+      summary: `Restored command ${commandEntity.describe(current)} from the trash`,
+      fromTrash: true,
+    });
+    return { type: 'command' as const, id, restored: true };
+  });
+}
+
+/** ReferenceMissing (409) while the command's device or profile is in the trash (or gone). */
+function refuseMissingOwner(q: DbOrTx, ctx: TeamContext, current: CommandRow) {
+  return refuseMissing(q, ctx, 'This command', referencesOf(entityOf('command'), current));
 }

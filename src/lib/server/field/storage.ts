@@ -126,4 +126,3 @@ export function storage(): FileStorage {
   return instance;
 }
 
-export const storageKey = (...parts: string[]) => join(...parts).split(sep).join('/');

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { DEVICE_ROLES, ENTITY_TYPES } from '../../schemas/vault';
+import { RECORD_TYPES } from '../../../db/schema';
 import { listParser } from './records';
 import { idFilter } from './params';
 import { SITE_SORTS } from './sites';
@@ -21,6 +22,6 @@ export const deviceListParams = listParser(DEVICE_SORTS, 'tag', { machineId: idF
 export const linkListParams = listParser(LINK_SORTS, 'name', { machineId: idFilter, q: text });
 export const profileListParams = listParser(PROFILE_SORTS, 'name', { q: text, role });
 export const revisionListParams = listParser(['createdAt'], 'createdAt', { entityType: z.enum(ENTITY_TYPES).optional(), entityId: idFilter });
-export const trashListParams = listParser(['deletedAt'], 'deletedAt', { type: z.enum(ENTITY_TYPES).optional() });
+export const trashListParams = listParser(['deletedAt'], 'deletedAt', { type: z.enum(RECORD_TYPES).optional() });
 /** Ports have no list endpoint of their own; the CSV export lists them by device tag. */
 export const portExportParams = listParser(['tag'], 'tag', { deviceId: idFilter, machineId: idFilter });

@@ -1,6 +1,6 @@
 /** Small parsers shared by the vault's API routes. */
 import { z } from 'zod';
-import { ENTITY_TYPES } from '../../../db/schema';
+import { RECORD_TYPES } from '../../../db/schema';
 import { validate } from '../http';
 import { NotFound } from '../errors';
 
@@ -11,9 +11,10 @@ export function versionParam(url: URL): number | undefined {
   return validate(z.strictObject({ version: z.coerce.number().int().positive('version is a positive whole number.') }), { version: raw }).version;
 }
 
-export function entityTypeParam(value: string | undefined) {
-  const parsed = z.enum(ENTITY_TYPES).safeParse(value);
-  if (!parsed.success) throw new NotFound(`Unknown record type "${value}"; use one of ${ENTITY_TYPES.join(', ')}.`);
+/** The `{type}` of a trash route: a vault record type or `command`; 404 for anything else. */
+export function recordTypeParam(value: string | undefined) {
+  const parsed = z.enum(RECORD_TYPES).safeParse(value);
+  if (!parsed.success) throw new NotFound(`Unknown record type "${value}"; use one of ${RECORD_TYPES.join(', ')}.`);
   return parsed.data;
 }
 

@@ -2,10 +2,11 @@
  * The trash: deleting moves a record (and everything inside it) out of sight; restoring brings
  * the same set back; purging (admins) removes it for good, with its history. What lives inside what
  * comes from the entity declarations (`parent`); the record mechanics from the record engine.
+ * Commands trashed on their own are listed, restored and purged here too (they hold nothing inside).
  */
 import { and, eq, getTableColumns, inArray, or, sql } from 'drizzle-orm';
 import { db, type DbOrTx, type Tx } from '../../../db/client';
-import { command, type EntityType } from '../../../db/schema';
+import { command, type EntityType, type RecordType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { Conflict } from '../errors';
 import { clearTrash, findInTeam, idsInTrash, purgeRevisions, recordRestored, stampTrash, trashRecord, type TrashStamp } from '../records/engine';
@@ -13,12 +14,16 @@ import { ENTITIES, childrenOf, entityOf } from '../records/entities';
 import type { AnyEntity } from '../records/entity';
 import type { Page } from './records';
 import { nextTurn } from '../jobs/turns';
+import { restoreCommandFromTrash } from '../commands/revisions';
 
 /** Rows (or ids) per statement when purging. */
 const PURGE_BATCH = 500;
 
 /** Every entity, children before parents (the order a purge deletes in, so no statement cascades far). */
 const CHILDREN_FIRST = (Object.keys(ENTITIES) as EntityType[]).map(entityOf).reverse();
+
+/** The tables a purge of `type` deletes from: a command is purged alone (nothing is moved with it). */
+const purgeOrder = (type: RecordType): AnyEntity[] => (type === 'command' ? [entityOf('command')] : CHILDREN_FIRST);
 
 /**
  * Moves what lives inside `entity`'s rows `ids` (a site's machines, their devices and links, the devices'
@@ -44,7 +49,7 @@ export async function moveToTrash(ctx: TeamContext, type: EntityType, id: string
 }
 
 export interface TrashItem {
-  type: EntityType;
+  type: RecordType;
   id: string;
   label: string;
   deletedAt: number;
@@ -53,7 +58,7 @@ export interface TrashItem {
   contents: number;
 }
 
-export async function listTrash(ctx: TeamContext, opts: { page: number; pageSize: number; type?: EntityType }): Promise<Page<TrashItem>> {
+export async function listTrash(ctx: TeamContext, opts: { page: number; pageSize: number; type?: RecordType }): Promise<Page<TrashItem>> {
   const team = ctx.team.id;
   const contents = (table: string, alias: string) => sql.raw(`(SELECT count(*) FROM ${table} c WHERE c.trash_id = ${alias}.id AND c.id <> ${alias}.id)`);
   const union = sql`
@@ -63,7 +68,10 @@ export async function listTrash(ctx: TeamContext, opts: { page: number; pageSize
     UNION ALL SELECT 'device', d.id, d.tag || CASE WHEN d.name <> '' THEN ' ' || d.name ELSE '' END, d.deleted_at, d.deleted_by, ${contents('port', 'd')} FROM device d WHERE d.team_id = ${team} AND d.deleted_at IS NOT NULL AND d.trash_id = d.id
     UNION ALL SELECT 'port', p.id, d.tag || ' ' || p.name, p.deleted_at, p.deleted_by, 0 FROM port p JOIN device d ON d.id = p.device_id WHERE p.team_id = ${team} AND p.deleted_at IS NOT NULL AND p.trash_id = p.id
     UNION ALL SELECT 'link', l.id, l.name, l.deleted_at, l.deleted_by, 0 FROM link l WHERE l.team_id = ${team} AND l.deleted_at IS NOT NULL AND l.trash_id = l.id
-    UNION ALL SELECT 'profile', f.id, f.name, f.deleted_at, f.deleted_by, 0 FROM device_profile f WHERE f.team_id = ${team} AND f.deleted_at IS NOT NULL AND f.trash_id = f.id`;
+    UNION ALL SELECT 'profile', f.id, f.name, f.deleted_at, f.deleted_by, 0 FROM device_profile f WHERE f.team_id = ${team} AND f.deleted_at IS NOT NULL AND f.trash_id = f.id
+    UNION ALL SELECT 'command', c.id, c.name || ' on ' || COALESCE(d.tag, 'profile ' || f.name), c.deleted_at, c.deleted_by, 0
+      FROM command c LEFT JOIN device d ON d.id = c.device_id LEFT JOIN device_profile f ON f.id = c.profile_id
+      WHERE c.team_id = ${team} AND c.deleted_at IS NOT NULL AND c.trash_id = c.id`;
   const filter = opts.type ? sql`WHERE t.type = ${opts.type}` : sql``;
   const [items, totals] = await Promise.all([
     db.all<Record<string, unknown>>(sql`
@@ -105,7 +113,8 @@ async function refuseNameClashes(tx: DbOrTx, ctx: TeamContext, trashId: string) 
   }
 }
 
-export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: string) {
+export async function restoreFromTrash(ctx: TeamContext, type: RecordType, id: string) {
+  if (type === 'command') return restoreCommandFromTrash(ctx, id);
   const entity = entityOf(type);
   return db.transaction(async (tx) => {
     const row = await findInTeam(tx, ctx, entity, id, 'trash');
@@ -127,7 +136,7 @@ export async function restoreFromTrash(ctx: TeamContext, type: EntityType, id: s
  */
 export async function purge(
   ctx: TeamContext,
-  type: EntityType,
+  type: RecordType,
   id: string,
   hooks: { beforeDelete?: (tx: Tx, ids: string[]) => Promise<void> } = {},
 ) {
@@ -137,7 +146,7 @@ export async function purge(
   return db.transaction(async (tx) => {
     await findInTeam(tx, ctx, entityOf(type), id, 'trash');
     const ids: string[] = [];
-    for (const e of CHILDREN_FIRST) ids.push(...(await idsInTrash(tx, ctx, e, id)));
+    for (const e of purgeOrder(type)) ids.push(...(await idsInTrash(tx, ctx, e, id)));
     await hooks.beforeDelete?.(tx, ids);
     // Commands kept on purged devices and profiles go with them (foreign key), and so does their history.
     const commands: string[] = [];
@@ -148,7 +157,7 @@ export async function purge(
     }
     await purgeRevisions(tx, ctx, [...ids, ...commands], PURGE_BATCH, nextTurn);
     // Children first, so no single statement cascades through a whole tree; the root goes with its own table.
-    for (const { table: t } of CHILDREN_FIRST) {
+    for (const { table: t } of purgeOrder(type)) {
       const where = and(eq(t.teamId, team), eq(t.trashId, id));
       for (;;) {
         const res = await tx.run(sql`DELETE FROM ${t} WHERE rowid IN (SELECT rowid FROM ${t} WHERE ${where} LIMIT ${PURGE_BATCH})`);
