@@ -276,7 +276,8 @@ const LOADED = Symbol.for('baudbook.config');
 
 /**
  * The process's settings, parsed once: loads `.env` from the working directory (without overriding the
- * environment), parses, and when BETTER_AUTH_SECRET is unset generates one into `.env`. serve.mjs calls it at
+ * environment) and parses; when BETTER_AUTH_SECRET is unset, the first read of `authSecret` generates one into
+ * `.env`. serve.mjs calls it at
  * start and the app's bundle (src/config.ts) gets the same object, kept on globalThis because the two load
  * separate copies of this module. Throws ConfigError.
  * @returns {LoadedConfig}
@@ -287,7 +288,14 @@ export function loadConfig() {
   if (loaded) return loaded;
   if (existsSync(ENV_FILE)) process.loadEnvFile(ENV_FILE);
   const config = parseConfig(process.env);
-  const ready = deepFreeze({ ...config, authSecret: config.authSecret ?? generateAuthSecret() });
+  let secret = config.authSecret;
+  // Generated on first use, so a script that signs nothing (migrations, benchmarks) leaves `.env` alone.
+  const ready = deepFreeze({
+    ...config,
+    get authSecret() {
+      return (secret ??= generateAuthSecret());
+    },
+  });
   store[LOADED] = ready;
   return ready;
 }
@@ -302,10 +310,10 @@ function generateAuthSecret() {
   return secret;
 }
 
-/** @template T @param {T} value @returns {T} */
+/** Freezes an object and every object in its data properties (accessors are left uncalled). @template T @param {T} value @returns {T} */
 function deepFreeze(value) {
   if (value && typeof value === 'object') {
-    for (const v of Object.values(value)) deepFreeze(v);
+    for (const d of Object.values(Object.getOwnPropertyDescriptors(value))) if ('value' in d) deepFreeze(d.value);
     Object.freeze(value);
   }
   return value;
