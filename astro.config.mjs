@@ -3,13 +3,14 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { parseBuildConfig } from './server/config.mjs';
 
-/** Extra host names the server answers for, comma-separated (e.g. a deployed host behind a proxy). */
-const extraHosts = (process.env.ALLOWED_HOSTS ?? '')
-  .split(',')
-  .map((h) => h.trim())
-  .filter(Boolean)
-  .map((hostname) => ({ hostname }));
+/**
+ * The settings the build and the dev server need (server/config.mjs): ALLOWED_HOSTS, extra host names the server
+ * answers for, is fixed at build time; HOST and PORT are where the dev server listens. Read from the environment
+ * only (`.env` is the running server's).
+ */
+const config = parseBuildConfig(process.env);
 
 export default defineConfig({
   output: 'server',
@@ -17,12 +18,12 @@ export default defineConfig({
   // address and static files, so nothing can start the app without them.
   adapter: node({ mode: 'middleware' }),
   integrations: [react()],
-  server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
+  server: { host: config.host ?? '127.0.0.1', port: config.port },
   security: {
     // Our middleware enforces the Origin rule (JSON answers, Sec-Fetch-Site, the public tools API exempt);
     // Astro's own check would answer before it with 403 text/plain.
     checkOrigin: false,
-    allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, ...extraHosts],
+    allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, ...config.allowedHosts.map((hostname) => ({ hostname }))],
   },
   // Sessions live in the database through the auth layer; Astro's own session store is unused.
   session: { driver: 'null' },

@@ -5,19 +5,6 @@ import { isIP } from 'node:net';
 /** Request headers that only a proxy (or someone pretending to be one) sets. */
 export const FORWARDING_HEADERS = ['forwarded', 'x-forwarded-for', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port', 'x-real-ip'];
 
-/**
- * TRUST_PROXY: how many proxies in front of this server append to X-Forwarded-For. Unset, empty, `0` or
- * `false` trusts none (the address is the socket's); `1` (or `true`) one proxy, `2` two, and so on.
- * Anything else is a configuration error.
- */
-export function parseTrustProxy(value) {
-  const v = (value ?? '').trim().toLowerCase();
-  if (v === '' || v === '0' || v === 'false') return 0;
-  if (v === 'true') return 1;
-  if (/^[1-9]\d?$/.test(v)) return Number(v);
-  throw new Error(`TRUST_PROXY must be a number of proxies (0 to 99, or true/false); got "${value}".`);
-}
-
 /** Strips an IPv4-mapped IPv6 prefix (`::ffff:127.0.0.1`), so addresses compare as people write them. */
 export function plainAddress(address) {
   if (!address) return '';
@@ -47,10 +34,12 @@ export function hopAddress(hop) {
 
 /**
  * Which socket peers may speak for a client in X-Forwarded-For: loopback (a proxy on this host) and the
- * addresses in PROXY_ADDRESSES (comma-separated). Anyone else reaching the port directly is taken at its socket.
+ * addresses in PROXY_ADDRESSES (read by server/config.mjs). Anyone else reaching the port directly is taken at
+ * its socket.
+ * @param {string[]} addresses
  */
-export function trustedProxyPeers(value) {
-  const listed = new Set((value ?? '').split(',').map((a) => plainAddress(a.trim())).filter(Boolean));
+export function trustedProxyPeers(addresses) {
+  const listed = new Set(addresses.map((a) => plainAddress(a)));
   return (address) => isLoopback(address) || listed.has(plainAddress(address));
 }
 

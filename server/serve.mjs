@@ -9,12 +9,20 @@ import { createServer } from 'node:http';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import send from 'send';
-import { isLoopbackHost, parseTrustProxy, resolvePeer, scrubForwardingHeaders, trustedProxyPeers } from './peer.mjs';
-import { outboxMode } from './outbox.mjs';
+import { resolvePeer, scrubForwardingHeaders, trustedProxyPeers } from './peer.mjs';
+import { ConfigError, listenHost, loadConfig } from './config.mjs';
 
-if (existsSync('.env')) process.loadEnvFile('.env');
+/** Every setting, parsed once (server/config.mjs); a bad one stops the server here with its message. */
+let config;
+try {
+  config = loadConfig();
+} catch (err) {
+  if (!(err instanceof ConfigError)) throw err;
+  console.error(`Baudbook cannot start: ${err.problems.length === 1 ? 'a setting is' : 'settings are'} not valid.\n${err.message}`);
+  process.exit(1);
+}
 
-const distDir = resolve(process.argv[2] ?? process.env.DIST_DIR ?? 'dist');
+const distDir = process.argv[2] ? resolve(process.argv[2]) : config.distDir;
 const entry = join(distDir, 'server/entry.mjs');
 const clientDir = join(distDir, 'client');
 if (!existsSync(entry)) {
@@ -22,39 +30,16 @@ if (!existsSync(entry)) {
   process.exit(1);
 }
 
-let trustedHops;
-let mode;
-try {
-  trustedHops = parseTrustProxy(process.env.TRUST_PROXY);
-  mode = outboxMode(process.env);
-} catch (err) {
-  console.error(err.message);
-  process.exit(1);
-}
-
-const isProxyPeer = trustedProxyPeers(process.env.PROXY_ADDRESSES);
-const port = Number(process.env.PORT ?? 4321);
-/**
- * Listen on loopback unless told otherwise, or unless BASE_URL names a host other machines use and no proxy is
- * trusted: a demo on one's own machine is never reachable from the network by default, and behind a proxy on
- * this host only the proxy reaches the app.
- */
-function defaultHost() {
-  const base = process.env.BASE_URL;
-  if (!base || (trustedHops > 0 && !process.env.PROXY_ADDRESSES)) return '127.0.0.1';
-  try {
-    return isLoopbackHost(new URL(base).host) ? '127.0.0.1' : '0.0.0.0';
-  } catch {
-    return '127.0.0.1';
-  }
-}
-const host = process.env.HOST || defaultHost();
+const trustedHops = config.trustProxy;
+const isProxyPeer = trustedProxyPeers(config.proxyAddresses);
+const port = config.port;
+const host = listenHost(config);
 
 /**
  * The local outbox's key: only someone who can read this server's console (or its OUTBOX_KEY setting) gets the
  * link that opens the outbox, so a relay on this host that hides the real client cannot hand mail to anyone.
  */
-const outboxKey = mode === 'local' ? process.env.OUTBOX_KEY || randomBytes(18).toString('base64url') : undefined;
+const outboxKey = config.outbox === 'local' ? config.outboxKey || randomBytes(18).toString('base64url') : undefined;
 
 const { handler } = await import(pathToFileURL(entry).href);
 

@@ -2,13 +2,11 @@ import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { createClient, type Client } from '@libsql/client';
 import { drizzle } from 'drizzle-orm/libsql';
+import { config } from '../config';
 import * as schema from './schema';
 import { gateWrites } from './write-gate';
 import { cacheReadStatements } from './statement-cache';
 import { configureConnections } from './connection-settings';
-
-/** Default database: a SQLite file relative to the working directory. */
-export const DEFAULT_DATABASE_URL = 'file:./data/baudbook.db';
 
 function openClient(url: string): Client {
   if (url.startsWith('file:')) {
@@ -19,11 +17,12 @@ function openClient(url: string): Client {
   // Per-connection settings for a local file: no fsync at commit, checkpoints off the main thread.
   if (url.startsWith('file:')) configureConnections();
   // `timeout` is SQLite's busy timeout in ms: writers in other processes wait instead of failing with SQLITE_BUSY.
-  const raw = createClient({ url, authToken: process.env.DATABASE_AUTH_TOKEN || undefined, timeout: 5000 });
+  const raw = createClient({ url, authToken: config.databaseAuthToken, timeout: 5000 });
   return url.startsWith('file:') ? gateWrites(raw) : raw;
 }
 
-export const databaseUrl = process.env.DATABASE_URL || DEFAULT_DATABASE_URL;
+/** DATABASE_URL: a SQLite file (default `file:./data/baudbook.db`) or a libSQL server. */
+export const databaseUrl = config.databaseUrl;
 export const client = openClient(databaseUrl);
 export const db = drizzle(client, { schema });
 export type Db = typeof db;

@@ -1,10 +1,7 @@
-import { resolve } from 'node:path';
 import { migrate } from 'drizzle-orm/libsql/migrator';
+import { config } from '../config';
 import { client, databaseUrl, db } from './client';
 import { startCheckpointer } from './checkpointer';
-
-/** Folder of generated migrations; relative to the working directory unless MIGRATIONS_DIR is set. */
-const migrationsFolder = resolve(process.env.MIGRATIONS_DIR ?? 'drizzle');
 
 let ready: Promise<void> | null = null;
 
@@ -21,7 +18,7 @@ export function ensureDatabase(options: { checkpointer?: boolean } = {}): Promis
       const path = databaseUrl.slice('file:'.length);
       if (options.checkpointer && path && path !== ':memory:') startCheckpointer(path);
     }
-    await migrate(db, { migrationsFolder });
+    await migrate(db, { migrationsFolder: config.migrationsDir });
   })();
   return ready;
 }

@@ -64,7 +64,10 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
   child.stderr?.on('data', (d) => (output += d));
   const deadline = Date.now() + 20_000;
   for (;;) {
-    if (child.exitCode !== null) throw new Error(`Server exited early:\n${output}`);
+    if (child.exitCode !== null) {
+      rmSync(dir, { recursive: true, force: true });
+      throw new Error(`Server exited early (code ${child.exitCode}):\n${output}`);
+    }
     try {
       const res = await fetch(`${baseUrl}/api/health`);
       if (res.ok) break;

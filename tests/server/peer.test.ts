@@ -4,8 +4,12 @@
  * machine cannot produce over the network (a client whose socket is not loopback).
  */
 import { describe, expect, it } from 'vitest';
-import { clientAddress, hopAddress, quotaKeyOf, isLoopback, isLoopbackHost, parseTrustProxy, resolvePeer, trustedProxyPeers } from '../../server/peer.mjs';
-import { outboxMode } from '../../server/outbox.mjs';
+import { clientAddress, hopAddress, quotaKeyOf, isLoopback, isLoopbackHost, resolvePeer, trustedProxyPeers } from '../../server/peer.mjs';
+import { parseConfig } from '../../server/config.mjs';
+
+/** The settings as the server reads them at start (server/config.mjs applies server/outbox.mjs's rules). */
+const parseTrustProxy = (value: string | undefined) => parseConfig({ TRUST_PROXY: value }).trustProxy;
+const outboxMode = (env: Record<string, string>) => parseConfig(env).outbox;
 
 const req = (remoteAddress: string, headers: Record<string, string>) => ({ socket: { remoteAddress }, headers }) as never;
 
@@ -22,7 +26,7 @@ describe('client address', () => {
   it('never takes the header from a peer that is not a trusted proxy', () => {
     // Anyone who reaches the port directly is taken at the socket, whatever they claim.
     expect(clientAddress('203.0.113.9', '198.51.100.1', 1)).toBe('203.0.113.9');
-    const peers = trustedProxyPeers('10.0.0.5, 10.0.0.6');
+    const peers = trustedProxyPeers(parseConfig({ PROXY_ADDRESSES: '10.0.0.5, 10.0.0.6' }).proxyAddresses);
     expect(clientAddress('10.0.0.5', '198.51.100.1', 1, peers)).toBe('198.51.100.1');
     expect(clientAddress('10.0.0.7', '198.51.100.1', 1, peers)).toBe('10.0.0.7');
   });

@@ -2,7 +2,7 @@ import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { db } from '../../db/client';
 import * as schema from '../../db/schema';
-import { authSecret, baseUrl, secureCookies, signInLimit, trustedOrigins } from './config';
+import { config } from '../../config';
 import { CLIENT_IP_HEADER } from './client-ip';
 import { linkMessage, sendMail } from './mail';
 import { CONFIRM_LINK_HOURS } from '../auth/policy';
@@ -14,10 +14,10 @@ export const SESSION_UPDATE_AGE = 60 * 60 * 24;
 
 export const auth = betterAuth({
   appName: 'Baudbook',
-  baseURL: baseUrl,
+  baseURL: config.baseUrl,
   basePath: '/api/auth',
-  secret: authSecret,
-  trustedOrigins,
+  secret: config.authSecret,
+  trustedOrigins: config.trustedOrigins,
   database: drizzleAdapter(db, {
     provider: 'sqlite',
     schema: {
@@ -43,7 +43,7 @@ export const auth = betterAuth({
             'If it was you, sign in instead; if you have forgotten your password, ask for a reset link. If it was not you, ignore this message.',
           ],
           'Reset your password',
-          `${baseUrl}/forgot-password`,
+          `${config.baseUrl}/forgot-password`,
         ),
       );
     },
@@ -91,15 +91,15 @@ export const auth = betterAuth({
     window: 60,
     max: 300,
     customRules: {
-      '/sign-in/email': { window: signInLimit.windowSeconds, max: signInLimit.max },
+      '/sign-in/email': { window: config.signInLimit.windowSeconds, max: config.signInLimit.max },
       '/request-password-reset': { window: 60, max: 5 },
       '/sign-up/email': { window: 60, max: 20 },
     },
   },
   advanced: {
-    useSecureCookies: secureCookies,
+    useSecureCookies: config.secureCookies,
     ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
-    defaultCookieAttributes: { httpOnly: true, sameSite: 'lax', secure: secureCookies },
+    defaultCookieAttributes: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies },
   },
   telemetry: { enabled: false },
 });

@@ -4,7 +4,7 @@ import nodemailer from 'nodemailer';
 import { desc, sql } from 'drizzle-orm';
 import { db } from '../../db/client';
 import { outboxMessage } from '../../db/schema';
-import { mailFrom, outboxMode, smtpUrl } from './config';
+import { config } from '../../config';
 
 export interface MailMessage {
   to: string;
@@ -17,9 +17,9 @@ let transport: nodemailer.Transporter | null = null;
 
 /** Sends through SMTP when SMTP_URL is set, otherwise keeps the message in the local outbox. */
 export async function sendMail(message: MailMessage): Promise<void> {
-  if (smtpUrl) {
-    transport ??= nodemailer.createTransport(smtpUrl);
-    await transport.sendMail({ from: mailFrom, ...message });
+  if (config.smtpUrl) {
+    transport ??= nodemailer.createTransport(config.smtpUrl);
+    await transport.sendMail({ from: config.mailFrom, ...message });
     return;
   }
   await db.insert(outboxMessage).values({ id: crypto.randomUUID(), ...message });
@@ -43,12 +43,12 @@ function sameKey(given: string | undefined, key: string): boolean {
  * `key`, or the cookie that link sets); under `astro dev` there is no key and the first condition suffices.
  */
 export function outboxView(locals: App.Locals, cookies: AstroCookies, key?: string | null): OutboxView {
-  if (outboxMode === 'local') {
+  if (config.outbox === 'local') {
     if (!locals.peer.atMachine) return null;
     if (!locals.outboxKey) return import.meta.env.DEV ? { kind: 'all' } : null;
     return sameKey(key ?? cookies.get(OUTBOX_COOKIE)?.value, locals.outboxKey) ? { kind: 'all' } : null;
   }
-  if (outboxMode === 'own') return locals.user ? { kind: 'own', email: locals.user.email } : null;
+  if (config.outbox === 'own') return locals.user ? { kind: 'own', email: locals.user.email } : null;
   return null;
 }
 

@@ -3,7 +3,7 @@ import { db } from '../../db/client';
 import { invitation, membership, team, user } from '../../db/schema';
 import { assignableRoles, type Role } from '../permissions';
 import type { TeamContext } from './guard';
-import { baseUrl, invitationDays } from './config';
+import { config } from '../../config';
 import { linkMessage, sendMail } from './mail';
 import { newId, randomToken, sha256 } from './ids';
 import { Conflict, Forbidden, Gone, Invalid, NotFound } from './errors';
@@ -66,7 +66,7 @@ export async function inviteMember(ctx: TeamContext, email: string, role: Role) 
   if (existing) throw new Conflict(`${email} is already a member of this team.`);
   const token = randomToken();
   const id = newId('inv');
-  const expiresAt = new Date(Date.now() + invitationDays * 86_400_000);
+  const expiresAt = new Date(Date.now() + config.invitationDays * 86_400_000);
   await db.transaction(async (tx) => {
     // A newer invitation replaces any open one for the same address.
     await tx
@@ -75,7 +75,7 @@ export async function inviteMember(ctx: TeamContext, email: string, role: Role) 
       .where(and(eq(invitation.teamId, ctx.team.id), eq(invitation.email, email), isNull(invitation.acceptedAt), isNull(invitation.revokedAt)));
     await tx.insert(invitation).values({ id, teamId: ctx.team.id, email, role, tokenHash: sha256(token), invitedBy: ctx.user.id, expiresAt });
   });
-  const url = `${baseUrl}/invitations/accept?token=${token}`;
+  const url = `${config.baseUrl}/invitations/accept?token=${token}`;
   await sendMail(
     linkMessage(
       email,

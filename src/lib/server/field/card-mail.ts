@@ -2,13 +2,13 @@
 import type { TeamContext } from '../guard';
 import { sendMail } from '../mail';
 import { CAUTION } from '../../field/card';
-import { baseUrl } from './config';
+import { config } from '../../../config';
 import { deviceCard } from './cards';
 
 export async function emailCard(ctx: TeamContext, deviceId: string, to: string, message: string): Promise<{ sent: true; to: string }> {
   const card = await deviceCard(ctx, deviceId);
   const title = card.device.name ? `${card.device.tag} ${card.device.name}` : card.device.tag;
-  const url = `${baseUrl}/field/devices/${card.device.id}`;
+  const url = `${config.baseUrl}/field/devices/${card.device.id}`;
   const body = [
     `${ctx.user.name} (${ctx.team.name}) sent you the field card of ${title} — ${card.machine.name}, ${card.site.name}.`,
     ...(message ? ['', message] : []),

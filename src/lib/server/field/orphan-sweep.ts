@@ -8,7 +8,7 @@ import { inArray } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import { attachment } from '../../../db/schema';
 import { storage, type FileStorage, type StoredFile } from './storage';
-import { uploadSweep } from './config';
+import { config } from '../../../config';
 
 /** The keys attachments are stored under (`team_…/att_…`); anything else in the storage is left alone. */
 const ATTACHMENT_KEY = /^team_[A-Za-z0-9_-]+\/(att_[A-Za-z0-9_-]+)$/;
@@ -42,7 +42,7 @@ let started = false;
 let running: Promise<void> | null = null;
 
 function sweepOnce(): Promise<void> {
-  running ??= sweepOrphanFiles(uploadSweep.graceSeconds * 1000)
+  running ??= sweepOrphanFiles(config.uploadSweep.graceSeconds * 1000)
     .then((keys) => {
       if (keys.length) console.info(`Removed ${keys.length} stored file(s) without an attachment record.`);
     })
@@ -58,5 +58,5 @@ export function startOrphanSweep(): void {
   if (started) return;
   started = true;
   void sweepOnce();
-  if (uploadSweep.intervalSeconds > 0) setInterval(() => void sweepOnce(), uploadSweep.intervalSeconds * 1000).unref();
+  if (config.uploadSweep.intervalSeconds > 0) setInterval(() => void sweepOnce(), config.uploadSweep.intervalSeconds * 1000).unref();
 }

@@ -8,7 +8,7 @@ import type { TeamContext } from '../guard';
 import { newId, randomToken, sha256 } from '../ids';
 import { linkMessage, sendMail } from '../mail';
 import type { shareCreateSchema } from '../../schemas/field';
-import { baseUrl, shareDefaultDays, shareMaxDays } from './config';
+import { config, SHARE_MAX_DAYS } from '../../../config';
 import { liveMachine, liveSite } from './scope';
 import { Conflict, Invalid, notFound } from '../errors';
 
@@ -27,12 +27,12 @@ export function shareState(r: Pick<ShareRow, 'expiresAt' | 'revokedAt'>, now = D
 
 /** YYYY-MM-DD means through the end of that day (UTC); a full time is taken as given. */
 export function parseExpiry(raw: string | undefined, now = Date.now()): Date {
-  if (!raw) return new Date(now + shareDefaultDays * DAY);
+  if (!raw) return new Date(now + config.shareDefaultDays * DAY);
   const date = /^\d{4}-\d{2}-\d{2}$/.test(raw) ? new Date(`${raw}T23:59:59.999Z`) : new Date(raw);
   const fail = (msg: string) => new Invalid(`expiresAt: ${msg}`, { fields: { expiresAt: msg } });
   if (Number.isNaN(date.getTime())) throw fail('Enter the last day as YYYY-MM-DD.');
   if (date.getTime() <= now) throw fail('Choose a day in the future.');
-  if (date.getTime() > now + shareMaxDays * DAY) throw fail(`A link lasts at most ${shareMaxDays} days.`);
+  if (date.getTime() > now + SHARE_MAX_DAYS * DAY) throw fail(`A link lasts at most ${SHARE_MAX_DAYS} days.`);
   return date;
 }
 
@@ -56,7 +56,7 @@ async function findShare(ctx: TeamContext, id: string) {
   return { ...row.share, scopeName: row.scopeName };
 }
 
-export const shareUrl = (token: string) => `${baseUrl}/s/${token}`;
+export const shareUrl = (token: string) => `${config.baseUrl}/s/${token}`;
 
 /** Creates the link; the token is answered once (in `url`) and only its hash is kept. */
 export async function createShare(ctx: TeamContext, input: z.infer<typeof shareCreateSchema>): Promise<ShareView & { url: string }> {

@@ -2,7 +2,7 @@
 import { mkdir, readdir, readFile, rm, stat, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
 import { DeleteObjectCommand, GetObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
-import { s3Settings, uploadDir, type S3Settings } from './config';
+import { config, type S3Settings } from '../../../config';
 
 export interface FileStorage {
   readonly name: 'local' | 's3';
@@ -122,7 +122,7 @@ let instance: FileStorage | null = null;
 
 /** The configured backend: S3 when S3_BUCKET is set, otherwise the local upload folder. */
 export function storage(): FileStorage {
-  instance ??= s3Settings ? new S3Storage(s3Settings) : new LocalStorage(uploadDir);
+  instance ??= config.s3 ? new S3Storage(config.s3) : new LocalStorage(config.uploadDir);
   return instance;
 }
 

@@ -1,6 +1,6 @@
 import type { MiddlewareHandler } from 'astro';
 import { readSession } from '../session';
-import { secureCookies } from '../config';
+import { config } from '../../../config';
 
 export const TEAM_COOKIE = 'bb_team';
 
@@ -28,5 +28,5 @@ export const fillLocals: MiddlewareHandler = async (context, next) => {
 
 /** Remembers the active team for the team switcher (validated against membership on every request). */
 export function setActiveTeam(cookies: import('astro').AstroCookies, teamId: string): void {
-  cookies.set(TEAM_COOKIE, teamId, { path: '/', httpOnly: true, sameSite: 'lax', secure: secureCookies, maxAge: 31_536_000 });
+  cookies.set(TEAM_COOKIE, teamId, { path: '/', httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: 31_536_000 });
 }

@@ -1,6 +1,6 @@
 import type { MiddlewareHandler } from 'astro';
 import { startup } from '../startup';
-import { baseUrl, secureCookies, toolsRequestsPerMinute, trustedOrigins } from '../config';
+import { config } from '../../../config';
 import { clientIp, peerOf } from '../client-ip';
 import { quotaKeyOf } from '../../../../server/peer.mjs';
 import { takeQuota } from '../quota';
@@ -52,7 +52,7 @@ export const securityHeaders: MiddlewareHandler = async (context, next) => {
     headers.set('X-Frame-Options', 'DENY');
     headers.set('Content-Security-Policy', contentSecurityPolicy(headers.get('Content-Security-Policy')));
     headers.set('Permissions-Policy', 'camera=(self), microphone=(), geolocation=()');
-    if (secureCookies) headers.set('Strict-Transport-Security', 'max-age=15552000');
+    if (config.secureCookies) headers.set('Strict-Transport-Security', 'max-age=15552000');
     return response;
   } catch {
     // Immutable headers (e.g. a fetched response): copy into a new response.
@@ -84,20 +84,20 @@ export const originRule: MiddlewareHandler = async (context, next) => {
   if (!STATE_CHANGING.has(request.method) || url.pathname.startsWith('/api/tools/')) return next();
   const origin = request.headers.get('origin');
   if (origin && origin !== 'null') {
-    if (trustedOrigins.includes(origin)) return next();
-    return forbidden(`Requests from ${origin} are not accepted: send them from ${baseUrl}.`);
+    if (config.trustedOrigins.includes(origin)) return next();
+    return forbidden(`Requests from ${origin} are not accepted: send them from ${config.baseUrl}.`);
   }
   if (request.headers.get('sec-fetch-site') === 'same-origin' || !carriesSession(request)) return next();
-  return forbidden(`A signed-in ${request.method} needs an Origin header naming this app (${baseUrl}), as browsers send.`);
+  return forbidden(`A signed-in ${request.method} needs an Origin header naming this app (${config.baseUrl}), as browsers send.`);
 };
 
 /** Public tools API: a per-address request budget shared by all servers through the database. */
 export const toolsQuota: MiddlewareHandler = async (context, next) => {
   if (!context.url.pathname.startsWith('/api/tools/')) return next();
   const ip = quotaKeyOf(clientIp(context.locals));
-  const { allowed, retryAfter } = await takeQuota(`tools|${ip}`, toolsRequestsPerMinute, 60);
+  const { allowed, retryAfter } = await takeQuota(`tools|${ip}`, config.toolsRequestsPerMinute, 60);
   if (!allowed) {
-    return json({ error: `Too many requests: at most ${toolsRequestsPerMinute} a minute. Try again in ${retryAfter} s.` }, 429, {
+    return json({ error: `Too many requests: at most ${config.toolsRequestsPerMinute} a minute. Try again in ${retryAfter} s.` }, 429, {
       'Retry-After': String(retryAfter),
     });
   }
