@@ -13,9 +13,9 @@ const post = async (body: unknown) => {
 const hex = (text: string) => Buffer.from(text, 'latin1').toString('hex').toUpperCase().replace(/(..)(?!$)/g, '$1 ');
 const address = { type: 'integer', id: 'addr', name: 'address', label: 'Drive address', min: 1, max: 31 };
 const cr = { type: 'terminator', id: 'cr', bytes: '0D' };
-const setting = (arg: string, name: string) => ({
+const setting = (arg: string, name: string, max: number) => ({
   version: 1,
-  segments: [address, { type: 'literal', id: 'verb', bytes: hex(`!SET:/${arg}`) }, { type: 'integer', id: name, name, label: name, scale: { factor: 36000 }, min: 0.01, max: 50 }, cr],
+  segments: [address, { type: 'literal', id: 'verb', bytes: hex(`!SET:/${arg}`) }, { type: 'integer', id: name, name, label: name, scale: { factor: 36000 }, min: 0.01, max }, cr],
 });
 const index = {
   version: 1,
@@ -23,9 +23,9 @@ const index = {
 };
 const rules = { frameRules: { terminator: '0D', byteSet: 'printable', letterCase: 'upper', maxLength: 64 } };
 const steps = [
-  { template: setting('R', 'accel'), values: { address: 1, accel: 5 } },
-  { template: setting('F', 'decel'), values: { address: 1, decel: 4 } },
-  { template: setting('S', 'speed'), values: { address: 1, speed: 0.5 } },
+  { template: setting('R', 'accel', 50), values: { address: 1, accel: 5 } },
+  { template: setting('F', 'decel', 50), values: { address: 1, decel: 4 } },
+  { template: setting('S', 'speed', 10), values: { address: 1, speed: 0.5 } },
   { template: index, values: { address: 1, angle: 45 } },
 ];
 
@@ -33,7 +33,8 @@ describe('POST /api/tools/sequence through the running server', () => {
   test('four commands in one PLC string: bytes, spans, the literal with four $0D, time at 9600 8-N-1', async () => {
     const r = await post({ steps, settings: rules });
     expect(r.status).toBe(200);
-    // python3: 15 + 15 + 14 + 12 = 56 bytes; 56 × 10 / 9600 s = 58.333 ms
+    // python3: 15 + 15 + 14 + 12 = 56 bytes; 56 × 10 / 9600 s = 58.333 ms; widest 17 + 17 + 16 + 14 = 64
+    // ("31", 50 rev/s² = "1800000", 10 rev/s = "360000", "+36000")
     expect(r.body).toMatchObject({
       ok: true, mode: 'one-string', byteCount: 56, findings: [],
       notations: { iecLiteral: "'1!SET:/R180000$0D1!SET:/F144000$0D1!SET:/S18000$0D1!IDX:+4500$0D'" },
