@@ -5,7 +5,7 @@
  * scaling, `len(s) * 10 / 9600 * 1000` for the time at 9600 8-N-1), not by the code under test.
  */
 import { describe, expect, test } from 'vitest';
-import { type SequenceStepInput, assembleSequence, checkFrame, defaultPortSettings, longestFrame, portSettingsSchema } from '~/lib/frame';
+import { type SequenceStepInput, type Template, assembleSequence, checkFrame, defaultPortSettings, longestFrame, portSettingsSchema } from '~/lib/frame';
 import { hexOf, tpl } from './helpers';
 
 const codes = (f: { code: string }[]) => f.map((x) => x.code);
@@ -234,6 +234,14 @@ describe('edge bytes and empty input', () => {
       expect(s.plcString.capacity).toBeNull();
     }
     expect(codes(assembleSequence(move, { mode: 'both' as never }).findings)).toEqual(['field-invalid']);
+    // templates built in code without the schema: limits that are not numbers count as no limit
+    const typed = { version: 1, segments: [
+      { type: 'integer', id: 'a', name: 'a', label: 'A', width: Number.POSITIVE_INFINITY, pad: 'zero', sign: 'negative' },
+      { type: 'integer', id: 'b', name: 'b', label: 'B', min: Number.NEGATIVE_INFINITY, max: Number.NaN, pad: 'zero', sign: 'negative' },
+      { type: 'text', id: 't', name: 't', label: 'T', maxLength: Number.NaN, case: 'as-is' },
+    ] } as unknown as Template;
+    expect(longestFrame(typed)).toMatchObject({ byteCount: null, unlimited: [{ id: 'b', countedAs: 32 }, { id: 't', countedAs: null }] });
+    expect(assembleSequence([{ template: typed, values: { a: 1, b: 2, t: 'x' } }], { plcStringCapacity: 80 }).findings.map((f) => f.code)).toEqual(['field-invalid', 'plc-string-may-overflow']);
     const late = assembleSequence(move, { mode: 'separate', delayMs: -1 });
     expect(codes(late.findings)).toEqual(['field-invalid']);
     expect(late.timing.delayTotalMs).toBe(0);

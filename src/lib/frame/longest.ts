@@ -27,9 +27,9 @@ export interface LongestFrame {
  */
 function widestNumber(field: IntegerField | DecimalField): number | null {
   if (field.width !== undefined) return Number.isInteger(field.width) && field.width >= 1 && field.width <= MAX_NUMBER_CHARS ? field.width : 0;
-  if (field.min === undefined || field.max === undefined) return null;
+  if (!Number.isFinite(field.min) || !Number.isFinite(field.max)) return null;
   let widest = 0;
-  for (const bound of [field.min, field.max]) {
+  for (const bound of [field.min!, field.max!]) {
     const encoded = encodeField(field, { [field.name]: bound });
     const tooWide = encoded.findings.some((f) => f.code === 'field-too-wide');
     widest = Math.max(widest, tooWide ? MAX_NUMBER_CHARS : encoded.text.length);
@@ -43,7 +43,7 @@ function widestField(field: FieldSegment): number | null {
     case 'decimal':
       return widestNumber(field);
     case 'text':
-      return field.maxLength ?? null;
+      return Number.isInteger(field.maxLength) && field.maxLength! >= 0 ? field.maxLength! : null;
     case 'choice':
       return field.options.reduce((n, o) => Math.max(n, o.send.length), 0);
   }
