@@ -2,6 +2,7 @@ import { describe, expect, test } from 'vitest';
 import { POST as checksum } from '~/pages/api/tools/checksum';
 import { POST as convert } from '~/pages/api/tools/convert';
 import { POST as frame } from '~/pages/api/tools/frame';
+import { POST as sequence } from '~/pages/api/tools/sequence';
 import { POST as timing } from '~/pages/api/tools/timing';
 
 type Handler = typeof convert;
@@ -161,5 +162,43 @@ describe('POST /api/tools/frame', () => {
     expect(r.status).toBe(422);
     expect(r.body.error).toContain('segments.0.bytes');
     expect((await call(frame, { template: { version: 7, segments: [] } })).status).toBe(422);
+  });
+});
+
+describe('POST /api/tools/sequence', () => {
+  // invented syntax (the demo drive's, src/lib/composer/demo.ts): "1!IDX:+4500" then CR
+  const step = {
+    template: { version: 1, segments: [
+      { type: 'literal', id: 'cmd', bytes: '31 21 49 44 58 3A' },
+      { type: 'integer', id: 'a', name: 'angle', label: 'Angle', scale: { factor: 36000, divisor: 360 }, sign: 'always', min: -360, max: 360 },
+      { type: 'terminator', id: 'end', bytes: '0D' },
+    ] },
+    values: { angle: 45 },
+  };
+  test('200: two steps in one string, partial settings filled with defaults', async () => {
+    // 45° at 36,000 steps/rev = 4,500 steps; "1!IDX:+4500\r" is 12 bytes, twice is 24; 24 × 10 / 9600 s = 25 ms
+    const r = await call(sequence, { steps: [step, { ...step, values: { angle: -45 } }], settings: { frameRules: { terminator: '0D', byteSet: 'printable' } } });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ ok: true, mode: 'one-string', byteCount: 24, findings: [], plcString: { scope: 'whole-string', capacity: null, length: 24, longestLength: 26 } });
+    expect(r.body.notations.iecLiteral).toBe("'1!IDX:+4500$0D1!IDX:-4500$0D'");
+    expect(r.body.steps.map((s: { start: number; end: number }) => [s.start, s.end])).toEqual([[0, 12], [12, 24]]);
+    expect(r.body.timing).toMatchObject({ port: '9600 8-N-1', frameTimeMs: 25, sends: 1, totalMs: 25 });
+  });
+  test('422 with fields: no steps, too many steps, a bad template in a step, unknown keys, a delay without separate sends', async () => {
+    const bad = async (body: object, field: string) => {
+      const r = await call(sequence, body);
+      expect(r.status, field).toBe(422);
+      expect(r.body.fields, field).toHaveProperty([field]);
+    };
+    await bad({ steps: [] }, 'steps');
+    await bad({ steps: Array.from({ length: 33 }, () => step) }, 'steps');
+    await bad({ steps: [step, { ...step, template: { version: 1, segments: [{ type: 'literal', id: 'x', bytes: '0G' }] } }] }, 'steps.1.template.segments.0.bytes');
+    await bad({ steps: [step], plcStringCapacty: 80 }, '_');
+    await bad({ steps: [{ ...step, name: 'x' }] }, 'steps.0');
+    await bad({ steps: [step], delayMs: 10 }, 'delayMs');
+    await bad({ steps: [step], mode: 'separate', delayMs: -1 }, 'delayMs');
+    await bad({ steps: [step], plcStringCapacity: 0 }, 'plcStringCapacity');
+    await bad({ steps: [step], mode: 'both' }, 'mode');
+    expect((await call(sequence, { steps: Array.from({ length: 32 }, () => step) })).status).toBe(200);
   });
 });

@@ -14,6 +14,8 @@ export const FINDING_CODES = [
   'checksum-byte-order', 'checksum-over-characters',
   // reply decoding (decodeReply)
   'reply-mismatch', 'reply-too-short', 'reply-extra-bytes', 'reply-field-unreadable', 'checksum-mismatch',
+  // command sequences (assembleSequence)
+  'step-unterminated', 'plc-string-too-long', 'plc-string-may-overflow',
 ] as const;
 export type FindingCode = (typeof FINDING_CODES)[number];
 

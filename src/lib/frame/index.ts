@@ -25,13 +25,13 @@ export {
   type TextField, type ChoiceField, type ChecksumSegment, type Scale, type FieldValues,
   isField, loadTemplate, serializeTemplate, moveSegment,
 } from './template';
-export { hexBytesSchema } from './schema-common';
+export { hexBytesSchema, fieldValuesSchema } from './schema-common';
 export { MAX_NUMBER_CHARS, type NumberReading, readTypedNumber, roundHalfAway, scaleToRaw, rawToEngineering } from './field-format';
 
 export { type AssembledFrame, type SegmentSpan, assembleFrame } from './assemble';
 export { checkFrame } from './check-frame';
 export { checkChecksumProtocol } from './checksum-protocol';
-export { type FramePreview, previewFrame } from './preview';
+export { type FramePreview, type FrameCheckSettings, checkAssembledFrame, previewFrame } from './preview';
 export { FINDING_CODES, type Finding, type FindingCode, type Severity, isClean, overallState } from './findings';
 export { BYTE_SETS, type ByteSet, frameRulesSchema, type FrameRules, type FrameRulesInput, defaultFrameRules } from './frame-rules';
 
@@ -42,9 +42,15 @@ export {
 } from './port-settings';
 
 export {
-  MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, pollCycle, bitSequence,
-  type LineTiming, type PolledDevice, type BitCell, type BitKind, type BitSequence,
+  MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, roundMs, timingReport, pollCycle, bitSequence,
+  type LineTiming, type TimingReport, type PolledDevice, type BitCell, type BitKind, type BitSequence,
 } from './timing';
 
 export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';
 export { type DecodedReply, type DecodedField, type ChecksumVerdict, decodeReply } from './decode-reply';
+export { type LongestFrame, type UnlimitedField, longestFrame } from './longest';
+export {
+  SEQUENCE_MODES, MAX_SEQUENCE_STEPS, type SequenceMode, type SequenceStepInput, type SequenceOptions, type SequenceFinding,
+  type SequenceStep, type SequenceTiming, type PlcStringLength, type AssembledSequence, assembleSequence,
+} from './sequence';
+export { MAX_SEQUENCE_DELAY_MS, MAX_PLC_STRING_CAPACITY, sequenceStepSchema, sequenceSchema, type SequenceRequest } from './sequence-schema';

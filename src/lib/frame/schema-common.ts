@@ -14,3 +14,6 @@ export function hexBytes(text: string | undefined): Uint8Array {
   const r = parseHex(text);
   return r.ok ? r.value : new Uint8Array(0);
 }
+
+/** Field values as a request carries them, keyed by field name: text (at most 1,024 characters), a number, or null. */
+export const fieldValuesSchema = z.record(z.string(), z.union([z.string().max(1024), z.number(), z.null()]));

@@ -3,7 +3,7 @@
  * bits; Modbus RTU, for example, uses 11 bits (Modbus over Serial Line Specification and
  * Implementation Guide V1.02, 2.5.1). All times are milliseconds unless the name says µs.
  */
-import { type LineSettings, lineSettingsSchema } from './port-settings';
+import { type LineSettings, lineSettingsSchema, portShorthand } from './port-settings';
 import { type Result, failure, success } from './result';
 
 /** Above this rate the Modbus guide fixes the silent intervals (2.5.1.1). */
@@ -60,6 +60,40 @@ export function lineTiming(s: LineSettings, byteCount: number, replyByteCount = 
     turnaroundMs,
     ...gaps,
     transactionMs: frameTimeMs + turnaroundMs + replyTimeMs + gaps.interFrameGapMs,
+  };
+}
+
+/** Milliseconds rounded to nanoseconds (6 decimals), so JSON stays readable. */
+export function roundMs(x: number): number {
+  return Math.round(x * 1e6) / 1e6;
+}
+
+/** What `POST /api/tools/timing` answers: `lineTiming` with the port shorthand, times rounded by `roundMs`. */
+export interface TimingReport {
+  /** `9600 8-N-1` */
+  port: string;
+  bitsPerChar: number;
+  charsPerSecond: number;
+  charTimeMs: number;
+  frameTimeMs: number;
+  replyTimeMs: number;
+  interCharTimeoutMs: number;
+  interFrameGapMs: number;
+  transactionMs: number;
+}
+
+export function timingReport(s: LineSettings, byteCount: number, replyByteCount = 0, turnaroundMs = 0): TimingReport {
+  const t = lineTiming(s, byteCount, replyByteCount, turnaroundMs);
+  return {
+    port: portShorthand(s),
+    bitsPerChar: t.bitsPerChar,
+    charsPerSecond: roundMs(t.charsPerSecond),
+    charTimeMs: roundMs(t.charTimeMs),
+    frameTimeMs: roundMs(t.frameTimeMs),
+    replyTimeMs: roundMs(t.replyTimeMs),
+    interCharTimeoutMs: roundMs(t.interCharTimeoutMs),
+    interFrameGapMs: roundMs(t.interFrameGapMs),
+    transactionMs: roundMs(t.transactionMs),
   };
 }
 

@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { portSettingsSchema, previewFrame, templateSchema, toHex } from '../../../lib/frame';
+import { fieldValuesSchema, portSettingsSchema, previewFrame, templateSchema, toHex } from '../../../lib/frame';
 import { json, readJson, route, validate } from '../../../lib/server/http';
 
 const frameSchema = z.object({
   template: templateSchema,
-  values: z.record(z.string(), z.union([z.string().max(1024), z.number(), z.null()])).default({}),
+  values: fieldValuesSchema.default({}),
   settings: portSettingsSchema.optional(),
 });
 

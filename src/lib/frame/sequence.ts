@@ -1,0 +1,221 @@
+/**
+ * Command sequences: several templates with their values sent as one string (each step keeping its own
+ * terminator: acceleration, deceleration, velocity and distance in one PLC STRING) or one after another.
+ * Each step is assembled and checked as its own frame; only sequence-level findings are added.
+ */
+import { type SegmentSpan, assembleFrame } from './assemble';
+import { type Finding, isClean } from './findings';
+import { type UnlimitedField, longestFrame } from './longest';
+import { type RenderedNotations, renderAllNotations } from './notations';
+import { type LineSettings, defaultPortSettings } from './port-settings';
+import { type FrameCheckSettings, checkAssembledFrame } from './preview';
+import type { FieldValues, Template } from './template';
+import { type TimingReport, charTimeMs, roundMs, timingReport } from './timing';
+
+/** `one-string`: the steps' bytes back to back in one send; `separate`: one send per step, `delayMs` apart. */
+export const SEQUENCE_MODES = ['one-string', 'separate'] as const;
+export type SequenceMode = (typeof SEQUENCE_MODES)[number];
+/** Most steps the tools API accepts in one sequence. */
+export const MAX_SEQUENCE_STEPS = 32;
+
+export interface SequenceStepInput {
+  template: Template;
+  values?: FieldValues;
+}
+
+export interface SequenceOptions {
+  /** Line settings, frame rules and protocol; default `defaultPortSettings` (9600 8-N-1, no rules). */
+  settings?: LineSettings & FrameCheckSettings;
+  mode?: SequenceMode;
+  /** `separate` only: idle time from the last byte of one step to the first byte of the next, ms (default 0). */
+  delayMs?: number;
+  /** Characters the PLC STRING holds (its declared STRING[n] length); none = no capacity check. */
+  plcStringCapacity?: number;
+}
+
+/** A finding with `range` in whole-string offsets; `step` (0-based) names the step it came from. */
+export interface SequenceFinding extends Finding {
+  step?: number;
+}
+
+export interface SequenceStep {
+  index: number;
+  /** Bytes [start, end) of the whole string. */
+  start: number;
+  end: number;
+  byteCount: number;
+  /** byteCount × character time, ms (rounded as `roundMs`). */
+  frameTimeMs: number;
+  /** Bytes with every field at its widest; null when a text field has no maxLength. */
+  longestByteCount: number | null;
+  /** The step's segment map, in whole-string offsets. */
+  segments: SegmentSpan[];
+  findings: SequenceFinding[];
+}
+
+/** `timingReport` of the whole string, and what the sends add up to. */
+export interface SequenceTiming extends TimingReport {
+  /** Sends on the line: 1 for one string, one per step when separate. */
+  sends: number;
+  delayMs: number;
+  /** (steps − 1) × delayMs when separate, else 0. */
+  delayTotalMs: number;
+  /** frameTimeMs + delayTotalMs: first byte out to last byte out. */
+  totalMs: number;
+}
+
+/** Length of the PLC STRING(s) in characters: one per byte, however a notation writes it (`$0D` is one). */
+export interface PlcStringLength {
+  /** `whole-string` for one string; `each-step` when separate (each send its own STRING; the longest step counts). */
+  scope: 'whole-string' | 'each-step';
+  capacity: number | null;
+  length: number;
+  /** With every field at its widest; null when a text field has no maxLength. */
+  longestLength: number | null;
+}
+
+export interface AssembledSequence {
+  /** True when no finding is an error. */
+  ok: boolean;
+  mode: SequenceMode;
+  bytes: Uint8Array;
+  byteCount: number;
+  notations: RenderedNotations;
+  plcString: PlcStringLength;
+  steps: SequenceStep[];
+  /** Every step's findings in step order, then the sequence-level ones. */
+  findings: SequenceFinding[];
+  timing: SequenceTiming;
+}
+
+const stepName = (i: number) => `Step ${i + 1}`;
+const isCapacity = (c: number) => Number.isInteger(c) && c >= 1;
+
+/** Sequence-level options given in code without the schema: a finding each, and a usable value. */
+function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
+  const invalid = (message: string) => findings.push({ severity: 'error', code: 'field-invalid', message });
+  let mode: SequenceMode = options.mode ?? 'one-string';
+  if (!SEQUENCE_MODES.includes(mode)) {
+    invalid(`Sequence mode "${String(mode)}" is not one of ${SEQUENCE_MODES.join(', ')}; pick one.`);
+    mode = 'one-string';
+  }
+  let delayMs = mode === 'separate' ? (options.delayMs ?? 0) : 0;
+  if (!(Number.isFinite(delayMs) && delayMs >= 0)) {
+    invalid(`Delay ${String(delayMs)} ms is not a time of 0 ms or more; enter one.`);
+    delayMs = 0;
+  }
+  let capacity = options.plcStringCapacity ?? null;
+  if (capacity !== null && !isCapacity(capacity)) {
+    invalid(`PLC string capacity ${String(capacity)} is not a whole number of characters of 1 or more; enter the STRING's declared length.`);
+    capacity = null;
+  }
+  return { mode, delayMs, capacity };
+}
+
+/** A field without a width limit, and the step it is in. */
+type StepField = UnlimitedField & { step: number };
+/** The widest case of a string: its bytes (null = unbounded) and the fields that have no limit. */
+interface Widest {
+  byteCount: number | null;
+  unlimited: StepField[];
+}
+
+const listFields = (fields: readonly StepField[]) =>
+  fields.map((f) => `"${f.label}" (${stepName(f.step).toLowerCase()})`).join(', ');
+
+/**
+ * The capacity findings for one PLC string of `length` bytes starting at `at`: the actual string too long,
+ * else the widest case too long (or unbounded). `what` names the string in the messages.
+ */
+function capacityFindings(
+  what: string, at: number, length: number, longest: Widest, capacity: number, advice: string,
+): SequenceFinding[] {
+  if (length > capacity) {
+    return [{
+      severity: 'error', code: 'plc-string-too-long', range: [at + capacity, at + length],
+      message: `${what} is ${length} characters; the PLC string holds ${capacity}. Declare it STRING[${length}] or longer${advice}.`,
+    }];
+  }
+  const numbers = longest.unlimited.filter((f) => f.countedAs !== null);
+  const counted = numbers.length ? ` ${listFields(numbers)} ${numbers.length === 1 ? 'has' : 'have'} no width and no min and max, so ${numbers.length === 1 ? 'it is' : 'they are'} counted at ${numbers[0]!.countedAs} characters.` : '';
+  if (longest.byteCount === null) {
+    const texts = longest.unlimited.filter((f) => f.countedAs === null);
+    return [{
+      severity: 'error', code: 'plc-string-may-overflow',
+      message: `${what} has no upper length: text field ${listFields(texts)} has no maxLength. Give ${texts.length === 1 ? 'it' : 'each'} a maxLength so the string always fits the ${capacity} characters the PLC string holds (the values given make ${length}).${counted}`,
+    }];
+  }
+  if (longest.byteCount > capacity) {
+    return [{
+      severity: 'error', code: 'plc-string-may-overflow',
+      message: `With every field at its widest, ${what.toLowerCase()} is ${longest.byteCount} characters, more than the ${capacity} the PLC string holds (the values given make ${length}). Narrow the fields (width, min and max, maxLength) or declare STRING[${longest.byteCount}].${counted}`,
+    }];
+  }
+  return [];
+}
+
+/** Assembles and checks a sequence of steps; never throws on malformed input. */
+export function assembleSequence(steps: readonly SequenceStepInput[], options: SequenceOptions = {}): AssembledSequence {
+  const sequenceFindings: SequenceFinding[] = [];
+  const { mode, delayMs, capacity } = readOptions(options, sequenceFindings);
+  const settings = options.settings ?? defaultPortSettings;
+  const rules = settings.frameRules ?? {};
+  const charMs = charTimeMs(settings);
+
+  const parts: Uint8Array[] = [];
+  const out: SequenceStep[] = [];
+  const widest: Widest[] = [];
+  let at = 0;
+  steps.forEach((step, index) => {
+    const frame = assembleFrame(step.template, step.values ?? {});
+    const findings: SequenceFinding[] = checkAssembledFrame(step.template, frame, settings).map((f) => {
+      const g: SequenceFinding = { ...f, message: `${stepName(index)}: ${f.message}`, step: index };
+      if (f.range) g.range = [f.range[0] + at, f.range[1] + at];
+      return g;
+    });
+    if (mode === 'one-string' && index < steps.length - 1 && !rules.terminator && !frame.segments.some((s) => s.type === 'terminator')) {
+      findings.push({
+        severity: 'warning', code: 'step-unterminated', step: index,
+        message: `${stepName(index)} has no terminator, so in one string the device cannot tell where it ends and ${stepName(index + 1).toLowerCase()} begins. Add a terminator segment, or send the steps separately.`,
+      });
+    }
+    const longest = longestFrame(step.template);
+    widest.push({ byteCount: longest.byteCount, unlimited: longest.unlimited.map((f) => ({ ...f, step: index })) });
+    const byteCount = frame.byteCount;
+    out.push({
+      index, start: at, end: at + byteCount, byteCount, frameTimeMs: roundMs(byteCount * charMs), longestByteCount: longest.byteCount,
+      segments: frame.segments.map((s) => ({ ...s, start: s.start + at, end: s.end + at })), findings,
+    });
+    parts.push(frame.bytes);
+    at += byteCount;
+  });
+
+  const bytes = new Uint8Array(at);
+  parts.reduce((offset, p) => (bytes.set(p, offset), offset + p.length), 0);
+  if (steps.length === 0) sequenceFindings.push({ severity: 'warning', code: 'empty-frame', message: 'The sequence has no steps; add one.' });
+
+  let plcString: PlcStringLength;
+  if (mode === 'one-string') {
+    const longestLength = widest.reduce<number | null>((n, w) => (n === null || w.byteCount === null ? null : n + w.byteCount), 0);
+    plcString = { scope: 'whole-string', capacity, length: at, longestLength };
+    if (capacity !== null) {
+      const whole: Widest = { byteCount: longestLength, unlimited: widest.flatMap((w) => w.unlimited) };
+      sequenceFindings.push(...capacityFindings('The string', 0, at, whole, capacity, steps.length > 1 ? ', or send the steps separately' : ''));
+    }
+  } else {
+    const longestLength = widest.reduce<number | null>((n, w) => (n === null || w.byteCount === null ? null : Math.max(n, w.byteCount)), 0);
+    plcString = { scope: 'each-step', capacity, length: out.reduce((n, s) => Math.max(n, s.byteCount), 0), longestLength };
+    if (capacity !== null) {
+      for (const s of out) s.findings.push(...capacityFindings(stepName(s.index), s.start, s.byteCount, widest[s.index]!, capacity, '').map((f) => ({ ...f, step: s.index })));
+    }
+  }
+
+  const findings = out.flatMap((s) => s.findings).concat(sequenceFindings);
+  const sends = mode === 'separate' ? steps.length : Math.min(1, steps.length);
+  const delayTotalMs = Math.max(0, sends - 1) * delayMs;
+  const timing: SequenceTiming = {
+    ...timingReport(settings, at),
+    sends, delayMs, delayTotalMs: roundMs(delayTotalMs), totalMs: roundMs(at * charMs + delayTotalMs),
+  };
+  return { ok: isClean(findings), mode, bytes, byteCount: at, notations: renderAllNotations(bytes), plcString, steps: out, findings, timing };
+}
