@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { lineSettingsSchema, lineTiming, portShorthand } from '../../../lib/frame';
+import { lineSettingsSchema, lineTiming, lineShorthand } from '../../../lib/frame';
 import { json, readJson, route, validate } from '../../../lib/server/http';
 
 const timingSchema = lineSettingsSchema.extend({
@@ -17,7 +17,7 @@ export const POST: APIRoute = route(async ({ request }) => {
   const body = validate(timingSchema, await readJson(request, 64 * 1024));
   const t = lineTiming(body, body.byteCount, body.replyByteCount ?? 0, body.turnaroundMs ?? 0);
   return json({
-    port: portShorthand(body),
+    port: lineShorthand(body),
     bitsPerChar: t.bitsPerChar,
     charsPerSecond: ms(t.charsPerSecond),
     charTimeMs: ms(t.charTimeMs),
