@@ -56,5 +56,5 @@ it('a TCP port: the address as shorthand, no baud or framing', () => {
     { label: 'Termination', value: 'n/a' },
     { label: 'Protocol', value: 'Modbus RTU' },
   ]);
-  expect(card.copyText.split('\n').slice(0, 4)).toEqual(['PLC-1 — Ethernet', 'Port: TCP 192.168.0.10:502', 'Interface: Serial over TCP', 'Protocol: Modbus RTU']);
+  expect(card.copyText.split('\n').slice(0, 5)).toEqual(['PLC-1 — Ethernet', 'Port: TCP 192.168.0.10:502', 'Interface: Serial over TCP', 'Baud rate: 19200', 'Data bits: 8']);
 });

@@ -68,11 +68,16 @@ describe('full settings text', () => {
     ]);
   });
 
-  test('a TCP port: its address, protocol and timing, no baud or framing', () => {
+  test('a TCP port: its address first, then the line settings of the serial side and the rest', () => {
     const text = portSettingsText(port({ interface: 'tcp', tcpHost: '192.168.0.10', tcpPort: 502, baud: 19200, protocol: 'modbus-rtu', nodeAddress: 1, responseTimeoutMs: 500, retries: 2 }));
     expect(text).toBe([
       'Port: TCP 192.168.0.10:502',
       'Interface: Serial over TCP',
+      'Baud rate: 19200',
+      'Data bits: 8',
+      'Parity: None',
+      'Stop bits: 1',
+      'Handshake: None',
       'Protocol: Modbus RTU',
       'Node address: 1',
       'Response timeout: 500 ms',

@@ -313,7 +313,7 @@ describe('lists', () => {
     expect((await csv('ports'))[0]!.shorthand).toBe(want);
     expect((await csv('devices'))[0]!.ports).toBe(`Ethernet: ${want}`);
     expect(d.ports[0].shorthand).toBe(want);
-    expect(d.ports[0].text).toContain(`Port: ${want}\nInterface: Serial over TCP\nProtocol: Modbus RTU`);
+    expect(d.ports[0].text).toContain(`Port: ${want}\nInterface: Serial over TCP\nBaud rate: 19200\nData bits: 8\nParity: Even\n`);
     const card = await eng.get(`/field/devices/${d.id}`);
     expect(card.status).toBe(200);
     expect(card.body).toContain(`>${want}</p>`);

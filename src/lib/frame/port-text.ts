@@ -68,19 +68,21 @@ export function portShorthand(s: ShorthandSettings): string {
 
 const onOff = (on: boolean) => (on ? 'on' : 'off');
 
-/** Every setting of a port, one per line, for copying into a ticket or a commissioning sheet. */
+/**
+ * Every setting of a port, one per line, for copying into a ticket or a commissioning sheet. A TCP port keeps
+ * its line settings here: behind a serial-over-TCP server they are what that server's serial side is set to.
+ */
 export function portSettingsText(s: PortSettings): string {
-  const lines = [`Port: ${portShorthand(s)}`, `Interface: ${INTERFACE_LABELS[s.interface]}`];
-  if (s.interface !== 'tcp') {
-    lines.push(
-      `Baud rate: ${s.baud}`,
-      `Data bits: ${s.dataBits}`,
-      `Parity: ${PARITY_LABELS[s.parity]}`,
-      `Stop bits: ${s.stopBits}`,
-      `Handshake: ${HANDSHAKE_LABELS[s.handshake]}`,
-    );
-  }
-  lines.push(`Protocol: ${PROTOCOL_LABELS[s.protocol]}`);
+  const lines = [
+    `Port: ${portShorthand(s)}`,
+    `Interface: ${INTERFACE_LABELS[s.interface]}`,
+    `Baud rate: ${s.baud}`,
+    `Data bits: ${s.dataBits}`,
+    `Parity: ${PARITY_LABELS[s.parity]}`,
+    `Stop bits: ${s.stopBits}`,
+    `Handshake: ${HANDSHAKE_LABELS[s.handshake]}`,
+    `Protocol: ${PROTOCOL_LABELS[s.protocol]}`,
+  ];
   if (s.nodeAddress !== null) lines.push(`Node address: ${s.nodeAddress}`);
   if (s.interface.startsWith('rs485')) {
     lines.push(`RS-485 direction control: ${RS485_DIRECTION_LABELS[s.rs485Direction]}`);
