@@ -1,4 +1,5 @@
 /** Every vault record type: create, read, update, delete — valid, invalid (nothing written) and stale (409). */
+import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createTeamWithRoles, testDb, type TeamFixture, type TestClient } from '../helpers/client';
 import { expectOk, makeDevice, makeMachine, makeSite, rs485, uid } from './vault-fixtures';
@@ -259,7 +260,7 @@ describe('lists', () => {
   it('shows the shorthand and the text block of each port', async () => {
     const d = await makeDevice(eng);
     expect(d.ports[0].shorthand).toBe('9600 8-E-1');
-    expect(d.ports[0].text).toContain('Parity: even');
+    expect(d.ports[0].text).toContain('Parity: Even');
     const list = expectOk(await eng.get(`/api/devices?machineId=${d.machineId}`));
     expect(list.items[0].ports.map((p: { shorthand: string }) => p.shorthand)).toEqual(['9600 8-E-1', '19200 8-N-1']);
   });
@@ -292,9 +293,30 @@ describe('lists', () => {
     expect(fromDevices).toContain('P00 1200 7-N-1');
     expect(fromDevices).toContain('P04 1200 7-E-1.5');
     expect(fromDevices).toContain('P14 1200 7-S-2');
-    expect(fromDevices).toContain('P17 74880 8-N-1 @ gw-7.fernhollow.test:4001');
+    expect(fromDevices).toContain('P17 TCP gw-7.fernhollow.test:4001');
     expect(fromList).toEqual(fromDevices);
     for (const [inList, onDevice] of interfaces) expect(inList).toBe(onDevice);
+  });
+
+  it('writes a TCP port as its address alike in the list, on the device, on the card and in both CSV exports', async () => {
+    const m = await makeMachine(eng);
+    const settings = { interface: 'tcp', tcpHost: '192.168.0.10', tcpPort: 502, baud: 19200, parity: 'even', protocol: 'modbus-rtu' };
+    const d = await makeDevice(eng, m.id, { tag: `TCP-${uid()}`, ports: [{ name: 'Ethernet', settings }] });
+    const want = 'TCP 192.168.0.10:502';
+    const csv = async (table: string) => {
+      const res = await eng.request('GET', `/api/export/csv?table=${table}&machineId=${m.id}`);
+      expect(res.status).toBe(200);
+      return Papa.parse<Record<string, string>>(String(res.body).replace(/^\ufeff/, ''), { header: true, skipEmptyLines: true }).data;
+    };
+    const list = expectOk(await eng.get(`/api/devices?machineId=${m.id}`));
+    expect(list.items[0].ports[0].shorthand).toBe(want);
+    expect((await csv('ports'))[0]!.shorthand).toBe(want);
+    expect((await csv('devices'))[0]!.ports).toBe(`Ethernet: ${want}`);
+    expect(d.ports[0].shorthand).toBe(want);
+    expect(d.ports[0].text).toContain(`Port: ${want}\nInterface: Serial over TCP\nBaud rate: 19200\nData bits: 8\nParity: Even\n`);
+    const card = await eng.get(`/field/devices/${d.id}`);
+    expect(card.status).toBe(200);
+    expect(card.body).toContain(`>${want}</p>`);
   });
 
   it('lists sites and machines with their counts', async () => {

@@ -1,8 +1,7 @@
 /** The workbench's own port settings: line format, protocol and the frame rules that matter for a one-off command. */
 import { PARITIES, PROTOCOLS, STANDARD_BAUD_RATES, type PortSettings } from '../../lib/frame/port-settings';
+import { PARITY_LABELS, PROTOCOL_LABELS } from '../../lib/frame/port-text';
 import { HexInput } from './inputs';
-
-const PROTOCOL_LABELS: Record<PortSettings['protocol'], string> = { ascii: 'ASCII text', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' };
 
 export function PortQuick({ settings, onChange }: { settings: PortSettings; onChange: (s: PortSettings) => void }) {
   const set = (p: Partial<PortSettings>) => onChange({ ...settings, ...p });
@@ -24,7 +23,7 @@ export function PortQuick({ settings, onChange }: { settings: PortSettings; onCh
       <div>
         <label htmlFor="wb-parity" className="label !text-xs">Parity</label>
         <select id="wb-parity" className="input !py-1" value={settings.parity} onChange={(e) => set({ parity: e.target.value as PortSettings['parity'] })}>
-          {PARITIES.map((p) => <option key={p} value={p}>{p}</option>)}
+          {PARITIES.map((p) => <option key={p} value={p}>{PARITY_LABELS[p]}</option>)}
         </select>
       </div>
       <div>

@@ -6,7 +6,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, ApiError } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { portInputSchema, type PortInput } from '../../lib/schemas/vault';
-import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, STANDARD_BAUD_RATES } from '../../lib/frame/port-settings';
+import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, RS485_DIRECTIONS, STANDARD_BAUD_RATES } from '../../lib/frame/port-settings';
+import { HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS } from '../../lib/frame/port-text';
 import { BYTE_SETS } from '../../lib/frame/frame-rules';
 import { FormField } from '../FormField';
 import { ConflictPanel } from './ConflictPanel';
@@ -16,12 +17,8 @@ import { dirtyPaths, flatten, getPath, setPath } from './paths';
 
 export interface PortRecord extends PortInput { id: string; version: number; shorthand: string; text: string }
 
+/** Frame-rule choices; the port settings' own labels are in lib/frame/port-text.ts. */
 const LABELS = {
-  interface: { rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire', ttl: 'TTL UART', 'usb-vcp': 'USB virtual COM port', tcp: 'Serial over TCP' },
-  parity: { none: 'None', even: 'Even', odd: 'Odd', mark: 'Mark', space: 'Space' },
-  handshake: { none: 'None', 'rts-cts': 'RTS/CTS', 'xon-xoff': 'XON/XOFF', 'dtr-dsr': 'DTR/DSR' },
-  protocol: { ascii: 'Delimited ASCII commands', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' },
-  direction: { none: 'None', rts: 'RTS high while transmitting', auto: 'Automatic' },
   byteSet: { printable: 'Printable only (20-7E)', '7-bit': '7-bit (00-7F)', '8-bit': 'Any byte' },
   letterCase: { any: 'Any case', upper: 'Upper case', lower: 'Lower case' },
 } as const;
@@ -91,16 +88,16 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
       <Caution />
       <div className="grid gap-x-3 sm:grid-cols-3">
         <FormField id={f('name')} label="Port name" error={err('name')}><input id={f('name')} className="input" {...form.register('name')} /></FormField>
-        <Select reg={form.register} id={f('interface')} name="settings.interface" label="Electrical interface" options={INTERFACES.map((i) => [i, LABELS.interface[i]])} />
+        <Select reg={form.register} id={f('interface')} name="settings.interface" label="Electrical interface" options={INTERFACES.map((i) => [i, INTERFACE_LABELS[i]])} />
         <FormField id={f('baud')} label="Baud rate" error={err('settings.baud')} hint="Standard rates offered; any positive rate allowed">
           <input id={f('baud')} className="input mono" list="baud-rates" inputMode="numeric" {...form.register('settings.baud', { setValueAs: (v) => (v === '' ? NaN : Number(v)) })} />
         </FormField>
         <datalist id="baud-rates">{STANDARD_BAUD_RATES.map((b) => <option key={b} value={b} />)}</datalist>
         <Select reg={form.register} id={f('dataBits')} name="settings.dataBits" label="Data bits" options={[5, 6, 7, 8].map((n) => [n, String(n)])} number />
-        <Select reg={form.register} id={f('parity')} name="settings.parity" label="Parity" options={PARITIES.map((p) => [p, LABELS.parity[p]])} />
+        <Select reg={form.register} id={f('parity')} name="settings.parity" label="Parity" options={PARITIES.map((p) => [p, PARITY_LABELS[p]])} />
         <Select reg={form.register} id={f('stopBits')} name="settings.stopBits" label="Stop bits" options={[[1, '1'], [1.5, '1.5'], [2, '2']]} number />
-        <Select reg={form.register} id={f('handshake')} name="settings.handshake" label="Handshaking" options={HANDSHAKES.map((h) => [h, LABELS.handshake[h]])} />
-        <Select reg={form.register} id={f('protocol')} name="settings.protocol" label="Protocol" options={PROTOCOLS.map((p) => [p, LABELS.protocol[p]])} />
+        <Select reg={form.register} id={f('handshake')} name="settings.handshake" label="Handshaking" options={HANDSHAKES.map((h) => [h, HANDSHAKE_LABELS[h]])} />
+        <Select reg={form.register} id={f('protocol')} name="settings.protocol" label="Protocol" options={PROTOCOLS.map((p) => [p, PROTOCOL_LABELS[p]])} />
         <FormField id={f('addr')} label="Node address" error={err('settings.nodeAddress')} hint="Blank when the protocol has none">
           <input id={f('addr')} className="input mono" inputMode="numeric" {...form.register('settings.nodeAddress', { setValueAs: nullNumber })} />
         </FormField>
@@ -114,7 +111,7 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
       {iface?.startsWith('rs485') && (
         <fieldset className="grid gap-x-3 sm:grid-cols-3 items-end">
           <legend className="font-semibold text-sm mb-1">RS-485</legend>
-          <Select reg={form.register} id={f('dir')} name="settings.rs485Direction" label="Direction control" options={(['none', 'rts', 'auto'] as const).map((d) => [d, LABELS.direction[d]])} />
+          <Select reg={form.register} id={f('dir')} name="settings.rs485Direction" label="Direction control" options={RS485_DIRECTIONS.map((d) => [d, RS485_DIRECTION_LABELS[d]])} />
           <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.termination')} /> Termination on at this device</label>
           <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.bias')} /> Bias on at this device</label>
         </fieldset>

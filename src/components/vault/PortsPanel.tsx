@@ -5,7 +5,8 @@ import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
 import { PortForm, type PortRecord } from './PortForm';
-import { ErrorNotice, INTERFACE_LABEL, PROTOCOL_LABEL } from './shared';
+import { ErrorNotice } from './shared';
+import { INTERFACE_LABELS, PROTOCOL_LABELS } from '../../lib/frame/port-text';
 import { CopyButton } from '../ui/CopyButton';
 import { HistoryList } from './HistoryPanel';
 
@@ -38,7 +39,7 @@ function Ports({ device, canEdit }: Props) {
           <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
             <h3 className="font-semibold">{p.name}</h3>
             <span className="mono text-lg" data-testid="shorthand">{p.shorthand}</span>
-            <span className="text-sm text-muted">{INTERFACE_LABEL[p.settings.interface]} · {PROTOCOL_LABEL[p.settings.protocol]}{p.settings.nodeAddress !== null ? ` · address ${p.settings.nodeAddress}` : ''}</span>
+            <span className="text-sm text-muted">{INTERFACE_LABELS[p.settings.interface]} · {PROTOCOL_LABELS[p.settings.protocol]}{p.settings.nodeAddress !== null ? ` · address ${p.settings.nodeAddress}` : ''}</span>
             <span className="text-xs text-muted ml-auto">version {p.version}</span>
           </div>
           <details className="mt-2">

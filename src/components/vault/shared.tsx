@@ -72,8 +72,3 @@ export function fieldLabel(field: string): string {
 }
 
 export const isConflict = (e: unknown): e is ApiError => e instanceof ApiError && e.status === 409;
-
-export const INTERFACE_LABEL: Record<string, string> = {
-  rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire', ttl: 'TTL UART', 'usb-vcp': 'USB virtual COM port', tcp: 'Serial over TCP',
-};
-export const PROTOCOL_LABEL: Record<string, string> = { ascii: 'delimited ASCII', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'other protocol' };

@@ -1,6 +1,7 @@
 /** The timing panel's rows, from port settings and the frame and reply sizes. */
 import { lineTiming, MODBUS_FIXED_TIMING_ABOVE_BAUD, pollCycle } from '../frame/timing';
-import { portShorthand, type LineSettings, type PortSettings } from '../frame/port-settings';
+import type { LineSettings, PortSettings } from '../frame/port-settings';
+import { lineShorthand } from '../frame/port-text';
 import { ms, rate } from './format';
 
 export interface TimingRow {
@@ -40,5 +41,5 @@ export function timingSummary(settings: LineSettings & Partial<PortSettings>, re
     { id: 'transaction', label: 'One transaction', value: ms(t.transactionMs), how: replyBytes === null ? 'frame + gap' : 'frame + turnaround + reply + gap' },
     { id: 'polls', label: 'Polls per second', value: rate(cycle.pollsPerSecond), how: 'this command alone, back to back on the line' },
   );
-  return { shorthand: portShorthand(settings), rows, frameTimeMs: t.frameTimeMs, pollsPerSecond: cycle.pollsPerSecond };
+  return { shorthand: lineShorthand(settings), rows, frameTimeMs: t.frameTimeMs, pollsPerSecond: cycle.pollsPerSecond };
 }

@@ -1,15 +1,11 @@
 /** The content of a field card, built from vault records: what a technician reads at the cabinet. */
-import { portSettingsText, type PortSettings, type Template, type FieldValues } from '../frame';
+import {
+  HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, portSettingsBlock, portShorthand,
+  type PortSettings, type Template, type FieldValues,
+} from '../frame';
 import { renderCommandVariants, type CommandPreset, type CommandRendering } from '../composer/presets';
 
 export { MACHINERY_CAUTION as CAUTION } from '../caution';
-
-const PARITY_TEXT = { none: 'None', even: 'Even', odd: 'Odd', mark: 'Mark', space: 'Space' } as const;
-const INTERFACE_TEXT: Record<PortSettings['interface'], string> = {
-  rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire', ttl: 'TTL', 'usb-vcp': 'USB COM', tcp: 'TCP',
-};
-const PROTOCOL_TEXT = { ascii: 'ASCII', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' } as const;
-const HANDSHAKE_TEXT = { none: 'None', 'rts-cts': 'RTS/CTS', 'xon-xoff': 'XON/XOFF', 'dtr-dsr': 'DTR/DSR' } as const;
 
 export interface CardPortInput {
   id: string;
@@ -52,32 +48,25 @@ export interface CardCommand {
   line: string | null;
 }
 
-export function cardShorthand(s: PortSettings): string {
-  if (s.interface === 'tcp') return `TCP ${s.tcpHost ?? ''}:${s.tcpPort ?? ''}`;
-  const p = { none: 'N', even: 'E', odd: 'O', mark: 'M', space: 'S' }[s.parity];
-  return `${s.baud} ${s.dataBits}-${p}-${s.stopBits}`;
-}
-
 export function cardPort(p: CardPortInput, heading: string): CardPort {
   const s = p.settings;
   const rs485 = s.interface.startsWith('rs485');
   const facts = [
-    { label: 'Interface', value: INTERFACE_TEXT[s.interface] },
+    { label: 'Interface', value: INTERFACE_LABELS[s.interface] },
     ...(s.interface === 'tcp' ? [] : [
       { label: 'Baud', value: String(s.baud) },
       { label: 'Data bits', value: String(s.dataBits) },
-      { label: 'Parity', value: PARITY_TEXT[s.parity] },
+      { label: 'Parity', value: PARITY_LABELS[s.parity] },
       { label: 'Stop bits', value: String(s.stopBits) },
-      { label: 'Handshake', value: HANDSHAKE_TEXT[s.handshake] },
+      { label: 'Handshake', value: HANDSHAKE_LABELS[s.handshake] },
     ]),
     { label: 'Node address', value: s.nodeAddress === null ? '—' : String(s.nodeAddress) },
     { label: 'Termination', value: rs485 ? (s.termination ? 'ON' : 'off') : 'n/a' },
     ...(rs485 ? [{ label: 'Bias', value: s.bias ? 'ON' : 'off' }] : []),
-    { label: 'Protocol', value: PROTOCOL_TEXT[s.protocol] },
+    { label: 'Protocol', value: PROTOCOL_LABELS[s.protocol] },
   ];
-  const wiring = p.wiring.length ? ['Wiring:', ...p.wiring.map((w) => `  pin ${w.pin || '-'}  ${w.signal || '-'}  ${w.colour}`.trimEnd())] : [];
-  const copyText = [`${heading} — ${p.name}`, portSettingsText(s), ...wiring].join('\n');
-  return { id: p.id, name: p.name, shorthand: cardShorthand(s), facts, wiring: p.wiring, notes: p.notes, copyText };
+  const copyText = portSettingsBlock(p.name, s, p.wiring, heading);
+  return { id: p.id, name: p.name, shorthand: portShorthand(s), facts, wiring: p.wiring, notes: p.notes, copyText };
 }
 
 /**
@@ -90,6 +79,6 @@ export function cardCommand(c: CardCommandInput, ports: { name: string; settings
   return {
     id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
     sends: renderCommandVariants(c, port ? port.settings : null),
-    line: port ? `${port.name}, ${cardShorthand(port.settings)}` : null,
+    line: port ? `${port.name}, ${portShorthand(port.settings)}` : null,
   };
 }

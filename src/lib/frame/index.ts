@@ -36,10 +36,15 @@ export { FINDING_CODES, type Finding, type FindingCode, type Severity, isClean, 
 export { BYTE_SETS, type ByteSet, frameRulesSchema, type FrameRules, type FrameRulesInput, defaultFrameRules } from './frame-rules';
 
 export {
-  INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, STANDARD_BAUD_RATES, type PortInterface, type Parity, type StopBits,
-  lineSettingsSchema, type LineSettings, portSettingsSchema, type PortSettings, type PortSettingsInput,
-  defaultPortSettings, portShorthand, portSettingsText,
+  INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, RS485_DIRECTIONS, STANDARD_BAUD_RATES, type PortInterface, type Parity, type StopBits,
+  type Handshake, type Protocol, type Rs485Direction,
+  lineSettingsSchema, type LineSettings, portSettingsSchema, type PortSettings, type PortSettingsInput, defaultPortSettings,
 } from './port-settings';
+export {
+  PARITY_LETTERS, INTERFACE_LABELS, PARITY_LABELS, HANDSHAKE_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS,
+  SHORTHAND_PIECES, type ShorthandPiece, type ShorthandSettings, type WiringRow,
+  lineShorthand, portShorthand, portSettingsText, frameRulesText, portSettingsBlock,
+} from './port-text';
 
 export {
   MODBUS_FIXED_TIMING_ABOVE_BAUD, bitsPerChar, charTimeMs, silentIntervals, lineTiming, roundMs, timingReport, pollCycle, bitSequence,

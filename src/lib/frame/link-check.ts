@@ -1,6 +1,7 @@
 /** Checks that the devices sharing one serial link agree and that an RS-485 bus is built correctly. */
 import { overallState, type Severity } from './findings';
-import { type PortInterface, type PortSettings, portShorthand } from './port-settings';
+import type { PortInterface, PortSettings } from './port-settings';
+import { lineShorthand } from './port-text';
 
 export interface LinkMember {
   id: string;
@@ -69,7 +70,7 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
     for (const m of members) {
       if (m === ref) continue;
       const s = m.settings;
-      const fix = (what: string, want: string | number) => `${m.label}: set ${what} to ${want} to match ${ref.label} (${portShorthand(r)}).`;
+      const fix = (what: string, want: string | number) => `${m.label}: set ${what} to ${want} to match ${ref.label} (${lineShorthand(r)}).`;
       if (s.baud !== r.baud) add('error', 'baud-mismatch', fix('the baud rate', r.baud), m.id);
       if (s.dataBits !== r.dataBits) add('error', 'data-bits-mismatch', fix('data bits', r.dataBits), m.id);
       if (s.parity !== r.parity) add('error', 'parity-mismatch', fix('parity', r.parity), m.id);

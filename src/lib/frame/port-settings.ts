@@ -1,4 +1,4 @@
-/** Serial port settings model, shared by the frame engine, the link checks and the settings vault. */
+/** Serial port settings model, shared by the frame engine, the link checks and the settings vault. How they read in words: ./port-text.ts. */
 import { z } from 'zod';
 import { defaultFrameRules, frameRulesSchema } from './frame-rules';
 
@@ -6,9 +6,13 @@ export const INTERFACES = ['rs232', 'rs422', 'rs485-2w', 'rs485-4w', 'ttl', 'usb
 export const PARITIES = ['none', 'even', 'odd', 'mark', 'space'] as const;
 export const HANDSHAKES = ['none', 'rts-cts', 'xon-xoff', 'dtr-dsr'] as const;
 export const PROTOCOLS = ['ascii', 'modbus-rtu', 'modbus-ascii', 'other'] as const;
+export const RS485_DIRECTIONS = ['none', 'rts', 'auto'] as const;
 
 export type PortInterface = (typeof INTERFACES)[number];
 export type Parity = (typeof PARITIES)[number];
+export type Handshake = (typeof HANDSHAKES)[number];
+export type Protocol = (typeof PROTOCOLS)[number];
+export type Rs485Direction = (typeof RS485_DIRECTIONS)[number];
 export type StopBits = 1 | 1.5 | 2;
 
 /** Common UART bit rates, bit/s. Other positive integers are allowed. */
@@ -36,7 +40,7 @@ export const portSettingsSchema = z
     stopBits: z.union([z.literal(1), z.literal(1.5), z.literal(2)]).default(1),
     handshake: z.enum(HANDSHAKES).default('none'),
     /** How a 2-wire RS-485 transmitter is switched on: by the RTS line, automatically, or not at all. */
-    rs485Direction: z.enum(['none', 'rts', 'auto']).default('none'),
+    rs485Direction: z.enum(RS485_DIRECTIONS).default('none'),
     /** Device address on a bus (Modbus: 1-247), or null when the protocol has none. */
     nodeAddress: z.number().int().min(0).max(65535).nullable().default(null),
     /** Line termination resistor switched in at this device. */
@@ -81,43 +85,3 @@ export const defaultPortSettings: PortSettings = {
   protocol: 'ascii',
   frameRules: defaultFrameRules,
 };
-
-const PARITY_LETTER: Record<Parity, string> = { none: 'N', even: 'E', odd: 'O', mark: 'M', space: 'S' };
-
-/** `9600 8-N-1`: baud, data bits, parity letter (N E O M S), stop bits. */
-export function portShorthand(s: LineSettings): string {
-  return `${s.baud} ${s.dataBits}-${PARITY_LETTER[s.parity]}-${s.stopBits}`;
-}
-
-const INTERFACE_TEXT: Record<PortInterface, string> = {
-  rs232: 'RS-232', rs422: 'RS-422', 'rs485-2w': 'RS-485 2-wire', 'rs485-4w': 'RS-485 4-wire',
-  ttl: 'TTL serial', 'usb-vcp': 'USB virtual COM port', tcp: 'TCP',
-};
-const HANDSHAKE_TEXT = { none: 'none', 'rts-cts': 'RTS/CTS', 'xon-xoff': 'XON/XOFF', 'dtr-dsr': 'DTR/DSR' } as const;
-const PROTOCOL_TEXT = { ascii: 'ASCII', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'other' } as const;
-
-/** A plain multi-line summary for copying into a ticket or a commissioning sheet. */
-export function portSettingsText(s: PortSettings): string {
-  const lines = [
-    `Port: ${portShorthand(s)}`,
-    `Interface: ${INTERFACE_TEXT[s.interface]}${s.interface === 'tcp' && s.tcpHost ? ` ${s.tcpHost}:${s.tcpPort ?? ''}` : ''}`,
-    `Baud rate: ${s.baud}`,
-    `Data bits: ${s.dataBits}`,
-    `Parity: ${s.parity}`,
-    `Stop bits: ${s.stopBits}`,
-    `Handshake: ${HANDSHAKE_TEXT[s.handshake]}`,
-    `Protocol: ${PROTOCOL_TEXT[s.protocol]}`,
-  ];
-  if (s.nodeAddress !== null) lines.push(`Node address: ${s.nodeAddress}`);
-  if (s.interface.startsWith('rs485')) {
-    lines.push(`RS-485 direction control: ${s.rs485Direction}`);
-    lines.push(`Termination: ${s.termination ? 'on' : 'off'}`, `Bias: ${s.bias ? 'on' : 'off'}`);
-  }
-  lines.push(
-    `Response timeout: ${s.responseTimeoutMs} ms`,
-    `Inter-character timeout: ${s.interCharTimeoutMs} ms`,
-    `Turnaround delay: ${s.turnaroundDelayMs} ms`,
-    `Retries: ${s.retries}`,
-  );
-  return lines.join('\n');
-}

@@ -3,7 +3,8 @@
  * bits; Modbus RTU, for example, uses 11 bits (Modbus over Serial Line Specification and
  * Implementation Guide V1.02, 2.5.1). All times are milliseconds unless the name says µs.
  */
-import { type LineSettings, lineSettingsSchema, portShorthand } from './port-settings';
+import { type LineSettings, lineSettingsSchema } from './port-settings';
+import { lineShorthand } from './port-text';
 import { type Result, failure, success } from './result';
 
 /** Above this rate the Modbus guide fixes the silent intervals (2.5.1.1). */
@@ -85,7 +86,7 @@ export interface TimingReport {
 export function timingReport(s: LineSettings, byteCount: number, replyByteCount = 0, turnaroundMs = 0): TimingReport {
   const t = lineTiming(s, byteCount, replyByteCount, turnaroundMs);
   return {
-    port: portShorthand(s),
+    port: lineShorthand(s),
     bitsPerChar: t.bitsPerChar,
     charsPerSecond: roundMs(t.charsPerSecond),
     charTimeMs: roundMs(t.charTimeMs),

@@ -11,7 +11,7 @@ import { listMachines } from '../vault/machines';
 import { listDevices } from '../vault/devices';
 import { listLinks } from '../vault/links';
 import { listProfiles } from '../vault/profiles';
-import { cardShorthand } from '../../field/card';
+import { portShorthand } from '../../frame/port-text';
 import { guardCell } from '../../field/csv';
 import { nextTurn } from '../jobs/turns';
 import { Invalid } from '../errors';
@@ -73,7 +73,7 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
     .orderBy(o.dir === 'desc' ? desc(device.tag) : asc(device.tag), asc(port.position)).limit(MAX_ROWS);
   return {
     columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'nodeAddress', 'termination', 'protocol', 'version'],
-    rows: rows.map(({ port: p, tag, machineName }) => [p.id, machineName, tag, p.name, cardShorthand(p.settings), p.settings.interface, p.settings.baud, p.settings.dataBits, p.settings.parity, p.settings.stopBits, p.settings.handshake, p.settings.nodeAddress, p.settings.termination ? 'yes' : 'no', p.settings.protocol, p.version]),
+    rows: rows.map(({ port: p, tag, machineName }) => [p.id, machineName, tag, p.name, portShorthand(p.settings), p.settings.interface, p.settings.baud, p.settings.dataBits, p.settings.parity, p.settings.stopBits, p.settings.handshake, p.settings.nodeAddress, p.settings.termination ? 'yes' : 'no', p.settings.protocol, p.version]),
   };
 }
 

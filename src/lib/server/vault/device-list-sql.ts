@@ -5,6 +5,7 @@
 import { sql, type SQL } from 'drizzle-orm';
 import type { DEVICE_ROLES } from '../../schemas/vault';
 import { ftsQuery } from './fts';
+import { PARITY_LETTERS, SHORTHAND_PIECES, type ShorthandPiece } from '../../frame/port-text';
 
 export const DEVICE_SORTS = ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'machineName', 'siteName', 'updatedAt'] as const;
 
@@ -31,17 +32,30 @@ const JOIN_SITE = sql`JOIN site ON site.id = machine.site_id`;
 /** The ISO 8601 text `Date.toJSON()` gives, from a millisecond timestamp column. */
 const isoTime = (column: SQL) => sql`strftime('%Y-%m-%dT%H:%M:%fZ', ${column} / 1000.0, 'unixepoch')`;
 
+/** A SQL string literal of fixed text. */
+const literal = (text: string) => sql.raw(`'${text.replaceAll("'", "''")}'`);
+const setting = (key: string) => sql.raw(`(port.settings ->> '$.${key}')`);
+
+/** One shorthand piece of ../../frame/port-text.ts as SQL over the port's settings JSON. */
+function pieceSql(p: ShorthandPiece): SQL {
+  if ('text' in p) return literal(p.text);
+  if ('setting' in p) return setting(p.setting);
+  if ('parityLetter' in p) {
+    const cases = Object.entries(PARITY_LETTERS).map(([parity, letter]) => sql`WHEN ${literal(parity)} THEN ${literal(letter)}`);
+    return sql`CASE ${setting('parity')} ${sql.join(cases, sql` `)} END`;
+  }
+  return sql`CASE WHEN coalesce(${setting(p.ifSet)}, '') <> '' THEN ${literal(p.before)} || ${setting(p.ifSet)} ELSE '' END`;
+}
+
+const piecesSql = (pieces: readonly ShorthandPiece[]) => sql.join(pieces.map(pieceSql), sql` || `);
+
 /**
- * A port's shorthand (`9600 8-N-1`, `… @ host:port` over TCP) from its settings JSON: the SQL twin of
- * `shorthandOf()` in ./present.ts. Baud and data bits are integers and stop bits 1, 1.5 or 2, so
- * SQLite writes the numbers as JavaScript does; a test compares both on every parity, stop bits and
- * interface.
+ * A port's shorthand from its settings JSON, written from the same pieces as `portShorthand()`
+ * (../../frame/port-text.ts). Baud and data bits are integers, stop bits 1, 1.5 or 2 and the TCP port an
+ * integer, so SQLite prints the numbers as JavaScript does; a test compares both on every parity, stop bits
+ * and interface.
  */
-const PORT_SHORTHAND = sql`(port.settings ->> '$.baud') || ' ' || (port.settings ->> '$.dataBits') || '-' ||
-  CASE port.settings ->> '$.parity' WHEN 'none' THEN 'N' WHEN 'even' THEN 'E' WHEN 'odd' THEN 'O' WHEN 'mark' THEN 'M' WHEN 'space' THEN 'S' END ||
-  '-' || (port.settings ->> '$.stopBits') ||
-  CASE WHEN port.settings ->> '$.interface' = 'tcp' AND coalesce(port.settings ->> '$.tcpHost', '') <> ''
-    THEN ' @ ' || (port.settings ->> '$.tcpHost') || ':' || coalesce(port.settings ->> '$.tcpPort', '') ELSE '' END`;
+export const PORT_SHORTHAND_SQL = sql`CASE WHEN ${setting('interface')} = 'tcp' THEN ${piecesSql(SHORTHAND_PIECES.tcp)} ELSE ${piecesSql(SHORTHAND_PIECES.serial)} END`;
 
 /** The statement behind `listDevicesJson` (one row, one column: `page`); the vault benchmark's baseline runs it too. */
 export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQL {
@@ -70,7 +84,7 @@ export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQ
          'model', device.model, 'serialNumber', device.serial_number, 'firmware', device.firmware,
          'location', device.location, 'version', device.version, 'updatedAt', ${isoTime(sql`device.updated_at`)},
          'machineId', device.machine_id, 'machineName', machine.name, 'siteId', machine.site_id, 'siteName', site.name,
-         'ports', (SELECT json_group_array(json_object('id', port.id, 'name', port.name, 'shorthand', ${PORT_SHORTHAND},
+         'ports', (SELECT json_group_array(json_object('id', port.id, 'name', port.name, 'shorthand', ${PORT_SHORTHAND_SQL},
                      'interface', port.settings ->> '$.interface') ORDER BY port.position, port.id)
                    FROM port WHERE port.device_id = device.id AND port.deleted_at IS NULL)
        ) ORDER BY page.k ${dir}, page.id)

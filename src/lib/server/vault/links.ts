@@ -6,7 +6,7 @@ import { link, linkMember, machine } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import type { linkCreateSchema, linkUpdateSchema } from '../../schemas/vault';
-import { portShorthand } from '../../frame/port-settings';
+import { portShorthand } from '../../frame/port-text';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { linkEntity, machineEntity, type LinkRow } from '../records/entities';
 import { assertMemberPorts, loadMembers, replaceMembers, storedMembers, type MemberView } from './link-members';

@@ -9,7 +9,7 @@ import type { profileCreateSchema, profileUpdateSchema } from '../../schemas/vau
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { deviceEntity, profileEntity, type ProfileRow } from '../records/entities';
 import { livePorts } from './devices';
-import { shorthandOf } from './present';
+import { portShorthand } from '../../frame/port-text';
 import { definedOnly } from '../records/diff';
 
 export const PROFILE_SORTS = ['name', 'role', 'maker', 'model', 'updatedAt'] as const;
@@ -19,7 +19,7 @@ export type ProfileView = ProfileRow & { deviceCount: number; shorthands: string
 const deviceCount = sql<number>`(SELECT count(*) FROM device d WHERE d.profile_id = "device_profile"."id" AND d.deleted_at IS NULL)`;
 
 function view(row: ProfileRow, count: number): ProfileView {
-  return { ...row, deviceCount: count, shorthands: row.ports.map((p) => shorthandOf(p.settings)) };
+  return { ...row, deviceCount: count, shorthands: row.ports.map((p) => portShorthand(p.settings)) };
 }
 
 export async function listProfiles(
