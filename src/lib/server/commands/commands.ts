@@ -6,6 +6,7 @@ import { recordCreated, trashRecord } from '../records/engine';
 import { commandEntity } from '../records/entities';
 import { valuesProblems, type CommandCopy, type CommandCreate, type CommandUpdate } from '../../schemas/commands';
 import { Invalid } from '../errors';
+import { previewFrame } from '../../frame';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import { definedOnly } from '../records/diff';
@@ -14,6 +15,8 @@ import { snapshotOf } from '../records/entity';
 import { commandNotFound, findCommand, updateCommandVersioned, type CommandRow } from './records';
 
 export interface CommandView extends CommandRow {
+  /** On a create or update: codes of the error findings it was saved with (frame checks on its port), else absent. */
+  savedWithErrors?: string[];
   owner: { kind: CommandOwner['kind']; id: string; label: string };
   /** Listed on a device but kept on its profile: read-only there, copy to change. */
   inherited: boolean;
@@ -74,8 +77,9 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
       .insert(command)
       .values({ id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, ...fields, updatedBy: ctx.user.id })
       .returning();
-    await recordCreated(tx, ctx, commandEntity, row!);
-    return view(row!, owner);
+    const errors = errorFindings(row!, owner);
+    await recordCreated(tx, ctx, commandEntity, row!, `Created command ${row!.name}${findingsNote(errors)}`);
+    return { ...view(row!, owner), ...(errors.length ? { savedWithErrors: errors } : {}) };
   });
 }
 
@@ -83,10 +87,26 @@ export async function updateCommand(ctx: TeamContext, id: string, input: Command
   const { version, ...patch } = input;
   return db.transaction(async (tx) => {
     if (patch.presets !== undefined || patch.template !== undefined) await presetsFit(tx, ctx, id, patch);
-    const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>);
-    return view(row, await findOwner(tx, ctx, row));
+    const current = await findCommand(tx, ctx, id);
+    const owner = await findOwner(tx, ctx, current);
+    const errors = errorFindings({ ...current, ...definedOnly(patch) } as CommandRow, owner);
+    const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>, { note: findingsNote(errors) });
+    return { ...view(row, owner), ...(errors.length ? { savedWithErrors: errors } : {}) };
   });
 }
+
+/** Codes of the error findings the command's frame has with its saved values, checked on its port as the composer checks it. */
+function errorFindings(c: Pick<CommandRow, 'template' | 'fieldValues' | 'portName'>, owner: CommandOwner): string[] {
+  const port = owner.ports.find((p) => p.name === c.portName) ?? owner.ports[0];
+  try {
+    return [...new Set(previewFrame(c.template, c.fieldValues, port?.settings).findings.filter((f) => f.severity === 'error').map((f) => f.code))];
+  } catch {
+    return [];
+  }
+}
+
+/** What a revision says of a save with error findings (the composer asks before saving one). */
+const findingsNote = (codes: string[]) => (codes.length ? ` · saved with ${codes.length === 1 ? 'an error finding' : `${codes.length} kinds of error finding`} (${codes.join(', ')})` : '');
 
 /**
  * Presets must fit the template they are kept with: the one sent, or the saved one when only presets are sent;
@@ -111,12 +131,28 @@ export async function trashCommand(ctx: TeamContext, id: string, version?: numbe
   });
 }
 
-/** A new command on another device or profile of the team with the same template, values and notes. */
+/** `Name (copy)`, or `Name (copy 2)`, … : the first such name no live command of the same owner has. */
+async function copyName(q: DbOrTx, ctx: TeamContext, source: CommandRow): Promise<string> {
+  const owner = source.deviceId ? eq(command.deviceId, source.deviceId) : eq(command.profileId, source.profileId!);
+  const taken = new Set((await q.select({ name: command.name }).from(command).where(and(eq(command.teamId, ctx.team.id), owner, isNull(command.deletedAt)))).map((r) => r.name.toLowerCase()));
+  const base = source.name.replace(/ \(copy(?: \d+)?\)$/, '').slice(0, 100);
+  for (let n = 1; ; n++) {
+    const name = `${base} (copy${n === 1 ? '' : ` ${n}`})`;
+    if (!taken.has(name.toLowerCase())) return name;
+  }
+}
+
+/**
+ * A new command with the same template, values, presets and notes, on another device or profile of the team, or
+ * on the same one (a duplicate, named `… (copy)` unless a name is given).
+ */
 export async function copyCommand(ctx: TeamContext, id: string, input: CommandCopy): Promise<CommandView> {
   return db.transaction(async (tx) => {
     const source = await findCommand(tx, ctx, id);
     const owner = await findOwner(tx, ctx, input);
-    const fields = { ...(snapshotOf(commandEntity, source) as Pick<CommandRow, (typeof commandEntity.snapshotKeys)[number]>), name: input.name ?? source.name };
+    const sameOwner = (input.deviceId ?? null) === source.deviceId && (input.profileId ?? null) === source.profileId;
+    const name = input.name ?? (sameOwner ? await copyName(tx, ctx, source) : source.name);
+    const fields = { ...(snapshotOf(commandEntity, source) as Pick<CommandRow, (typeof commandEntity.snapshotKeys)[number]>), name };
     const [row] = await tx
       .insert(command)
       .values({ ...fields, id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, updatedBy: ctx.user.id })

@@ -27,7 +27,7 @@ export function updateCommandVersioned(
   id: string,
   version: number,
   values: Partial<CommandRow> | Record<string, unknown>,
-  opts: { action?: RevisionAction; summary?: string; fromTrash?: boolean } = {},
+  opts: { action?: RevisionAction; summary?: string; note?: string; fromTrash?: boolean } = {},
 ): Promise<{ row: CommandRow; changes: FieldChange[] }> {
   return updateVersioned(q, ctx, commandEntity, id, version, values, opts);
 }

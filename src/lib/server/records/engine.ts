@@ -140,7 +140,7 @@ export async function updateVersioned<T extends VersionedTable, Row extends Vers
   id: string,
   version: number,
   values: Record<string, unknown>,
-  opts: { action?: RevisionAction; summary?: string; present?: (row: NoInfer<Row>) => Promise<unknown> | unknown; fromTrash?: boolean } = {},
+  opts: { action?: RevisionAction; summary?: string; note?: string; present?: (row: NoInfer<Row>) => Promise<unknown> | unknown; fromTrash?: boolean } = {},
 ): Promise<{ row: Row; changes: FieldChange[] }> {
   const t = entity.table;
   const load = async (state: RecordState) => hydrated(q, entity, await findInTeam(q, ctx, entity, id, state));
@@ -167,7 +167,7 @@ export async function updateVersioned<T extends VersionedTable, Row extends Vers
     action: opts.action ?? 'update',
     changes,
     snapshot: snapshotOf(entity, row),
-    summary: opts.summary ?? summarize(changes),
+    summary: (opts.summary ?? summarize(changes)) + (opts.note ?? ''),
   });
   return { row, changes };
 }
