@@ -267,8 +267,10 @@ function parseWith(schema, env) {
  */
 export function listenHost(config) {
   if (config.host) return config.host;
-  if (config.trustProxy > 0 && config.proxyAddresses.length === 0) return '127.0.0.1';
-  return isLoopbackHost(new URL(config.baseUrl).host) ? '127.0.0.1' : '0.0.0.0';
+  // A local demo's links must reach it: listen on the loopback address its BASE_URL names (IPv6 or IPv4).
+  const loopback = new URL(config.baseUrl).hostname === '[::1]' ? '::1' : '127.0.0.1';
+  if (config.trustProxy > 0 && config.proxyAddresses.length === 0) return loopback;
+  return isLoopbackHost(new URL(config.baseUrl).host) ? loopback : '0.0.0.0';
 }
 
 const ENV_FILE = '.env';

@@ -81,7 +81,8 @@ const server = createServer((req, res) => {
 
 server.listen(port, host, () => {
   console.log(`Baudbook listening on http://${host.includes(':') ? `[${host}]` : host}:${port}`);
-  if (outboxKey) console.log(`Outbox (e-mails kept on this machine; open it in a browser here): http://localhost:${port}/dev/outbox?key=${outboxKey}`);
+  // The link goes where the app's own links go (a local demo's BASE_URL: localhost, 127.0.0.1 or [::1]).
+  if (outboxKey) console.log(`Outbox (e-mails kept on this machine; open it in a browser here): ${new URL(`/dev/outbox?key=${outboxKey}`, config.baseUrl).href}`);
 });
 
 for (const signal of ['SIGINT', 'SIGTERM']) {

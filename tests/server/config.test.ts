@@ -227,7 +227,9 @@ describe('a bad value', () => {
 describe('where the server listens', () => {
   it('is loopback for a local demo or behind a proxy on this host, every interface for a public BASE_URL', () => {
     expect(listenHost(parseConfig({}))).toBe('127.0.0.1');
-    expect(listenHost(parseConfig({ BASE_URL: 'http://[::1]:4321' }))).toBe('127.0.0.1');
+    // Links of a demo at [::1] must reach it: it listens there, not on 127.0.0.1.
+    expect(listenHost(parseConfig({ BASE_URL: 'http://[::1]:4321' }))).toBe('::1');
+    expect(listenHost(parseConfig({ BASE_URL: 'http://localhost:4321' }))).toBe('127.0.0.1');
     expect(listenHost(parseConfig({ BASE_URL: 'https://baudbook.example' }))).toBe('0.0.0.0');
     expect(listenHost(parseConfig({ BASE_URL: 'https://baudbook.example', TRUST_PROXY: '1' }))).toBe('127.0.0.1');
     expect(listenHost(parseConfig({ BASE_URL: 'https://baudbook.example', TRUST_PROXY: '1', PROXY_ADDRESSES: '10.0.0.5' }))).toBe('0.0.0.0');
