@@ -4,10 +4,17 @@ import { useState } from 'react';
 import { api } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
+import { presetValues, renderCommand, type CommandPreset } from '../../lib/composer/presets';
+import { ms } from '../../lib/composer/format';
+import type { FieldValues, Template } from '../../lib/frame';
+import type { NamedPort } from './types';
 
-interface Item { id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string }
+interface Item {
+  id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
+  template: Template; fieldValues: FieldValues; presets: CommandPreset[]; portName: string;
+}
 interface Target { value: string; label: string }
-interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean }
+interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean; ports: NamedPort[] }
 
 function useTargets(enabled: boolean) {
   return useQuery({
@@ -26,7 +33,35 @@ function useTargets(enabled: boolean) {
   });
 }
 
-function Row({ item, basePath, canEdit, targets }: { item: Item; basePath: string; canEdit: boolean; targets: Target[] }) {
+/** A command's presets as they are sent: PLC string, hex, bytes and time on the wire at its port. */
+function Presets({ item, ports }: { item: Item; ports: NamedPort[] }) {
+  const serial = ports.filter((p) => p.settings.interface !== 'tcp');
+  const port = serial.find((p) => p.name === item.portName) ?? serial[0];
+  return (
+    <details className="text-sm" data-testid="library-presets">
+      <summary>{item.presets.length} {item.presets.length === 1 ? 'preset' : 'presets'}{port ? ` (times at ${port.name})` : ''}</summary>
+      <ul className="grid gap-2 mt-2">
+        {item.presets.map((p) => {
+          const r = renderCommand(item.template, presetValues(item.fieldValues, p), port?.settings ?? null, p.name);
+          return (
+            <li key={p.name} className="grid gap-0.5" data-preset={p.name}>
+              <b>{p.name}</b>
+              {r.problem ? <span className="text-bad">Cannot be built: {r.problem}</span> : (
+                <>
+                  <code className="mono break-all">{r.plc}</code>
+                  <code className="mono break-all text-xs">{r.hex}</code>
+                  <span className="text-xs text-muted">{r.byteCount} bytes{r.wireMs !== null && ` · ${ms(r.wireMs)} on the wire`}</span>
+                </>
+              )}
+            </li>
+          );
+        })}
+      </ul>
+    </details>
+  );
+}
+
+function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath: string; canEdit: boolean; targets: Target[]; ports: NamedPort[] }) {
   const qc = useQueryClient();
   const [target, setTarget] = useState('');
   const done = () => qc.invalidateQueries({ queryKey: commandKeys.all() });
@@ -44,6 +79,7 @@ function Row({ item, basePath, canEdit, targets }: { item: Item; basePath: strin
         {item.inherited && <span className="text-xs text-muted">from profile {item.owner.label} · read-only here</span>}
       </div>
       {item.purpose && <p className="text-sm text-muted">{item.purpose}</p>}
+      {item.presets.length > 0 && <Presets item={item} ports={ports} />}
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2 text-sm">
           <label htmlFor={`copy-${item.id}`} className="sr-only">Copy {item.name} to</label>
@@ -97,12 +133,14 @@ function Library(props: Props) {
   const targets = useTargets(canEdit);
   if (q.isPending) return <p>Loading commands…</p>;
   if (q.isError) return <p className="notice notice-bad" role="alert">{q.error.message}</p>;
-  const list = (targets.data ?? []).filter((t) => t.value !== `${owner.kind}:${owner.id}`);
+  // The command's own device or profile first: copying there duplicates it (named "… (copy)").
+  const here = `${owner.kind}:${owner.id}`;
+  const list = [{ value: here, label: `This ${owner.kind} (duplicate)` }, ...(targets.data ?? []).filter((t) => t.value !== here)];
   return (
     <div>
       {q.data.items.length === 0 && <p className="text-muted">No commands yet.</p>}
       <ul className="grid gap-3" data-testid="command-list">
-        {q.data.items.map((i) => <Row key={i.id} item={i} basePath={basePath} canEdit={canEdit} targets={list} />)}
+        {q.data.items.map((i) => <Row key={i.id} item={i} basePath={basePath} canEdit={canEdit} targets={list} ports={props.ports} />)}
       </ul>
       <Trash {...props} />
     </div>

@@ -19,6 +19,7 @@ import { Section } from '../ui/Section';
 import { SegmentEditor } from './SegmentEditor';
 import { TimingPanel } from './TimingPanel';
 import { ValuesForm } from './ValuesForm';
+import { PresetsPanel } from './PresetsPanel';
 import { WirePicture } from './WirePicture';
 import type { CommandDraft, NamedPort } from './types';
 
@@ -89,6 +90,12 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <Section title="Values" id="values">
             <ValuesForm key={`${formKey}:${fieldSignature}`} template={template} values={draft.fieldValues} rawUnits={draft.rawUnits} onChange={(fieldValues) => patch({ fieldValues })} />
           </Section>
+          {!portSlot && (
+            <Section title="Presets" id="presets">
+              <PresetsPanel template={template} values={draft.fieldValues} presets={draft.presets} line={settings.interface === 'tcp' ? null : settings}
+                readOnly={readOnly} onChange={(presets) => patch({ presets })} onUse={(fieldValues) => replace({ ...draft, fieldValues })} />
+            </Section>
+          )}
         </div>
         <div className="grid gap-4 min-w-0">
           <Section title="Preview" id="preview">

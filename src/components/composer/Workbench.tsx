@@ -13,7 +13,7 @@ interface Props { signedIn: boolean; canSave: boolean; signInHref: string }
 
 const blank: CommandDraft = {
   name: 'One-off command', purpose: '', notes: '', movesMachinery: false, template: starterTemplate({ terminator: '0D' }),
-  fieldValues: {}, replyTemplate: null, portName: '', rawUnits: {},
+  fieldValues: {}, replyTemplate: null, portName: '', rawUnits: {}, presets: [],
 };
 
 const SaveToDevice = lazy(() => import('./SaveToDevice'));

@@ -1,5 +1,6 @@
 import type { PortSettings } from '../../lib/frame/port-settings';
 import type { FieldValues, Template } from '../../lib/frame/template';
+import type { CommandPreset } from '../../lib/composer/presets';
 
 /** The editable part of a command, as the composer holds it. */
 export interface CommandDraft {
@@ -12,6 +13,8 @@ export interface CommandDraft {
   replyTemplate: Template | null;
   portName: string;
   rawUnits: Record<string, string>;
+  /** Named value sets kept with the command. */
+  presets: CommandPreset[];
 }
 
 export interface NamedPort {
@@ -19,7 +22,7 @@ export interface NamedPort {
   settings: PortSettings;
 }
 
-export const DRAFT_KEYS = ['name', 'purpose', 'notes', 'movesMachinery', 'template', 'fieldValues', 'replyTemplate', 'portName', 'rawUnits'] as const;
+export const DRAFT_KEYS = ['name', 'purpose', 'notes', 'movesMachinery', 'template', 'fieldValues', 'replyTemplate', 'portName', 'rawUnits', 'presets'] as const;
 
 export function draftOf(c: CommandDraft): CommandDraft {
   return Object.fromEntries(DRAFT_KEYS.map((k) => [k, c[k]])) as unknown as CommandDraft;
