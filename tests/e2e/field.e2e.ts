@@ -67,6 +67,25 @@ describe('field work in the browser', () => {
     await expect.poll(() => eng.page.getByTestId('shares').locator('li').first().textContent()).toMatch(/opened 2 times/);
   });
 
+  it("lists the demo drive's presets (one index, a jog each way) on its card, copyable, and on the printed card", async () => {
+    const b = await browser(PHONE);
+    await signIn(b.page, 'technician@fernhollow.test');
+    await visit(b.page, '/field/devices/dev_demo_drv501');
+    const command = b.page.locator('[data-testid="card-command"]', { hasText: 'Index 45°' });
+    const sends = command.getByTestId('card-send');
+    await expect.poll(() => sends.evaluateAll((els) => els.map((e) => e.getAttribute('data-preset')))).toEqual(['', 'Index one station', 'Jog 1° one way', 'Jog 1° the other way']);
+    // Worked out by hand in the demo syntax: -1° × 100 steps/° = -100; 0.05 rev/s × 36,000 = 1800 steps/s; 33 bytes at 9600 8-N-1.
+    const back = sends.nth(3);
+    expect(await back.locator('code').first().textContent()).toBe("'1!IDX:-100/R180000/F180000/S1800$0D'");
+    expect(await back.textContent()).toContain('33 bytes · 34.375 ms on the wire (Service RS-232, 9600 8-N-1)');
+    await back.locator('.fcopy').first().click();
+    await expect.poll(() => b.page.evaluate(() => navigator.clipboard.readText())).toBe("'1!IDX:-100/R180000/F180000/S1800$0D'");
+    await back.scrollIntoViewIfNeeded();
+    await shot(b.page, 'field-card-presets-phone', false);
+    await b.page.goto('/field/machines/mach_demo_seamer/print?paper=a4');
+    for (const name of ['Index one station', 'Jog 1° one way', 'Jog 1° the other way']) expect(await b.page.locator(`[data-testid="card-send"][data-preset="${name}"]`).count()).toBe(1);
+  });
+
   it("prints a machine's cards on A4 and US Letter", async () => {
     const b = await browser();
     await signIn(b.page, 'engineer@fernhollow.test');
