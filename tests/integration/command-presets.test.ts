@@ -114,3 +114,23 @@ describe('saving with error findings', () => {
     expect(summaries[2]).toMatch(/^Created command .* · saved with an error finding \(field-too-wide\)$/);
   });
 });
+
+describe("the machine's PLC STRING length", () => {
+  it('is kept on the machine (with history and export), refused when not a whole number of 1 or more, and measures its devices\' commands in the composer', async () => {
+    const d = await makeDevice(eng);
+    const m = expectOk(await eng.get(`/api/machines/${d.machineId}`));
+    for (const bad of [0, 2.5, -1, 70000]) {
+      const res = await eng.patch(`/api/machines/${m.id}`, { version: m.version, plcStringCapacity: bad });
+      expect(res.status, String(bad)).toBe(422);
+      expect(res.body.fields.plcStringCapacity).toBeTruthy();
+    }
+    const set = expectOk(await eng.patch(`/api/machines/${m.id}`, { version: m.version, plcStringCapacity: 10 }));
+    expect(set.plcStringCapacity).toBe(10);
+    expect(expectOk(await eng.get('/api/export')).machines.find((x: { id: string }) => x.id === m.id).plcStringCapacity).toBe(10);
+    // `1!JOG:+100` + CR is 11 characters: one more than the STRING holds.
+    const c = await makeCommand(eng, { deviceId: d.id });
+    const page = String((await eng.get(`/vault/devices/${d.id}/commands/${c.id}`)).body);
+    expect(page).toMatch(/data-testid="plc-string-fit"[^>]*><b>11<\/b> of the <b>10<\/b> characters/);
+    expect(page).toContain('plc-string-too-long');
+  });
+});

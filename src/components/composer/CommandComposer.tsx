@@ -17,6 +17,8 @@ export interface CommandComposerProps {
   canEdit: boolean;
   /** A profile command seen from a device: read-only, with a copy action to this device. */
   inheritedFrom?: { profileId: string; label: string };
+  /** Characters the machine's PLC STRING holds, when recorded. */
+  plcStringCapacity?: number | null;
 }
 
 const History = lazy(() => import('./History'));
@@ -34,7 +36,7 @@ function CopyHere({ commandId, deviceId, basePath }: { commandId: string; device
   );
 }
 
-function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom }: CommandComposerProps) {
+function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStringCapacity }: CommandComposerProps) {
   const [saved, setSaved] = useState(command.id ? { id: command.id, version: command.version! } : null);
   const [base, setBase] = useState<CommandDraft>(draftOf(command));
   const [epoch, setEpoch] = useState(0);
@@ -52,7 +54,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom }: Comm
     setEpoch((e) => e + 1);
   };
   return (
-    <ComposerCore key={epoch} initial={base} ports={ports} readOnly={readOnly} banner={banner}
+    <ComposerCore key={epoch} initial={base} ports={ports} readOnly={readOnly} banner={banner} plcStringCapacity={plcStringCapacity ?? null}
       footer={(draft, valid) => (
         <>
           {!readOnly && (

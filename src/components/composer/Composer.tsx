@@ -4,6 +4,7 @@
  */
 import { useMemo, useState, type ReactNode } from 'react';
 import { previewFrame } from '../../lib/frame/preview';
+import { plcStringFit } from '../../lib/frame/sequence';
 import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
 import { restartForPort, starterTemplate } from '../../lib/composer/segments';
@@ -34,6 +35,8 @@ export interface ComposerCoreProps {
   /** Shown above everything (e.g. the inherited-command notice). */
   banner?: ReactNode;
   showDetails?: boolean;
+  /** Characters the machine's PLC STRING holds (a device command on a machine that records it); null = not recorded. */
+  plcStringCapacity?: number | null;
 }
 
 function useValidTemplate(t: Template | null): { valid: Template | null; error: string | null } {
@@ -44,7 +47,7 @@ function useValidTemplate(t: Template | null): { valid: Template | null; error: 
   return { valid: r?.success ? r.data : last, error: issue ? `${issue.path.join('.')}: ${issue.message}` : null };
 }
 
-export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banner, showDetails = true }: ComposerCoreProps) {
+export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banner, showDetails = true, plcStringCapacity = null }: ComposerCoreProps) {
   const [draft, setDraft] = useState<CommandDraft>(initial);
   const [formKey, setFormKey] = useState(0);
   const [ownSettings, setOwnSettings] = useState<PortSettings>(ports[0]?.settings ?? defaultPortSettings);
@@ -55,7 +58,10 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
   const request = useValidTemplate(draft.template);
   const reply = useValidTemplate(draft.replyTemplate);
   const template = request.valid ?? { version: 1 as const, segments: [] };
-  const preview = useMemo(() => previewFrame(template, draft.fieldValues, settings), [template, draft.fieldValues, settings]);
+  const frame = useMemo(() => previewFrame(template, draft.fieldValues, settings), [template, draft.fieldValues, settings]);
+  // Measured against the PLC STRING when the machine records its length: the string now and at its widest.
+  const fit = useMemo(() => (plcStringCapacity === null ? null : plcStringFit(template, frame.byteCount, plcStringCapacity)), [template, frame.byteCount, plcStringCapacity]);
+  const preview = useMemo(() => (fit && fit.findings.length ? { ...frame, ok: false, findings: [...frame.findings, ...fit.findings] } : frame), [frame, fit]);
   const replyBytes = draft.replyTemplate && reply.valid ? decodeReplyLength(reply.valid) : null;
   const timing = useMemo(() => timingSummary(settings, preview.byteCount, replyBytes), [settings, preview.byteCount, replyBytes]);
   const wire = useMemo(() => wireLayout(preview.bytes, settings), [preview.bytes, settings]);
@@ -99,7 +105,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
         </div>
         <div className="grid gap-4 min-w-0">
           <Section title="Preview" id="preview">
-            <PreviewPanel preview={preview} template={template} />
+            <PreviewPanel preview={preview} template={template} plcString={fit && fit.capacity !== null ? { capacity: fit.capacity, length: fit.length, longestLength: fit.longestLength } : null} />
           </Section>
           <Section title="Timing" id="timing">
             <TimingPanel timing={timing} />

@@ -9,7 +9,14 @@ import { ByteCells } from './ByteCells';
 import { FindingsList } from './FindingsList';
 import { NotationList } from './NotationList';
 
-export function PreviewPanel({ preview, template }: { preview: FramePreview; template: Template }) {
+/** The frame against the machine's PLC STRING: its length in characters (one per byte), the widest case, the capacity. */
+export interface PlcStringLine {
+  capacity: number;
+  length: number;
+  longestLength: number | null;
+}
+
+export function PreviewPanel({ preview, template, plcString }: { preview: FramePreview; template: Template; plcString?: PlcStringLine | null }) {
   const [highlight, setHighlight] = useState<[number, number] | null>(null);
   const [order, setOrder] = useState<WordByteOrder>('high-first');
   const cells = useMemo(() => byteCells(preview.bytes, preview.segments, template, preview.findings), [preview, template]);
@@ -20,6 +27,12 @@ export function PreviewPanel({ preview, template }: { preview: FramePreview; tem
       <p className="text-sm" data-testid="counts">
         <b data-testid="byte-count">{preview.byteCount}</b> bytes on the wire · <b data-testid="char-count">{literal.length}</b> characters in the PLC literal
       </p>
+      {plcString && (
+        <p className="text-sm" data-testid="plc-string-fit">
+          <b>{plcString.length}</b> of the <b>{plcString.capacity}</b> characters the machine's PLC STRING holds
+          {' · '}{plcString.longestLength === null ? 'no upper length (a text field has no maximum)' : <>up to <b>{plcString.longestLength}</b> with every field at its widest</>}
+        </p>
+      )}
       <ByteCells cells={cells} highlight={highlight} />
       <div>
         <h3 className="font-semibold mb-1">Findings</h3>

@@ -35,7 +35,7 @@ interface Props {
   onSaved?(record: Rec): void;
 }
 
-const pick = (r: Record<string, unknown>, names: string[]) => Object.fromEntries(names.map((n) => [n, r[n] ?? (n === 'cableLengthM' ? null : '')]));
+const pick = (r: Record<string, unknown>, names: string[]) => Object.fromEntries(names.map((n) => [n, r[n] ?? (n === 'cableLengthM' || n === 'plcStringCapacity' ? null : '')]));
 
 export function EntityForm({ path, record, fields, schema, canEdit, afterDelete, noun, onSaved }: Props) {
   const qc = useQueryClient();

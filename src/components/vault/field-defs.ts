@@ -15,6 +15,7 @@ export const siteFieldDefs: FieldDef[] = [
 export const machineFieldDefs: FieldDef[] = [
   { name: 'name', label: 'Machine, line or cell' },
   { name: 'code', label: 'Customer’s number', hint: 'e.g. L2 or the asset number' },
+  { name: 'plcStringCapacity', label: 'PLC STRING length (characters)', kind: 'number', hint: 'As the PLC program declares its command strings, e.g. 80 for STRING[80]; the composer measures commands against it' },
   { name: 'notes', label: 'Notes', kind: 'textarea' },
 ];
 

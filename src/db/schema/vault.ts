@@ -87,6 +87,11 @@ export const machine = sqliteTable(
     /** The customer's own line, cell or asset number. */
     code: text('code').notNull().default(''),
     notes: text('notes').notNull().default(''),
+    /**
+     * Characters a STRING of the machine's PLC holds (its declared length; the limit is set by the PLC, not by
+     * a standard). Null = not recorded. The composer measures command strings against it.
+     */
+    plcStringCapacity: integer('plc_string_capacity'),
     ...bookkeeping(),
   },
   (t) => [index('machine_site_idx').on(t.siteId, t.deletedAt, t.name), index('machine_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('machine_trash_idx', t.trashId)],

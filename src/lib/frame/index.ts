@@ -56,6 +56,6 @@ export { type DecodedReply, type DecodedField, type ChecksumVerdict, decodeReply
 export { type LongestFrame, type UnlimitedField, longestFrame } from './longest';
 export {
   SEQUENCE_MODES, MAX_SEQUENCE_STEPS, type SequenceMode, type SequenceStepInput, type SequenceOptions, type SequenceFinding,
-  type SequenceStep, type SequenceTiming, type PlcStringLength, type AssembledSequence, assembleSequence,
+  type SequenceStep, type SequenceTiming, type PlcStringLength, type AssembledSequence, assembleSequence, plcStringFit,
 } from './sequence';
 export { MAX_SEQUENCE_DELAY_MS, MAX_PLC_STRING_CAPACITY, sequenceStepSchema, sequenceSchema, type SequenceRequest } from './sequence-schema';

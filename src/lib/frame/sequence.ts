@@ -113,7 +113,7 @@ function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
 }
 
 /** A field without a width limit, and the step it is in. */
-type StepField = UnlimitedField & { step: number };
+type StepField = UnlimitedField & { step?: number };
 /** The widest case of a string: its bytes (null = unbounded) and the fields that have no limit. */
 interface Widest {
   byteCount: number | null;
@@ -121,7 +121,7 @@ interface Widest {
 }
 
 const listFields = (fields: readonly StepField[]) =>
-  fields.map((f) => `"${f.label}" (${stepName(f.step).toLowerCase()})`).join(', ');
+  fields.map((f) => (f.step === undefined ? `"${f.label}"` : `"${f.label}" (${stepName(f.step).toLowerCase()})`)).join(', ');
 
 /**
  * The capacity findings for one PLC string of `length` bytes starting at `at`: the actual string too long,
@@ -152,6 +152,13 @@ function capacityFindings(
     }];
   }
   return [];
+}
+
+/** One command's string against a PLC STRING that holds `capacity` characters (null = not recorded: no findings). */
+export function plcStringFit(template: Template, byteCount: number, capacity: number | null): { capacity: number | null; length: number; longestLength: number | null; findings: SequenceFinding[] } {
+  const longest = longestFrame(template);
+  const findings = capacity !== null && isCapacity(capacity) ? capacityFindings('The string', 0, byteCount, longest, capacity, '') : [];
+  return { capacity, length: byteCount, longestLength: longest.byteCount, findings };
 }
 
 /** Assembles and checks a sequence of steps; never throws on malformed input. */

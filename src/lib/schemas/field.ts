@@ -80,7 +80,7 @@ export const exportDocumentSchema = z.strictObject({
   exportedAt: z.iso.datetime({ offset: true, error: 'Not a real time; exports write one like 2026-05-01T08:00:00.000Z.' }),
   source: z.strictObject({ team: text(200), scope: z.enum(['team', 'site']), siteId: recordId.nullable() }),
   sites: z.array(z.strictObject({ id: recordId, name: text(120).min(1), customer: text(120), address: text(300), notes: text(5000) })).max(5000),
-  machines: z.array(z.strictObject({ id: recordId, siteId: recordId, name: text(120).min(1), code: text(60), notes: text(5000) })).max(20000),
+  machines: z.array(z.strictObject({ id: recordId, siteId: recordId, name: text(120).min(1), code: text(60), notes: text(5000), plcStringCapacity: z.number().int().min(1).max(65535).nullable().default(null) })).max(20000),
   profiles: z.array(z.strictObject({
     id: recordId, name: text(120).min(1), role: z.enum(DEVICE_ROLES), maker: text(120), model: text(120), notes: text(5000),
     ports: z.array(z.strictObject({ name: text(60).min(1), settings: portSettingsInputSchema, wiring: z.array(wiringRowSchema).max(40), notes: text(5000) })).max(16),

@@ -32,7 +32,11 @@ export const siteCreateSchema = z.strictObject(siteFields);
 export const siteUpdateSchema = z.strictObject({ version: versionSchema, ...partial(siteFields) });
 
 // ---- machines ----
-const machineFields = { name: required(120, 'a machine name'), code: text(60).default(''), notes: text(5000).default('') };
+const machineFields = {
+  name: required(120, 'a machine name'), code: text(60).default(''), notes: text(5000).default(''),
+  /** Characters a STRING of the machine's PLC holds; null = not recorded. */
+  plcStringCapacity: z.number().int('A whole number of characters.').min(1, 'At least 1 character.').max(65535, 'At most 65,535 characters.').nullable().default(null),
+};
 export const machineCreateSchema = z.strictObject({ siteId: id, ...machineFields });
 export const machineUpdateSchema = z.strictObject({ version: versionSchema, siteId: id.optional(), ...partial(machineFields) });
 

@@ -1,5 +1,7 @@
 /** What the library and composer pages need, loaded in one place (pages call services directly). */
+import { and, eq } from 'drizzle-orm';
 import { db } from '../../../db/client';
+import { device, machine } from '../../../db/schema';
 import { can } from '../../permissions';
 import { starterTemplate } from '../../composer/segments';
 import type { TeamContext } from '../guard';
@@ -11,7 +13,14 @@ export const ownerPath = (kind: OwnerKind, id: string) => `/vault/${kind === 'de
 
 export async function libraryPage(ctx: TeamContext, kind: OwnerKind, id: string) {
   const owner = await findOwner(db, ctx, kind === 'device' ? { deviceId: id } : { profileId: id });
-  return { owner: { kind, id, label: owner.label }, basePath: ownerPath(kind, id), canEdit: can(ctx.role, 'command:update'), ports: owner.ports };
+  // A device's commands are measured against its machine's PLC STRING, when the machine records its length.
+  const [m] = kind === 'device'
+    ? await db.select({ capacity: machine.plcStringCapacity }).from(device).innerJoin(machine, eq(machine.id, device.machineId)).where(and(eq(device.id, id), eq(device.teamId, ctx.team.id)))
+    : [];
+  return {
+    owner: { kind, id, label: owner.label }, basePath: ownerPath(kind, id), canEdit: can(ctx.role, 'command:update'), ports: owner.ports,
+    plcStringCapacity: m?.capacity ?? null,
+  };
 }
 
 /** Props for the composer island; `commandId` "new" gives an unsaved command started from the first port's frame rules. */

@@ -61,7 +61,7 @@ export async function exportDocument(ctx: TeamContext, opts: { siteId?: string }
     exportedAt: new Date().toISOString(),
     source: { team: ctx.team.name, scope: opts.siteId ? 'site' : 'team', siteId: opts.siteId ?? null },
     sites: S.map((s) => ({ id: s.id, name: s.name, customer: s.customer, address: s.address, notes: s.notes })),
-    machines: M.map((m) => ({ id: m.id, siteId: m.siteId, name: m.name, code: m.code, notes: m.notes })),
+    machines: M.map((m) => ({ id: m.id, siteId: m.siteId, name: m.name, code: m.code, notes: m.notes, plcStringCapacity: m.plcStringCapacity })),
     profiles: F.map((f) => ({ id: f.id, name: f.name, role: f.role, maker: f.maker, model: f.model, notes: f.notes, ports: f.ports })),
     devices: D.map((d) => ({
       id: d.id, machineId: d.machineId, profileId: d.profileId && fIdx.has(d.profileId) ? d.profileId : null, tag: d.tag, name: d.name, role: d.role,

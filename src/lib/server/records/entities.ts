@@ -28,7 +28,7 @@ export const machineEntity = defineEntity({
   type: 'machine',
   noun: 'machine',
   table: machine,
-  snapshotKeys: ['siteId', 'name', 'code', 'notes'],
+  snapshotKeys: ['siteId', 'name', 'code', 'notes', 'plcStringCapacity'],
   parent: { field: 'siteId', type: 'site' },
   describe: (r) => r.name,
 });

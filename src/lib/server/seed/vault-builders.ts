@@ -25,9 +25,9 @@ export async function addSite(c: SeedCtx, id: string, name: string, customer: st
   await created(c, 'site', id, { name, customer, address, notes }, `Created site ${name}`);
 }
 
-export async function addMachine(c: SeedCtx, id: string, siteId: string, name: string, code: string, notes = '') {
-  await db.insert(machine).values({ id, teamId: c.teamId, siteId, name, code, notes, updatedBy: c.userId }).onConflictDoNothing();
-  await created(c, 'machine', id, { siteId, name, code, notes }, `Created machine ${name}`);
+export async function addMachine(c: SeedCtx, id: string, siteId: string, name: string, code: string, notes = '', plcStringCapacity: number | null = null) {
+  await db.insert(machine).values({ id, teamId: c.teamId, siteId, name, code, notes, plcStringCapacity, updatedBy: c.userId }).onConflictDoNothing();
+  await created(c, 'machine', id, { siteId, name, code, notes, plcStringCapacity }, `Created machine ${name}`);
 }
 
 export interface SeedPort {

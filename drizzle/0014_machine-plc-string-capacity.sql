@@ -1,0 +1,1 @@
+ALTER TABLE `machine` ADD `plc_string_capacity` integer;
