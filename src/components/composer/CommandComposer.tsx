@@ -57,7 +57,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom }: Comm
         <>
           {!readOnly && (
             <Section title="Save" id="save">
-              <SaveBar draft={draft} saved={saved} owner={owner} valid={valid} composerHref={(id) => `${basePath}/${id}`}
+              <SaveBar draft={draft} base={base} saved={saved} owner={owner} valid={valid} composerHref={(id) => `${basePath}/${id}`}
                 dirty={JSON.stringify(draftOf(draft)) !== JSON.stringify(base)}
                 onSaved={(c) => { setSaved({ id: c.id, version: c.version }); setBase(draftOf(c)); }}
                 onLoad={load} />

@@ -1,14 +1,22 @@
-/** Saves the draft (create or versioned update); a 409 offers to load the saved version or save over it. */
+/**
+ * Saves the draft: a new command whole, an existing one as only the fields changed since it was opened, with that
+ * version. A 409 shows the conflict notice: their change beside mine, segment by segment, and a re-apply of only
+ * my changes on their version.
+ */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
 import { api, ApiError } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
-import type { CommandDraft } from './types';
+import { useConflict } from '../../lib/client/use-conflict';
+import { ConflictNotice } from '../ui/ConflictNotice';
+import { changedDraftFields, commandPartLabel, commandPartValue, commandShape, mergedDraft, orderRows, segmentIsLeaf } from './command-conflict';
+import { draftOf, type CommandDraft } from './types';
 
 interface Saved extends CommandDraft { id: string; version: number }
 
 interface Props {
   draft: CommandDraft;
+  /** The saved command as opened (or last saved): what the changes are counted from. */
+  base: CommandDraft;
   saved: { id: string; version: number } | null;
   owner: { kind: 'device' | 'profile'; id: string };
   /** Where the composer for a command lives, to go to after creating one. */
@@ -19,29 +27,37 @@ interface Props {
   valid: boolean;
 }
 
-export function SaveBar({ draft, saved, owner, composerHref, onSaved, onLoad, dirty, valid }: Props) {
+/** An update: the version it is based on, that version's draft, mine; `reapply` when sent from the conflict notice. */
+interface Attempt { version: number; base: CommandDraft; mine: CommandDraft; reapply?: boolean }
+
+export function SaveBar({ draft, base, saved, owner, composerHref, onSaved, onLoad, dirty, valid }: Props) {
   const qc = useQueryClient();
-  const [conflict, setConflict] = useState<Saved | null>(null);
+  const conflicts = useConflict<CommandDraft, Saved, ReturnType<typeof commandShape>>(commandShape, segmentIsLeaf);
+  const conflict = conflicts.conflict;
   const m = useMutation({
-    mutationFn: (version?: number) =>
-      saved
-        ? api<Saved>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: version ?? saved.version, ...draft } })
+    mutationFn: (a: Attempt | null) =>
+      saved && a
+        ? api<Saved>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: a.version, ...changedDraftFields(a.base, a.mine) } })
         : api<Saved>('/api/commands', { body: { [owner.kind === 'device' ? 'deviceId' : 'profileId']: owner.id, ...draft } }),
-    onSuccess: (c) => {
-      setConflict(null);
+    onSuccess: (c, a) => {
+      conflicts.clear();
       qc.invalidateQueries({ queryKey: commandKeys.all() });
       if (!saved) location.assign(composerHref(c.id));
+      else if (a?.reapply) onLoad(c);
       else onSaved(c);
     },
-    onError: (err) => {
-      if (err instanceof ApiError && err.status === 409 && err.body.current) setConflict(err.body.current as Saved);
+    onError: (err, a) => {
+      if (a) conflicts.take(err, a.base, a.mine);
     },
   });
-  const error = m.error instanceof ApiError && m.error.status !== 409 ? m.error : null;
+  const error = m.error instanceof ApiError && !conflict ? m.error : null;
+  const theirs = conflict && draftOf(conflict.current);
+  const versions = conflict && theirs ? [conflict.mine, theirs, conflict.base] : [];
   return (
     <div className="grid gap-2" data-testid="save-bar">
       <div className="flex flex-wrap items-center gap-3">
-        <button type="button" className="btn" disabled={!valid || m.isPending || (!!saved && !dirty)} onClick={() => m.mutate(undefined)}>
+        <button type="button" className="btn" disabled={!valid || m.isPending || (!!saved && !dirty)}
+          onClick={() => m.mutate(saved ? { version: saved.version, base, mine: draftOf(draft) } : null)}>
           {saved ? 'Save changes' : 'Save command'}
         </button>
         <span className="text-sm text-muted" role="status">
@@ -55,14 +71,12 @@ export function SaveBar({ draft, saved, owner, composerHref, onSaved, onLoad, di
           {Object.entries(error.fields).map(([k, v]) => <p key={k} className="mono text-xs">{k}: {v}</p>)}
         </div>
       )}
-      {conflict && (
-        <div className="notice notice-warn text-sm grid gap-2" role="alert" data-testid="conflict">
-          <p>Someone saved this command while you were editing (now version {conflict.version}). Nothing of yours was saved.</p>
-          <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn btn-sm" onClick={() => m.mutate(conflict.version)}>Save mine over version {conflict.version}</button>
-            <button type="button" className="btn btn-quiet btn-sm" onClick={() => { onLoad(conflict); setConflict(null); }}>Drop mine, load the saved version</button>
-          </div>
-        </div>
+      {conflict && theirs && (
+        <ConflictNotice noun="command" version={conflict.version} busy={m.isPending}
+          rows={[...conflict.rows, ...orderRows(conflict.base, conflict.mine, theirs)]}
+          label={(p) => commandPartLabel(p, ...versions)} show={(p, v) => commandPartValue(p, v, ...versions)}
+          onReapply={() => m.mutate({ version: conflict.version, base: theirs, mine: mergedDraft(conflict.merged, conflict.base, conflict.mine, theirs), reapply: true })}
+          onDiscard={() => { onLoad(conflict.current); conflicts.clear(); }} />
       )}
     </div>
   );
