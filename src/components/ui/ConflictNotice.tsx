@@ -21,11 +21,12 @@ interface Props {
   explain?: string;
   sides?: { theirs: string; mine: string };
   reapplyLabel?: string;
+  discardLabel?: string;
 }
 
 const BADGE = 'rounded border px-1.5 text-xs font-semibold whitespace-nowrap';
 
-export function ConflictNotice({ noun, version, rows, label, show = (_p, v) => showValue(v), onReapply, onDiscard, busy, title, explain, sides, reapplyLabel }: Props) {
+export function ConflictNotice({ noun, version, rows, label, show = (_p, v) => showValue(v), onReapply, onDiscard, busy, title, explain, sides, reapplyLabel, discardLabel = 'Drop mine, keep theirs' }: Props) {
   const mine = rows.filter((r) => r.mineChanged);
   const clashes = rows.filter((r) => r.clash);
   const list = (rs: ConflictRow[]) => rs.map((r) => label(r.path)).join(', ');
@@ -71,7 +72,7 @@ export function ConflictNotice({ noun, version, rows, label, show = (_p, v) => s
         {(explain || mine.length > 0) && (
           <button type="button" className="btn btn-sm" onClick={onReapply} disabled={busy}>{reapplyLabel ?? `Apply my changes on version ${version}`}</button>
         )}
-        <button type="button" className="btn btn-quiet btn-sm" onClick={onDiscard} disabled={busy}>Drop mine, keep theirs</button>
+        <button type="button" className="btn btn-quiet btn-sm" onClick={onDiscard} disabled={busy}>{discardLabel}</button>
       </div>
     </div>
   );

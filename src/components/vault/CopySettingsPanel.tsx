@@ -8,6 +8,7 @@ import { ErrorNotice, fieldLabel, showValue } from './shared';
 import { Caution } from '../ui/Caution';
 import { ConflictNotice } from '../ui/ConflictNotice';
 import { copyConflictRows, staleTargets, type CopyPreview as Preview } from './copy-conflict';
+import { portPartLabel } from './port-parts';
 interface Hit { id: string; tag: string; name: string; siteName: string; machineName: string }
 
 interface Props { device: { id: string; tag: string; ports: { id: string; name: string }[] } }
@@ -113,7 +114,7 @@ function Copier({ device }: Props) {
             title={`Someone else saved ${labels} after your preview. Nothing was copied.`}
             explain="Below, each setting as it is on the target now (theirs) beside what copying sets (yours). Copying again writes only the settings that still differ, onto the versions saved now."
             sides={{ theirs: 'On the target now', mine: 'After copying' }}
-            label={(p) => `${byId.get(p[0]!) ?? p[0]} · ${fieldLabel(p[1]!)}`}
+            label={(p) => `${byId.get(p[0]!) ?? p[0]} · ${portPartLabel(p[1]!.split('.'))}`}
             reapplyLabel="Copy onto what is saved now" busy={apply.isPending}
             onReapply={() => apply.mutate(conflict.fresh)}
             onDiscard={() => { setConflict(null); setPreview(null); }} />

@@ -75,12 +75,16 @@ export function EntityForm({ path, record, fields, schema, canEdit, afterDelete,
       }
     },
   });
+  // Moving to the trash names the version seen; if someone saved since, their change is shown before it goes.
+  const trashConflicts = useConflict<Record<string, unknown>, Rec>((current) => pick(current, names));
+  const trashConflict = trashConflicts.conflict;
   const remove = useMutation({
-    mutationFn: () => api(`${path}?version=${base.version}`, { method: 'DELETE' }),
+    mutationFn: (version: number) => api(`${path}?version=${version}`, { method: 'DELETE' }),
     onSuccess: () => {
       form.reset(form.getValues());
       location.assign(afterDelete!);
     },
+    onError: (err) => trashConflicts.take(err, pick(base, names), pick(base, names)),
   });
 
   const submit = form.handleSubmit((values) => {
@@ -134,7 +138,23 @@ export function EntityForm({ path, record, fields, schema, canEdit, afterDelete,
         </div>
       )}
       {save.isError && !conflict && <ErrorNotice error={save.error} />}
-      {remove.isError && <ErrorNotice error={remove.error} />}
+      {trashConflict && (
+        <div className="mb-3">
+          <ConflictNotice noun={noun} version={trashConflict.version} rows={trashConflict.rows} label={(p) => labels[p[0]!] ?? fieldLabel(p.join('.'))}
+            busy={remove.isPending} explain={`Nothing was moved to the trash. Their change is below; move the ${noun} as it is now, or keep it.`}
+            reapplyLabel={`Move version ${trashConflict.version} to the trash`} discardLabel="Keep it"
+            onReapply={() => remove.mutate(trashConflict.version)}
+            onDiscard={() => {
+              // With edits open, the base stays: saving them then shows this conflict again, part by part.
+              if (!isDirty) {
+                setBase(trashConflict.current);
+                form.reset(pick(trashConflict.current, names));
+              }
+              trashConflicts.clear();
+            }} />
+        </div>
+      )}
+      {remove.isError && !trashConflict && <ErrorNotice error={remove.error} />}
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2 mt-1">
           <button className="btn" disabled={save.isPending || !isDirty}>Save {noun}</button>
@@ -142,7 +162,7 @@ export function EntityForm({ path, record, fields, schema, canEdit, afterDelete,
           {save.isSuccess && !isDirty && <span className="text-sm text-ok" role="status">Saved · version {base.version}</span>}
           {afterDelete && (
             <button type="button" className="btn btn-quiet ml-auto" disabled={remove.isPending}
-              onClick={() => confirm(`Move this ${noun} to the trash? An engineer can restore it from there.`) && remove.mutate()}>
+              onClick={() => confirm(`Move this ${noun} to the trash? An engineer can restore it from there.`) && remove.mutate(base.version)}>
               Move to trash
             </button>
           )}

@@ -47,7 +47,7 @@ function Ports({ profile, canEdit }: { profile: Profile; canEdit: boolean }) {
   const asRecord = (p: PortInput, i: number): PortRecord => ({ ...p, id: `${profile.id}-${i}`, version: q.data.version, shorthand: q.data.shorthands[i] ?? '', text: '' });
 
   const nameOf = (key: string) => {
-    const all = conflict ? [...conflict.mine, ...keyedPorts(conflict.current.ports), ...conflict.base] : [];
+    const all = conflict ? [...conflict.base, ...keyedPorts(conflict.current.ports), ...conflict.mine] : [];
     return all.find((k) => k.key === key)?.port.name ?? key;
   };
   const label = (path: string[]) => {
