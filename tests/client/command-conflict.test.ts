@@ -2,9 +2,8 @@
 import { describe, expect, it } from 'vitest';
 import { compareVersions } from '../../src/lib/client/conflict';
 import type { Segment, Template } from '../../src/lib/frame/template';
-import {
-  changedDraftFields, commandPartLabel, commandPartValue, commandShape, mergedDraft, orderRows, segmentIsLeaf,
-} from '../../src/components/composer/command-conflict';
+import { changedDraftFields, commandShape, mergedDraft, orderRows, segmentIsLeaf } from '../../src/components/composer/command-conflict';
+import { commandPartLabel, commandPartValue } from '../../src/components/composer/command-parts';
 import type { CommandDraft } from '../../src/components/composer/types';
 
 const lit = (id: string, bytes: string): Segment => ({ type: 'literal', id, bytes });

@@ -4,12 +4,14 @@
  * my changes on their version.
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { lazy, Suspense } from 'react';
 import { api, ApiError } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
 import { useConflict } from '../../lib/client/use-conflict';
-import { ConflictNotice } from '../ui/ConflictNotice';
-import { changedDraftFields, commandPartLabel, commandPartValue, commandShape, mergedDraft, orderRows, segmentIsLeaf } from './command-conflict';
+import { changedDraftFields, commandShape, mergedDraft, segmentIsLeaf } from './command-conflict';
 import { draftOf, type CommandDraft } from './types';
+
+const CommandConflict = lazy(() => import('./CommandConflict'));
 
 interface Saved extends CommandDraft { id: string; version: number }
 
@@ -52,7 +54,6 @@ export function SaveBar({ draft, base, saved, owner, composerHref, onSaved, onLo
   });
   const error = m.error instanceof ApiError && !conflict ? m.error : null;
   const theirs = conflict && draftOf(conflict.current);
-  const versions = conflict && theirs ? [conflict.mine, theirs, conflict.base] : [];
   return (
     <div className="grid gap-2" data-testid="save-bar">
       <div className="flex flex-wrap items-center gap-3">
@@ -72,11 +73,11 @@ export function SaveBar({ draft, base, saved, owner, composerHref, onSaved, onLo
         </div>
       )}
       {conflict && theirs && (
-        <ConflictNotice noun="command" version={conflict.version} busy={m.isPending}
-          rows={[...conflict.rows, ...orderRows(conflict.base, conflict.mine, theirs)]}
-          label={(p) => commandPartLabel(p, ...versions)} show={(p, v) => commandPartValue(p, v, ...versions)}
-          onReapply={() => m.mutate({ version: conflict.version, base: theirs, mine: mergedDraft(conflict.merged, conflict.base, conflict.mine, theirs), reapply: true })}
-          onDiscard={() => { onLoad(conflict.current); conflicts.clear(); }} />
+        <Suspense fallback={<p className="notice notice-warn text-sm" role="alert">Someone else saved this command meanwhile; loading the comparison…</p>}>
+          <CommandConflict version={conflict.version} rows={conflict.rows} base={conflict.base} mine={conflict.mine} theirs={theirs} busy={m.isPending}
+            onReapply={() => m.mutate({ version: conflict.version, base: theirs, mine: mergedDraft(conflict.merged, conflict.base, conflict.mine, theirs), reapply: true })}
+            onDiscard={() => { onLoad(conflict.current); conflicts.clear(); }} />
+        </Suspense>
       )}
     </div>
   );

@@ -3,20 +3,18 @@
  * units field by field, and the request and reply templates segment by segment (a segment is compared whole,
  * as the segment editor edits it; its order apart).
  */
-import { keyed, mergedList, reordered, same, showValue, type ConflictRow, type Path } from '../../lib/client/conflict';
+import { keyed, mergedList, reordered, same, type ConflictRow, type Path } from '../../lib/client/conflict';
 import type { Segment, Template } from '../../lib/frame/template';
-import { segmentTitle } from '../../lib/composer/cells';
-import { labelOfBytes } from '../../lib/composer/bytes-text';
 import { DRAFT_KEYS, draftOf, type CommandDraft } from './types';
 
-type Segments = Record<string, Segment>;
+export type Segments = Record<string, Segment>;
 export type CommandShape = Omit<CommandDraft, 'template' | 'replyTemplate'> & { template: Segments; replyTemplate: Segments | null };
 
 const TEMPLATES = ['template', 'replyTemplate'] as const;
-type TemplateKey = (typeof TEMPLATES)[number];
-const ids = (t: Template | null | undefined) => t?.segments.map((s) => s.id) ?? [];
+export type TemplateKey = (typeof TEMPLATES)[number];
+export const ids = (t: Template | null | undefined) => t?.segments.map((s) => s.id) ?? [];
 /** The key of a template's segment order in a row's path; no segment id is empty. */
-const ORDER = '';
+export const ORDER = '';
 
 export function commandShape(d: CommandDraft): CommandShape {
   const c = draftOf(d);
@@ -52,44 +50,4 @@ export function orderRows(base: CommandDraft, mine: CommandDraft, theirs: Comman
     const clash = mineChanged && theirsChanged && !same(m.filter((x) => t.includes(x)), t.filter((x) => m.includes(x)));
     return [{ path: [k, ORDER], base: b, mine: m, theirs: t, mineChanged, theirsChanged, clash }];
   });
-}
-
-function describeSegment(s: Segment): string {
-  const bytes = s.type === 'literal' || s.type === 'terminator' ? ` ${labelOfBytes(s.bytes)}` : '';
-  return `${segmentTitle(s)}${bytes}`;
-}
-
-const NAMES: Record<string, string> = {
-  name: 'Command name', purpose: 'Purpose', notes: 'Notes', movesMachinery: 'Moves machinery', portName: 'Port',
-  fieldValues: 'Values', rawUnits: 'Raw units', template: 'Request template', replyTemplate: 'Reply template',
-};
-
-/** Names a compared part for people, using whichever version still has the segment. */
-export function commandPartLabel(path: readonly string[], ...versions: CommandDraft[]): string {
-  const [top, key] = path as [string, string | undefined];
-  if (key === undefined) return NAMES[top] ?? top;
-  if (top === 'fieldValues') return `Value of ${key}`;
-  if (top === 'rawUnits') return `Raw unit of ${key}`;
-  const which = top === 'replyTemplate' ? 'reply' : 'request';
-  if (key === ORDER) return `Order of the ${which} segments`;
-  for (const v of versions) {
-    const t = v[top as TemplateKey];
-    const i = t?.segments.findIndex((s) => s.id === key) ?? -1;
-    if (t && i >= 0) return `${which === 'reply' ? 'Reply' : 'Request'} segment #${i + 1} (${segmentTitle(t.segments[i])})`;
-  }
-  return `${which === 'reply' ? 'Reply' : 'Request'} segment ${key}`;
-}
-
-/** A compared value in words: a segment by what it sends, an order as the segment titles, a template by its segments. */
-export function commandPartValue(path: readonly string[], value: unknown, ...versions: CommandDraft[]): string {
-  const [top, key] = path as [string, string | undefined];
-  const isTemplate = top === 'template' || top === 'replyTemplate';
-  if (value === undefined && isTemplate && key !== undefined) return 'not in this version';
-  if (isTemplate && key === ORDER && Array.isArray(value)) {
-    const all = versions.flatMap((v) => v[top as TemplateKey]?.segments ?? []);
-    return (value as string[]).map((id, i) => `#${i + 1} ${segmentTitle(all.find((s) => s.id === id))}`).join(', ');
-  }
-  if (isTemplate && key !== undefined && value && typeof value === 'object') return describeSegment(value as Segment);
-  if (isTemplate && key === undefined) return value ? Object.values(value as Segments).map(describeSegment).join(' · ') : 'none';
-  return showValue(value);
 }
