@@ -5,7 +5,7 @@ import { useState } from 'react';
 import { QueryProvider } from './QueryProvider';
 import { FormField } from './FormField';
 import { api } from '../lib/client/api';
-import { keys } from '../lib/client/keys';
+import { teamKeys } from '../lib/client/keys';
 import { inviteSchema } from '../lib/schemas/platform';
 import { assignableRoles, can, ROLE_LABELS, ROLE_SUMMARIES, type Role } from '../lib/permissions';
 
@@ -22,7 +22,7 @@ function InviteForm({ teamId, role }: { teamId: string; role: Role }) {
     mutationFn: (v: { email: string; role: Role }) => api<Invitation>('/api/invitations', { body: v }),
     onSuccess: () => {
       form.reset({ email: '', role: form.getValues('role') });
-      qc.invalidateQueries({ queryKey: keys.members(teamId) });
+      qc.invalidateQueries({ queryKey: teamKeys.members(teamId) });
     },
   });
   const e = form.formState.errors;
@@ -46,8 +46,8 @@ function InviteForm({ teamId, role }: { teamId: string; role: Role }) {
 function Panel({ teamId, teamName, role, userId }: Props) {
   const qc = useQueryClient();
   const [error, setError] = useState<string | null>(null);
-  const q = useQuery({ queryKey: keys.members(teamId), queryFn: () => api<{ members: Member[]; invitations: Invitation[] }>('/api/members') });
-  const refresh = () => qc.invalidateQueries({ queryKey: keys.members(teamId) });
+  const q = useQuery({ queryKey: teamKeys.members(teamId), queryFn: () => api<{ members: Member[]; invitations: Invitation[] }>('/api/members') });
+  const refresh = () => qc.invalidateQueries({ queryKey: teamKeys.members(teamId) });
   const onError = (err: Error) => setError(err.message);
   const changeRole = useMutation({ mutationFn: (v: { userId: string; role: Role }) => api(`/api/members/${v.userId}`, { method: 'PATCH', body: { role: v.role } }), onSuccess: refresh, onError });
   const remove = useMutation({ mutationFn: (id: string) => api(`/api/members/${id}`, { method: 'DELETE' }), onSuccess: refresh, onError });

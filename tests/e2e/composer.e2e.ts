@@ -103,6 +103,41 @@ describe('command composer in the browser', () => {
     expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
   });
 
+  it('shows a colleague\'s save beside mine and re-applies only my changes, at phone width', async () => {
+    const a = await browser({ viewport: PHONE });
+    const b = await browser({ viewport: PHONE });
+    for (const x of [a, b]) await signIn(x.page, 'engineer@fernhollow.test');
+    const origin = new URL(a.page.url()).origin;
+    // a command of our own, so the demo jogs the other tests read stay as they are
+    const copy = await a.page.request.fetch('/api/commands/cmd_demo_drv501_jog_fwd/copy', { method: 'POST', data: { deviceId: 'dev_demo_drv501', name: 'Jog conflict' }, headers: { origin } });
+    expect(copy.status(), await copy.text()).toBeLessThan(300);
+    const { id } = await copy.json();
+    for (const x of [a, b]) await visit(x.page, `${DRIVE}/${id}`);
+    await a.page.getByLabel('Command name').fill('Jog conflict (theirs)');
+    await a.page.getByLabel('Purpose').fill('their purpose');
+    await a.page.getByRole('button', { name: 'Save changes' }).click();
+    await a.page.getByText('Saved · version 2').waitFor();
+
+    const page = b.page;
+    await page.getByLabel('Purpose').fill('my purpose');
+    await page.getByLabel('Notes').fill('my notes');
+    await page.getByRole('button', { name: 'Move segment 2 down' }).first().click();
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.locator('li', { hasText: 'Command name' }).textContent()).toContain('their change');
+    expect(await conflict.locator('li', { hasText: 'Purpose' }).textContent()).toContain('both changed');
+    expect(await conflict.locator('li', { hasText: 'Order of the request segments' }).textContent()).toContain('your change');
+    expect(await page.getByText('Save mine over version').count()).toBe(0);
+    await shot(page, 'composer-conflict-phone');
+    await conflict.getByRole('button', { name: 'Apply my changes on version 2' }).click();
+    await page.getByText('Saved · version 3').waitFor();
+    const saved = await (await page.request.get(`/api/commands/${id}`)).json();
+    expect(saved).toMatchObject({ name: 'Jog conflict (theirs)', purpose: 'my purpose', notes: 'my notes', version: 3 });
+    expect(saved.template.segments.map((s: { type: string }) => s.type)).toEqual(['integer', 'integer', 'literal', 'terminator']);
+    expect(await page.getByLabel('Command name').inputValue()).toBe('Jog conflict (theirs)');
+  });
+
   it('shows the jogs as PLC literals and decodes a reply with a bad checksum, at phone width', async () => {
     const b = await browser({ viewport: PHONE });
     await signIn(b.page, 'engineer@fernhollow.test');

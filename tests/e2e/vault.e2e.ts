@@ -114,6 +114,14 @@ describe('vault in the browser', () => {
     const conflict = page.getByTestId('conflict');
     await conflict.waitFor();
     expect(await conflict.textContent()).toContain(`Packing table ${stamp}`);
+    // their change beside mine, part by part; the re-apply sends only mine
+    const theirs = conflict.locator('li', { hasText: 'Location in the cabinet' });
+    expect(await theirs.textContent()).toContain('their change');
+    expect(await theirs.locator('[data-side="theirs"]').textContent()).toBe(`Packing table ${stamp}`);
+    const mine = conflict.locator('li', { hasText: 'Firmware' });
+    expect(await mine.textContent()).toContain('your change');
+    expect(await mine.locator('[data-side="mine"]').textContent()).toBe(`fw-${stamp}`);
+    expect(await conflict.textContent()).toContain('Applying sends only your change (Firmware)');
     await shot(page, 'vault-conflict-desktop', false);
     await conflict.getByRole('button', { name: /Apply my changes on version/ }).click();
     await edit.getByText(/Saved · version/).waitFor();

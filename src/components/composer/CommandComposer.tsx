@@ -55,11 +55,11 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   };
   return (
     <ComposerCore key={epoch} initial={base} ports={ports} readOnly={readOnly} banner={banner} plcStringCapacity={plcStringCapacity ?? null}
-      footer={(draft, valid) => (
+      footer={(draft, valid, _replace, errors) => (
         <>
           {!readOnly && (
             <Section title="Save" id="save">
-              <SaveBar draft={draft} saved={saved} owner={owner} valid={valid} composerHref={(id) => `${basePath}/${id}`}
+              <SaveBar draft={draft} base={base} saved={saved} owner={owner} valid={valid} errors={errors} composerHref={(id) => `${basePath}/${id}`}
                 dirty={JSON.stringify(draftOf(draft)) !== JSON.stringify(base)}
                 onSaved={(c) => { setSaved({ id: c.id, version: c.version }); setBase(draftOf(c)); }}
                 onLoad={load} />

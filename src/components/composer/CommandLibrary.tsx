@@ -18,7 +18,7 @@ interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string
 
 function useTargets(enabled: boolean) {
   return useQuery({
-    queryKey: commandKeys.devices(),
+    queryKey: commandKeys.copyTargets(),
     enabled,
     queryFn: async () => {
       const [d, p] = await Promise.all([

@@ -31,7 +31,7 @@ export interface ComposerCoreProps {
   /** Replaces the port picker (the workbench edits its own settings). */
   portSlot?: (settings: PortSettings, set: (s: PortSettings) => void) => ReactNode;
   /** Rendered under the details: save bar, copy action, history. */
-  footer?: (draft: CommandDraft, valid: boolean, replace: (d: CommandDraft) => void) => ReactNode;
+  footer?: (draft: CommandDraft, valid: boolean, replace: (d: CommandDraft) => void, errors: readonly { code: string; message: string }[]) => ReactNode;
   /** Shown above everything (e.g. the inherited-command notice). */
   banner?: ReactNode;
   showDetails?: boolean;
@@ -139,7 +139,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <p className="text-sm text-muted">No reply expected. Tick the box to describe the answer and decode replies.</p>
         )}
       </Section>
-      {footer?.(draft, valid, replace)}
+      {footer?.(draft, valid, replace, preview.findings.filter((f) => f.severity === 'error'))}
     </div>
   );
 }

@@ -2,12 +2,12 @@
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { api } from '../../lib/client/api';
-import { commandKeys } from '../../lib/client/keys';
+import { vaultKeys } from '../../lib/client/keys';
 import type { CommandDraft } from './types';
 
 export default function SaveToDevice({ draft, valid }: { draft: CommandDraft; valid: boolean }) {
   const [deviceId, setDeviceId] = useState('');
-  const devices = useQuery({ queryKey: commandKeys.devices(), queryFn: () => api<{ items: { id: string; tag: string; name: string }[] }>('/api/devices?pageSize=200&sort=tag') });
+  const devices = useQuery({ queryKey: vaultKeys.list('devices', { pageSize: 200, sort: 'tag' }), queryFn: () => api<{ items: { id: string; tag: string; name: string }[] }>('/api/devices?pageSize=200&sort=tag') });
   const save = useMutation({
     mutationFn: () => api<{ id: string }>('/api/commands', { body: { deviceId, ...draft, portName: '' } }),
     onSuccess: (c) => location.assign(`/vault/devices/${deviceId}/commands/${c.id}`),

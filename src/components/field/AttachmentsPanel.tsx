@@ -1,8 +1,8 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api } from '../../lib/client/api';
-import { fieldKeys } from './keys';
+import { fieldKeys } from '../../lib/client/keys';
 import { ATTACHMENT_KINDS } from '../../lib/schemas/field';
 import { formatBytes, KIND_LABELS, type AttachmentKind } from '../../lib/field/files';
 import { Progress, uploadFile } from './xhr';
@@ -17,26 +17,27 @@ function Upload({ ownerType, ownerId, maxBytes }: { ownerType: Props['ownerType'
   const [file, setFile] = useState<File | null>(null);
   const [progress, setProgress] = useState<number | null>(null);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  async function send(e: React.FormEvent) {
+  const formRef = useRef<HTMLFormElement>(null);
+  const upload = useMutation({
+    mutationFn: (f: File) => uploadFile<Item>({ ownerType, ownerId, kind }, f, setProgress),
+    onMutate: () => { setMessage(null); setProgress(0); },
+    onSuccess: (saved) => {
+      setMessage({ ok: true, text: `Uploaded ${saved.fileName}.` });
+      setFile(null);
+      formRef.current?.reset();
+      qc.invalidateQueries({ queryKey: fieldKeys.attachments(ownerType, ownerId) });
+    },
+    onError: (err) => setMessage({ ok: false, text: err.message }),
+    onSettled: () => setProgress(null),
+  });
+  function send(e: React.FormEvent) {
     e.preventDefault();
     if (!file) return setMessage({ ok: false, text: 'Choose a file first.' });
     if (file.size > maxBytes) return setMessage({ ok: false, text: `${file.name} is ${formatBytes(file.size)}; the limit is ${formatBytes(maxBytes)}.` });
-    setMessage(null);
-    setProgress(0);
-    try {
-      const saved = await uploadFile<Item>({ ownerType, ownerId, kind }, file, setProgress);
-      setMessage({ ok: true, text: `Uploaded ${saved.fileName}.` });
-      setFile(null);
-      (e.target as HTMLFormElement).reset();
-      qc.invalidateQueries({ queryKey: fieldKeys.attachments(ownerType, ownerId) });
-    } catch (err) {
-      setMessage({ ok: false, text: (err as Error).message });
-    } finally {
-      setProgress(null);
-    }
+    upload.mutate(file);
   }
   return (
-    <form className="grid gap-2 sm:grid-cols-[14rem_1fr_auto] sm:items-end" onSubmit={send} aria-label="Upload a file">
+    <form ref={formRef} className="grid gap-2 sm:grid-cols-[14rem_1fr_auto] sm:items-end" onSubmit={send} aria-label="Upload a file">
       <label className="grid gap-1"><span className="label">Kind</span>
         <select className="input" value={kind} onChange={(e) => setKind(e.target.value as AttachmentKind)}>
           {ATTACHMENT_KINDS.map((k) => <option key={k} value={k}>{KIND_LABELS[k]}</option>)}

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useMutation } from '@tanstack/react-query';
 import Papa from 'papaparse';
 import { QueryProvider } from '../QueryProvider';
 import { ApiError } from '../../lib/client/api';
@@ -34,20 +35,19 @@ function Panel({ machines }: Props) {
       error: (err) => { setProgress(null); setError(err.message); },
     });
   }
-  async function send(apply: boolean) {
-    setError(null);
-    setProgress({ label: apply ? 'Importing' : 'Checking every row', value: 0 });
-    try {
-      const body = JSON.stringify({ machineId, csv, mapping, apply, skipInvalid });
-      setPreview(await sendWithProgress<Preview>('POST', '/api/import/csv', body, (v) => setProgress((p) => p && { ...p, value: v }), 'application/json'));
-    } catch (err) {
+  const importer = useMutation({
+    mutationFn: (apply: boolean) =>
+      sendWithProgress<Preview>('POST', '/api/import/csv', JSON.stringify({ machineId, csv, mapping, apply, skipInvalid }), (v) => setProgress((p) => p && { ...p, value: v }), 'application/json'),
+    onMutate: (apply) => { setError(null); setProgress({ label: apply ? 'Importing' : 'Checking every row', value: 0 }); },
+    onSuccess: setPreview,
+    onError: (err) => {
       const e = err as ApiError;
       if (e.body?.preview) setPreview(e.body.preview as Preview);
       setError(e.message);
-    } finally {
-      setProgress(null);
-    }
-  }
+    },
+    onSettled: () => setProgress(null),
+  });
+  const send = (apply: boolean) => importer.mutate(apply);
   return (
     <section className="card grid gap-3" aria-label="Import devices from CSV">
       <h2>Import devices and ports from CSV</h2>

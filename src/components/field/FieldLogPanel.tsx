@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api, ApiError } from '../../lib/client/api';
-import { fieldKeys } from './keys';
+import { fieldKeys } from '../../lib/client/keys';
 import { FIELD_LOG_LABELS, FIELD_LOG_KINDS } from '../../lib/schemas/field';
 import { PhotoPicker, type Uploaded } from './PhotoPicker';
 import { Thumb } from './Thumb';

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useMutation } from '@tanstack/react-query';
 import { uploadFile, Progress } from './xhr';
 import { Thumb } from './Thumb';
 
@@ -8,6 +9,9 @@ export interface Uploaded { id: string; url: string; fileName: string }
 export function PhotoPicker({ deviceId, photos, onChange }: { deviceId: string; photos: Uploaded[]; onChange: (p: Uploaded[]) => void }) {
   const [progress, setProgress] = useState<number | null>(null);
   const [error, setError] = useState<string | null>(null);
+  const upload = useMutation({
+    mutationFn: (file: File) => uploadFile<Uploaded>({ ownerType: 'device', ownerId: deviceId, kind: 'photo' }, file, setProgress),
+  });
   async function pick(files: FileList | null) {
     if (!files?.length) return;
     setError(null);
@@ -15,7 +19,7 @@ export function PhotoPicker({ deviceId, photos, onChange }: { deviceId: string; 
     for (const file of Array.from(files)) {
       try {
         setProgress(0);
-        added.push(await uploadFile<Uploaded>({ ownerType: 'device', ownerId: deviceId, kind: 'photo' }, file, setProgress));
+        added.push(await upload.mutateAsync(file));
       } catch (err) {
         setError(`${file.name}: ${(err as Error).message}`);
       }

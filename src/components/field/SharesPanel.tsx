@@ -3,7 +3,7 @@ import { CopyButton } from '../ui/CopyButton';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api, ApiError } from '../../lib/client/api';
-import { fieldKeys } from './keys';
+import { fieldKeys } from '../../lib/client/keys';
 
 interface Share {
   id: string; scopeType: 'machine' | 'site'; scopeId: string; scopeName: string; label: string; createdByName: string;

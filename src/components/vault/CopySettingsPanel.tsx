@@ -1,14 +1,14 @@
 /** Copy settings from this device (or one of its ports) onto another: choose, preview the differences, apply. */
 import { useEffect, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api, ApiError } from '../../lib/client/api';
+import { api, isStale } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
-import { ErrorNotice, fieldLabel, isConflict, showValue } from './shared';
+import { ErrorNotice, fieldLabel, showValue } from './shared';
 import { Caution } from '../ui/Caution';
-
-interface Pair { sourceLabel: string; targetPortId: string; targetLabel: string; targetVersion: number; changes: { field: string; from: unknown; to: unknown }[] }
-interface Preview { pairs: Pair[]; unmatched: string[]; applied: boolean }
+import { ConflictNotice } from '../ui/ConflictNotice';
+import { copyConflictRows, staleTargets, type CopyPreview as Preview } from './copy-conflict';
+import { portPartLabel } from './port-parts';
 interface Hit { id: string; tag: string; name: string; siteName: string; machineName: string }
 
 interface Props { device: { id: string; tag: string; ports: { id: string; name: string }[] } }
@@ -23,9 +23,11 @@ function Copier({ device }: Props) {
   const [includeWiring, setIncludeWiring] = useState(false);
   const [preview, setPreview] = useState<Preview | null>(null);
   const [note, setNote] = useState<string | null>(null);
+  /** The preview applied and the fresh one the 409 brought, while the conflict notice is up. */
+  const [conflict, setConflict] = useState<{ previewed: Preview; fresh: Preview } | null>(null);
 
   const hits = useQuery({
-    queryKey: vaultKeys.search(`copy:${find}`),
+    queryKey: vaultKeys.search(find, 8),
     queryFn: () => api<{ items: Hit[] }>(`/api/devices/search?pageSize=8&q=${encodeURIComponent(find)}`),
     enabled: /[\p{L}\p{N}]/u.test(find) && !target,
   });
@@ -40,18 +42,24 @@ function Copier({ device }: Props) {
     includeAddress,
     includeWiring,
   });
-  useEffect(() => setPreview(null), [source, target, targetPort, includeAddress, includeWiring]);
+  useEffect(() => { setPreview(null); setConflict(null); }, [source, target, targetPort, includeAddress, includeWiring]);
 
   const look = useMutation({ mutationFn: () => api<Preview>('/api/devices/copy', { body: body() }), onSuccess: (p) => { setPreview(p); setNote(null); } });
+  // Applies a preview: the target versions it showed are what the copy is based on.
   const apply = useMutation({
-    mutationFn: () => api<Preview>('/api/devices/copy', { body: { ...body(), apply: true, basedOn: Object.fromEntries(preview!.pairs.map((p) => [p.targetPortId, p.targetVersion])) } }),
+    mutationFn: (seen: Preview) => api<Preview>('/api/devices/copy', { body: { ...body(), apply: true, basedOn: Object.fromEntries(seen.pairs.map((p) => [p.targetPortId, p.targetVersion])) } }),
     onSuccess: (p) => {
       setPreview(null);
+      setConflict(null);
       setNote(`Copied onto ${p.pairs.filter((x) => x.changes.length).map((x) => x.targetLabel).join(', ') || 'nothing (already the same)'}.`);
       qc.invalidateQueries({ queryKey: vaultKeys.all() });
     },
-    onError: (err) => {
-      if (isConflict(err) && err instanceof ApiError) setPreview(err.body.current as Preview);
+    onError: (err, seen) => {
+      if (isStale(err)) {
+        const fresh = err.body.current as unknown as Preview;
+        setConflict({ previewed: seen, fresh });
+        setPreview(fresh);
+      }
     },
   });
   const changes = preview?.pairs.reduce((n, p) => n + p.changes.length, 0) ?? 0;
@@ -95,9 +103,24 @@ function Copier({ device }: Props) {
       </div>
       <div><button type="button" className="btn btn-quiet" disabled={!target || look.isPending} onClick={() => look.mutate()}>Preview differences</button></div>
       <ErrorNotice error={look.error} />
-      {apply.isError && <ErrorNotice error={apply.error} />}
+      {apply.isError && !conflict && <ErrorNotice error={apply.error} />}
       {note && <p className="notice notice-ok" role="status">{note}</p>}
-      {preview && (
+      {conflict && (() => {
+        const stale = staleTargets(conflict.previewed, conflict.fresh);
+        const labels = stale.map((p) => p.targetLabel).join(', ');
+        const byId = new Map(conflict.fresh.pairs.map((p) => [p.targetPortId, p.targetLabel]));
+        return (
+          <ConflictNotice noun="port" version={stale[0]?.targetVersion ?? 0} rows={copyConflictRows(conflict.previewed, conflict.fresh)}
+            title={`Someone else saved ${labels} after your preview. Nothing was copied.`}
+            explain="Below, each setting as it is on the target now (theirs) beside what copying sets (yours). Copying again writes only the settings that still differ, onto the versions saved now."
+            sides={{ theirs: 'On the target now', mine: 'After copying' }}
+            label={(p) => `${byId.get(p[0]!) ?? p[0]} · ${portPartLabel(p[1]!.split('.'))}`}
+            reapplyLabel="Copy onto what is saved now" busy={apply.isPending}
+            onReapply={() => apply.mutate(conflict.fresh)}
+            onDiscard={() => { setConflict(null); setPreview(null); }} />
+        );
+      })()}
+      {preview && !conflict && (
         <div className="grid gap-2" data-testid="copy-preview">
           {preview.pairs.map((p) => (
             <div key={p.targetPortId} className="border border-line rounded p-2">
@@ -111,7 +134,7 @@ function Copier({ device }: Props) {
             </div>
           ))}
           {preview.unmatched.length > 0 && <p className="text-sm text-muted">No port to copy onto for: {preview.unmatched.join(', ')}.</p>}
-          <div><button type="button" className="btn" disabled={changes === 0 || apply.isPending} onClick={() => apply.mutate()}>Apply {changes} change{changes === 1 ? '' : 's'}</button></div>
+          <div><button type="button" className="btn" disabled={changes === 0 || apply.isPending} onClick={() => apply.mutate(preview)}>Apply {changes} change{changes === 1 ? '' : 's'}</button></div>
         </div>
       )}
     </div>

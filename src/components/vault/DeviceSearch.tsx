@@ -18,7 +18,7 @@ function Finder() {
   }, [text]);
   const searchable = /[\p{L}\p{N}]/u.test(q);
   const res = useQuery({
-    queryKey: vaultKeys.search(q),
+    queryKey: vaultKeys.search(q, 12),
     queryFn: () => api<{ items: Hit[]; total: number }>(`/api/devices/search?pageSize=12&q=${encodeURIComponent(q)}`),
     enabled: searchable,
     placeholderData: keepPreviousData,

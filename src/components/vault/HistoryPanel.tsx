@@ -1,10 +1,10 @@
 /** History of one record: who changed which field from what to what; any revision can be restored. */
 import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../lib/client/api';
+import { api, isStale } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
-import { ErrorNotice, fieldLabel, isConflict, Pager, showValue } from './shared';
+import { ErrorNotice, fieldLabel, Pager, showValue } from './shared';
 
 interface Revision {
   id: string; version: number; action: string; userName: string; summary: string; createdAt: string;
@@ -27,13 +27,13 @@ export function HistoryList({ type, id, canRestore, reload }: { type: string; id
       return api(`/api/revisions/${rev.id}/restore`, { body: { version: newest.items[0]!.version } });
     },
     onSuccess: () => (reload ? location.reload() : qc.invalidateQueries({ queryKey: vaultKeys.all() })),
-    onSettled: () => qc.invalidateQueries({ queryKey: ['vault', 'history', type, id] }),
+    onSettled: () => qc.invalidateQueries({ queryKey: vaultKeys.historyOf(type, id) }),
   });
   if (q.isPending) return <p className="text-sm text-muted">Loading history…</p>;
   if (q.isError) return <ErrorNotice error={q.error} />;
   return (
     <div>
-      {restore.isError && <ErrorNotice error={isConflict(restore.error) && 'current' in restore.error.body ? new Error('Someone changed this record meanwhile; look at the newest version and try again.') : restore.error} />}
+      {restore.isError && <ErrorNotice error={isStale(restore.error) ? new Error('Someone changed this record meanwhile; look at the newest version and try again.') : restore.error} />}
       <ol className="grid gap-2" data-testid="history">
         {q.data.items.map((r) => (
           <li key={r.id} className="border border-line rounded p-2 bg-white" data-version={r.version}>

@@ -3,11 +3,14 @@ import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
+import { keyed, mergedList, showValue } from '../../lib/client/conflict';
+import { useConflict } from '../../lib/client/use-conflict';
+import { ConflictNotice } from '../ui/ConflictNotice';
 import { QueryProvider } from '../QueryProvider';
 import { linkFormSchema, MEMBER_ROLES } from '../../lib/schemas/vault';
 import { EntityForm } from './EntityForm';
 import { linkFieldDefs } from './field-defs';
-import { ErrorNotice, isConflict, StateBadge, useUnsavedGuard } from './shared';
+import { ErrorNotice, StateBadge, useUnsavedGuard } from './shared';
 
 interface Member { portId: string; role: (typeof MEMBER_ROLES)[number]; isEnd: boolean | null; unitLoads: number | null; deviceTag: string; portName: string; deviceId: string; shorthand: string; inTrash: boolean }
 interface Finding { severity: 'error' | 'warning' | 'info'; code: string; message: string; memberLabel?: string }
@@ -35,9 +38,19 @@ export function Findings({ report }: { report: LinkData['report'] }) {
   );
 }
 
+type MemberRow = Pick<Member, 'portId' | 'role' | 'isEnd' | 'unitLoads'>;
+const memberRows = (members: MemberRow[]): MemberRow[] => members.map(({ portId, role, isEnd, unitLoads }) => ({ portId, role, isEnd, unitLoads }));
+/** The members as the conflict notice compares them: member by member (keyed by port), each role and cable end. */
+const memberShape = (v: MemberRow[] | LinkData) => ({ members: keyed(memberRows(Array.isArray(v) ? v : v.members), (m) => m.portId) });
+const ids = (rows: MemberRow[]) => rows.map((r) => r.portId);
+const MEMBER_PART: Record<string, string> = { role: 'role', isEnd: 'at a cable end', unitLoads: 'unit loads' };
+
+/** An update of the member list: the version it is based on, the list at that version and mine. */
+interface Attempt { version: number; base: MemberRow[]; mine: MemberRow[] }
+
 function Members({ link, candidates, canEdit }: { link: LinkData; candidates: Candidate[]; canEdit: boolean }) {
   const qc = useQueryClient();
-  const initial = () => link.members.map(({ portId, role, isEnd, unitLoads }) => ({ portId, role, isEnd, unitLoads }));
+  const initial = () => memberRows(link.members);
   const [rows, setRows] = useState(initial);
   const [adding, setAdding] = useState('');
   // Remounted (keyed by version) after every save of this link, so `link.version` is what these rows were based on.
@@ -48,13 +61,32 @@ function Members({ link, candidates, canEdit }: { link: LinkData; candidates: Ca
     return m ? `${m.deviceTag} ${m.portName}` : portId;
   };
   const shorthand = (portId: string) => (link.members.find((x) => x.portId === portId) ?? candidates.find((c) => c.portId === portId))?.shorthand;
+  const conflicts = useConflict<MemberRow[], LinkData, ReturnType<typeof memberShape>>(memberShape);
+  const conflict = conflicts.conflict;
+  // Saved or dropped: the link's record takes the answer, and these rows start again from it (keyed by version).
   const save = useMutation({
-    mutationFn: () => api<LinkData>(`/api/links/${link.id}`, { method: 'PATCH', body: { version: link.version, members: rows } }),
+    mutationFn: (a: Attempt) => api<LinkData>(`/api/links/${link.id}`, { method: 'PATCH', body: { version: a.version, members: a.mine } }),
     onSuccess: (saved) => {
       qc.setQueryData(vaultKeys.record('link', link.id), saved);
       qc.invalidateQueries({ queryKey: vaultKeys.all() });
     },
+    onError: (err, a) => conflicts.take(err, a.base, a.mine),
   });
+  const memberLabel = (path: string[]) => {
+    const [, portId, part] = path;
+    const theirs = conflict?.current.members.find((m) => m.portId === portId);
+    const who = portId ? `Member ${theirs ? `${theirs.deviceTag} ${theirs.portName}` : label(portId)}` : 'Members';
+    return part ? `${who} · ${MEMBER_PART[part] ?? part}` : who;
+  };
+  const memberValue = (path: string[], v: unknown) => {
+    if (path.length === 2) {
+      if (!v) return 'not a member';
+      const m = v as MemberRow;
+      return `${m.role}, at a cable end: ${m.isEnd === null ? 'not recorded' : m.isEnd ? 'yes' : 'no'}`;
+    }
+    if (path[2] === 'isEnd') return v === null ? 'not recorded' : v ? 'yes' : 'no';
+    return showValue(v);
+  };
   const set = (i: number, patch: Partial<(typeof rows)[number]>) => setRows(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
   const free = candidates.filter((c) => !rows.some((r) => r.portId === c.portId));
   return (
@@ -92,10 +124,21 @@ function Members({ link, candidates, canEdit }: { link: LinkData; candidates: Ca
             </select>
           </label>
           <button type="button" className="btn btn-quiet" disabled={!adding} onClick={() => { setRows([...rows, { portId: adding, role: rows.length === 0 ? 'master' : link.kind === 'rs485-bus' ? 'slave' : 'peer', isEnd: null, unitLoads: null }]); setAdding(''); }}>Add</button>
-          <button type="button" className="btn" disabled={!dirty || save.isPending} onClick={() => save.mutate()}>Save members</button>
+          <button type="button" className="btn" disabled={!dirty || save.isPending} onClick={() => save.mutate({ version: link.version, base: initial(), mine: rows })}>Save members</button>
         </div>
       )}
-      {save.isError && <ErrorNotice error={isConflict(save.error) ? new Error('Someone changed this link meanwhile. Reload the page to see their version, then make your change again.') : save.error} />}
+      {conflict && (
+        <div className="mt-3">
+          <ConflictNotice noun="link's members" version={conflict.version} rows={conflict.rows} label={memberLabel} show={memberValue} busy={save.isPending}
+            onReapply={() => {
+              const theirs = memberRows(conflict.current.members);
+              const mine = mergedList(conflict.merged.members, { base: ids(conflict.base), mine: ids(conflict.mine), theirs: ids(theirs) });
+              save.mutate({ version: conflict.version, base: theirs, mine });
+            }}
+            onDiscard={() => qc.setQueryData(vaultKeys.record('link', link.id), conflict.current)} />
+        </div>
+      )}
+      {save.isError && !conflict && <ErrorNotice error={save.error} />}
     </div>
   );
 }

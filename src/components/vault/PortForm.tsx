@@ -3,25 +3,22 @@ import { useState } from 'react';
 import { useFieldArray, useForm, type UseFormRegister } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api, ApiError } from '../../lib/client/api';
+import { api, ApiError, isStale } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
+import { changedFields, changedPaths, reapply, showValue } from '../../lib/client/conflict';
+import { useConflict } from '../../lib/client/use-conflict';
 import { portInputSchema, type PortInput } from '../../lib/schemas/vault';
 import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, RS485_DIRECTIONS, STANDARD_BAUD_RATES } from '../../lib/frame/port-settings';
 import { HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS } from '../../lib/frame/port-text';
 import { BYTE_SETS } from '../../lib/frame/frame-rules';
 import { FormField } from '../FormField';
-import { ConflictPanel } from './ConflictPanel';
-import { ErrorNotice, isConflict, useUnsavedGuard } from './shared';
+import { ConflictNotice } from '../ui/ConflictNotice';
+import { ErrorNotice, useUnsavedGuard } from './shared';
 import { Caution } from '../ui/Caution';
-import { dirtyPaths, flatten, getPath, setPath } from './paths';
+import { dirtyPaths, getPath } from './paths';
+import { LABELS, portPartLabel, portPartValue, portShape } from './port-parts';
 
 export interface PortRecord extends PortInput { id: string; version: number; shorthand: string; text: string }
-
-/** Frame-rule choices; the port settings' own labels are in lib/frame/port-text.ts. */
-const LABELS = {
-  byteSet: { printable: 'Printable only (20-7E)', '7-bit': '7-bit (00-7F)', '8-bit': 'Any byte' },
-  letterCase: { any: 'Any case', upper: 'Upper case', lower: 'Lower case' },
-} as const;
 
 const optNumber = (v: unknown) => (v === '' || v === null || v === undefined || Number.isNaN(v) ? undefined : Number(v));
 const nullNumber = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
@@ -31,15 +28,23 @@ interface Props {
   port?: PortRecord;
   /** Saves through the port API; leave out and pass `onSave` for ports kept inside a profile. */
   deviceId?: string;
-  onSave?(value: PortInput): Promise<unknown>;
+  /**
+   * Saves elsewhere (a profile's ports): gets the whole port and the paths the user changed. A 409 is then the
+   * caller's to show (it compares the whole list); the form closes.
+   */
+  onSave?(value: PortInput, changed: string[][]): Promise<unknown>;
   onDone(): void;
 }
 
+/** A save of an existing port: the version it is based on, that version and mine (only their differences are sent). */
+interface Attempt { version: number; base: PortInput; mine: PortInput }
+
 export function PortForm({ port, deviceId, onSave, onDone }: Props) {
   const qc = useQueryClient();
-  const start: PortInput = port ? { name: port.name, settings: port.settings, wiring: port.wiring, notes: port.notes } : { name: '', settings: defaultPortSettings, wiring: [], notes: '' };
+  const start: PortInput = port ? portShape(port) : { name: '', settings: defaultPortSettings, wiring: [], notes: '' };
   const [base, setBase] = useState(port);
-  const [conflict, setConflict] = useState<PortRecord | null>(null);
+  const conflicts = useConflict<PortInput, PortRecord>(portShape);
+  const conflict = conflicts.conflict;
   const form = useForm<PortInput>({ resolver: zodResolver(portInputSchema) as never, defaultValues: start });
   const wiring = useFieldArray({ control: form.control, name: 'wiring' });
   const { errors, isDirty } = form.formState;
@@ -47,42 +52,33 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
   const iface = form.watch('settings.interface');
 
   const save = useMutation({
-    mutationFn: (body: Record<string, unknown>) =>
-      onSave ? onSave(form.getValues()) : base ? api<PortRecord>(`/api/ports/${base.id}`, { method: 'PATCH', body: { version: base.version, ...body } }) : api<PortRecord>('/api/ports', { body: { deviceId, ...body } }),
+    mutationFn: ({ value, changed, attempt }: { value: PortInput; changed: string[][]; attempt?: Attempt }) =>
+      onSave ? onSave(value, changed)
+        : attempt ? api<PortRecord>(`/api/ports/${base!.id}`, { method: 'PATCH', body: { version: attempt.version, ...changedFields(attempt.mine, changedPaths(attempt.base, attempt.mine)) } })
+        : api<PortRecord>('/api/ports', { body: { deviceId, ...value } }),
     onSuccess: () => {
       form.reset(form.getValues());
+      conflicts.clear();
       qc.invalidateQueries({ queryKey: vaultKeys.all() });
       onDone();
     },
-    onError: (err) => {
-      if (isConflict(err)) setConflict(err.body.current as PortRecord);
+    onError: (err, { attempt }) => {
+      if (isStale(err) && onSave) onDone();
+      else if (attempt && conflicts.take(err, attempt.base, attempt.mine)) return;
       else if (err instanceof ApiError) for (const [k, message] of Object.entries(err.fields)) form.setError(k as never, { message });
     },
   });
 
   const submit = form.handleSubmit((v) => {
-    const changed = new Set(dirtyPaths(form.formState.dirtyFields).map((p) => p.split('.')[0]!));
-    const body = base && !onSave ? Object.fromEntries([...changed].map((k) => [k, v[k as keyof PortInput]])) : v;
-    save.mutate(body);
+    const changed = dirtyPaths(form.formState.dirtyFields).map((p) => p.split('.'));
+    if (onSave || !base) return save.mutate({ value: v, changed });
+    const opened = portShape(base);
+    // Mine is what I opened with only the parts I touched taken from the form.
+    save.mutate({ value: v, changed, attempt: { version: base.version, base: opened, mine: reapply(v, opened, changed) } });
   });
-
-  /** Re-apply: the saved port with each field I changed laid over it. */
-  function reapply(current: PortRecord) {
-    const paths = dirtyPaths(form.formState.dirtyFields);
-    let merged: PortInput = { name: current.name, settings: current.settings, wiring: current.wiring, notes: current.notes };
-    for (const p of paths) merged = setPath(merged, p, getPath(form.getValues(), p));
-    setBase(current);
-    setConflict(null);
-    form.reset({ name: current.name, settings: current.settings, wiring: current.wiring, notes: current.notes });
-    for (const p of paths) form.setValue(p as never, getPath(merged, p) as never, { shouldDirty: true });
-    api<PortRecord>(`/api/ports/${current.id}`, { method: 'PATCH', body: { version: current.version, ...Object.fromEntries(paths.map((p) => p.split('.')[0]!).map((k) => [k, merged[k as keyof PortInput]])) } })
-      .then(() => { form.reset(form.getValues()); qc.invalidateQueries({ queryKey: vaultKeys.all() }); onDone(); })
-      .catch((err) => (isConflict(err) ? setConflict(err.body.current as PortRecord) : form.setError('root', { message: err.message })));
-  }
 
   const f = (name: string) => `port-${port?.id ?? 'new'}-${name.replace(/\./g, '-')}`;
   const err = (path: string): string | undefined => (getPath(errors, `${path}.message`) as string | undefined) ?? undefined;
-  const mine = flatten(Object.fromEntries(dirtyPaths(form.formState.dirtyFields).map((p) => [p, getPath(form.getValues(), p)])));
   return (
     <form onSubmit={submit} noValidate aria-label={port ? `Edit port ${port.name}` : 'Add a port'} className="grid gap-3 border-t border-line pt-3 mt-3">
       <Caution />
@@ -145,10 +141,11 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
         <button type="button" className="btn btn-quiet btn-sm" onClick={() => wiring.append({ pin: '', signal: '', colour: '' })}>Add wiring row</button>
       </fieldset>
       <FormField id={f('notes')} label="Notes" error={err('notes')}><textarea id={f('notes')} rows={2} className="input" {...form.register('notes')} /></FormField>
-      {conflict && base && (
-        <ConflictPanel base={flatten({ ...start })} current={{ ...flatten({ name: conflict.name, settings: conflict.settings, wiring: conflict.wiring, notes: conflict.notes }), version: conflict.version }}
-          mine={mine} fields={Object.keys(flatten({ ...start }))} busy={save.isPending} onReapply={() => reapply(conflict)}
-          onDiscard={() => { setBase(conflict); form.reset({ name: conflict.name, settings: conflict.settings, wiring: conflict.wiring, notes: conflict.notes }); setConflict(null); }} />
+      {conflict && (
+        <ConflictNotice noun="port" version={conflict.version} rows={conflict.rows} label={portPartLabel}
+          show={(p, v) => portPartValue(p, v) ?? showValue(v)} busy={save.isPending}
+          onReapply={() => save.mutate({ value: conflict.merged, changed: conflict.minePaths, attempt: { version: conflict.version, base: conflict.theirs, mine: conflict.merged } })}
+          onDiscard={() => { setBase(conflict.current); form.reset(portShape(conflict.current)); conflicts.clear(); }} />
       )}
       {save.isError && !conflict && <ErrorNotice error={save.error} />}
       {errors.root && <p className="field-error" role="alert">{errors.root.message}</p>}

@@ -1,6 +1,5 @@
 /** Small pieces shared by the vault islands: state badge, unsaved-changes guard, pager, error notice. */
 import { useEffect } from 'react';
-import { ApiError } from '../../lib/client/api';
 
 const STATE_TEXT = { ok: 'Agrees', warning: 'Check', error: 'Mismatch' } as const;
 const STATE_CLASS = {
@@ -58,17 +57,10 @@ export function Pager({ page, pageSize, total, onPage }: { page: number; pageSiz
   );
 }
 
-/** A value from a revision or a comparison, readable: blanks as a dash, objects as compact JSON. */
-export function showValue(v: unknown): string {
-  if (v === null || v === undefined || v === '') return '—';
-  if (typeof v === 'boolean') return v ? 'on' : 'off';
-  if (typeof v === 'object') return JSON.stringify(v);
-  return String(v);
-}
+export { showValue } from '../../lib/client/conflict';
 
 export function fieldLabel(field: string): string {
   const last = field.split('.').slice(-1)[0]!;
   return field.startsWith('settings.') ? `${last} (settings)` : field;
 }
 
-export const isConflict = (e: unknown): e is ApiError => e instanceof ApiError && e.status === 409;

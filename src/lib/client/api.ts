@@ -30,3 +30,8 @@ export async function api<T = unknown>(path: string, init: { method?: string; bo
   }
   return data as T;
 }
+
+/** A 409 that carries the record as it is now (a stale version): the conflict notice's cue. */
+export function isStale(e: unknown): e is ApiError & { body: { current: Record<string, unknown> & { version?: number } } } {
+  return e instanceof ApiError && e.status === 409 && !!e.body.current && typeof e.body.current === 'object';
+}
