@@ -269,6 +269,39 @@ describe('JSON import as a staged job', () => {
   }, 90_000);
 });
 
+describe('a parent moved to the trash while an import runs', () => {
+  it('refuses the import at its final check and leaves nothing of it', async () => {
+    const [from, into] = await Promise.all([createTeamWithRoles('json-parent-from'), createTeamWithRoles('json-parent-into')]);
+    const m = await makeMachine(from.members.owner);
+    // First the machine alone, so the second document adds devices under a machine already imported.
+    const first = expectOk(await from.members.owner.get('/api/export'));
+    expectOk(await into.members.admin.post('/api/import', { document: first, apply: true }), 201);
+    const target = expectOk(await into.members.admin.get('/api/machines?pageSize=5')).items.find((x: { name: string }) => x.name === m.name);
+    expectOk(await from.members.owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(6000, 'TP'), mapping, apply: true }), 201);
+    const doc = expectOk(await from.members.owner.get('/api/export'));
+    const known = await jobIds(into.members.admin);
+    const importing = into.members.admin.post('/api/import', { document: doc, apply: true });
+    for (;;) {
+      const job = expectOk(await into.members.admin.get('/api/import/jobs')).items.find((j: { id: string }) => !known.includes(j.id));
+      if (job && job.state === 'checking' && job.done > 1000) break;
+      if (job && job.state !== 'checking') throw new Error(`the import reached ${job.state} before the test could step in`);
+      await new Promise((r) => setTimeout(r, 10));
+    }
+    expectOk(await into.members.admin.del(`/api/machines/${target.id}`));
+    const res = await importing;
+    expect(res.status, JSON.stringify(res.body)).toBe(409);
+    expect(res.body.error).toMatch(/nothing was (imported|written)/);
+    const db = testDb();
+    try {
+      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE team_id = ?', [into.teamId])).toBe(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM port WHERE team_id = ?', [into.teamId])).toBe(0);
+      expect(await count(db, "SELECT count(*) AS n FROM job_row j JOIN job ON job.id = j.job_id WHERE job.team_id = ?", [into.teamId])).toBe(0);
+    } finally {
+      db.close();
+    }
+  }, 120_000);
+});
+
 describe('the write-ahead log', () => {
   it('is copied into the database file by the checkpointer within seconds, long before the log would fill 1,000 pages', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'checkpoint-'));

@@ -44,6 +44,8 @@ interface Target {
   count: number;
   /** Set for a versioned record, written out of sight rather than staged. */
   record?: AnyEntity;
+  /** Parents its rows live under that this job did not write itself (checked again in the final transaction). */
+  outsideParents: Set<string>;
   afterCommit: boolean;
   /** Raw SQL appended to the INSERT, e.g. an ON CONFLICT clause. */
   onConflict?: SQL;
@@ -69,7 +71,7 @@ function targetOf(table: SQLiteTable, opts: { onConflict?: SQL } = {}): Target {
   const record = recordOf(table);
   return {
     table, name: getTableName(table), columns: Object.entries(getTableColumns(table)) as [string, Column][], count: 0,
-    record, afterCommit: AFTER_COMMIT.includes(table), onConflict: opts.onConflict,
+    record, afterCommit: AFTER_COMMIT.includes(table), onConflict: opts.onConflict, outsideParents: new Set(),
   };
 }
 
@@ -80,6 +82,8 @@ export class Stage {
   private expected: number | null = null;
   /** The trash stamp that keeps the job's records out of sight until its final transaction. */
   private readonly hidden: { deletedAt: Date; deletedBy: string };
+  /** Ids of the records this job wrote (parents are written before their children). */
+  private readonly own = new Set<string>();
 
   constructor(readonly jobId: string, userId: string) {
     this.hidden = { deletedAt: new Date(), deletedBy: userId };
@@ -113,8 +117,16 @@ export class Stage {
   async add(table: SQLiteTable, rows: Record<string, unknown>[]): Promise<void> {
     this.target(table);
     const t = this.targets.get(getTableName(table))!;
+    const parentKey = t.record?.parent?.field;
     for (let i = 0; i < rows.length; i += STAGE_BATCH) {
       const slice = rows.slice(i, i + STAGE_BATCH);
+      if (t.record) {
+        for (const row of slice) {
+          this.own.add(String(row.id));
+          const parent = parentKey ? row[parentKey] : undefined;
+          if (typeof parent === 'string' && !this.own.has(parent)) t.outsideParents.add(parent);
+        }
+      }
       const write = t.record
         ? sql`INSERT INTO ${sql.identifier(t.name)} (${columnList(t)}) VALUES ${sql.join(slice.map((row) => {
           const values: Record<string, unknown> = { ...row, ...this.hidden, trashId: this.jobId };
@@ -159,15 +171,17 @@ export class Stage {
     }
   }
 
+  /** Refuses when a parent the job's records live under (one it did not write) was moved to the trash meanwhile. */
   private async refuseTrashedParent(tx: Tx, t: Target): Promise<void> {
     const parent = t.record!.parent;
-    if (!parent) return;
+    if (!parent || t.outsideParents.size === 0) return;
     const p = entityOf(parent.type);
-    const parentCol = getTableColumns(t.table)[parent.field]!;
-    const [hit] = await tx.all<{ id: string }>(sql`SELECT c.id FROM ${sql.identifier(t.name)} c
-      JOIN ${sql.identifier(getTableName(p.table))} p ON p.id = c.${sql.identifier(parentCol.name)}
-      WHERE c.trash_id = ${this.jobId} AND p.deleted_at IS NOT NULL AND p.trash_id IS NOT ${this.jobId} LIMIT 1`);
-    if (hit) throw new Conflict(`A ${p.noun} this import adds ${t.record!.noun}s to was moved to the trash meanwhile; nothing was imported. Restore it, or import into another ${p.noun}.`);
+    const ids = [...t.outsideParents];
+    for (let lo = 0; lo < ids.length; lo += APPLY_BATCH) {
+      const [hit] = await tx.all<{ id: string }>(sql`SELECT id FROM ${sql.identifier(getTableName(p.table))}
+        WHERE id IN (${sql.join(ids.slice(lo, lo + APPLY_BATCH).map((id) => sql`${id}`), sql`, `)}) AND deleted_at IS NOT NULL LIMIT 1`);
+      if (hit) throw new Conflict(`A ${p.noun} this import adds ${t.record!.noun}s to was moved to the trash meanwhile; nothing was imported. Restore it, or import into another ${p.noun}.`);
+    }
   }
 
   /** Last in the final transaction, whatever happened: the connection goes back to the pool with SQLite's default page cache. */
