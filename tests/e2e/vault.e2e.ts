@@ -129,6 +129,24 @@ describe('vault in the browser', () => {
     expect(after).toMatchObject({ firmware: `fw-${stamp}`, location: `Packing table ${stamp}`, version: current.version + 2 });
   });
 
+  it('moving a port someone changed meanwhile shows their change first, then moves it as it is now', async () => {
+    const { page } = await browser();
+    await signIn(page, 'engineer@fernhollow.test');
+    const d = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `TRM-${stamp}`, ports: [{ name: 'Aux', settings: { interface: 'rs232', baud: 9600 } }] });
+    await visit(page, `/vault/devices/${d.id}`);
+    const port = d.ports[0];
+    // Someone else changes the port's baud rate after the page was opened.
+    await api(page, 'PATCH', `/api/ports/${port.id}`, { version: port.version, settings: { ...port.settings, baud: 19200 } });
+    await page.getByRole('article', { name: 'Port Aux' }).getByRole('button', { name: 'Move to trash' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.textContent()).toContain('Nothing was moved to the trash');
+    expect(await conflict.locator('li', { hasText: 'Baud rate' }).locator('[data-side="theirs"]').textContent()).toBe('19200');
+    await conflict.getByRole('button', { name: `Move version ${port.version + 1} to the trash` }).click();
+    await page.getByText('No ports recorded yet.').waitFor();
+    expect((await api(page, 'GET', `/api/devices/${d.id}`)).ports).toEqual([]);
+  });
+
   it('shows the demo bus fault and the screens at phone and desktop widths', async () => {
     for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
       const { page } = await browser({ viewport });

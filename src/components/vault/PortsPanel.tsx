@@ -9,6 +9,10 @@ import { ErrorNotice } from './shared';
 import { INTERFACE_LABELS, PROTOCOL_LABELS } from '../../lib/frame/port-text';
 import { CopyButton } from '../ui/CopyButton';
 import { HistoryList } from './HistoryPanel';
+import { ConflictNotice } from '../ui/ConflictNotice';
+import { showValue } from '../../lib/client/conflict';
+import { useConflict } from '../../lib/client/use-conflict';
+import { portPartLabel, portPartValue, portShape } from './port-parts';
 
 interface DeviceData { id: string; tag: string; ports: PortRecord[] }
 
@@ -19,9 +23,14 @@ function Ports({ device, canEdit }: Props) {
   const q = useQuery({ queryKey: vaultKeys.record('device', device.id), queryFn: () => api<DeviceData>(`/api/devices/${device.id}`), initialData: device });
   const [editing, setEditing] = useState<string | null>(null);
   const [history, setHistory] = useState<string | null>(null);
+  // Moving a port someone saved meanwhile shows their change first (the one conflict notice), then asks again.
+  const trashConflicts = useConflict<PortRecord, PortRecord, ReturnType<typeof portShape>>(portShape);
+  const [trashing, setTrashing] = useState<PortRecord | null>(null);
+  const trashConflict = trashConflicts.conflict;
   const remove = useMutation({
     mutationFn: (p: PortRecord) => api(`/api/ports/${p.id}?version=${p.version}`, { method: 'DELETE' }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: vaultKeys.all() }),
+    onSuccess: () => { trashConflicts.clear(); setTrashing(null); qc.invalidateQueries({ queryKey: vaultKeys.all() }); },
+    onError: (err, p) => { if (trashConflicts.take(err, p, p)) setTrashing(p); },
   });
   const ports = q.data.ports;
   const allText = ports.map((p) => `${device.tag} — ${p.text}`).join('\n\n');
@@ -32,7 +41,15 @@ function Ports({ device, canEdit }: Props) {
         {ports.length > 1 && <CopyButton text={allText} label="Copy all ports as text" />}
         {canEdit && editing !== 'new' && <button type="button" className="btn btn-sm" onClick={() => setEditing('new')}>Add a port</button>}
       </div>
-      <ErrorNotice error={remove.error} />
+      {trashConflict && trashing && (
+        <ConflictNotice noun="port" version={trashConflict.version} rows={trashConflict.rows} label={portPartLabel}
+          show={(path, v) => portPartValue(path, v) ?? showValue(v)} busy={remove.isPending}
+          explain={`Nothing was moved to the trash. Their change to port ${trashing.name} is below; move the port as it is now, or keep it.`}
+          reapplyLabel={`Move version ${trashConflict.version} to the trash`} discardLabel="Keep it"
+          onReapply={() => remove.mutate({ ...trashing, version: trashConflict.version })}
+          onDiscard={() => { trashConflicts.clear(); setTrashing(null); qc.invalidateQueries({ queryKey: vaultKeys.all() }); }} />
+      )}
+      {!trashConflict && <ErrorNotice error={remove.error} />}
       {ports.length === 0 && editing !== 'new' && <p className="text-muted">No ports recorded yet.{canEdit && ' Add the first one.'}</p>}
       {ports.map((p) => (
         <article key={p.id} className="card" data-testid="port" aria-label={`Port ${p.name}`}>
