@@ -1,10 +1,15 @@
 /** HTTP client for integration tests: keeps the session cookie and sends Origin + JSON like a browser. */
+import { randomInt } from 'node:crypto';
 import { inject } from 'vitest';
 import { createClient } from '@libsql/client';
 import type { Role } from '../../src/lib/permissions';
 import { startedServers } from './server';
 
 let ipCounter = 10;
+/** This test file's block of 250 addresses in 10.0.0.0/8 (62,500 blocks). */
+const IP_BLOCK = randomInt(0, 62_500);
+/** The n-th address of 10.0.0.0/8, last octet 1-250. */
+const tenNet = (n: number) => `10.${Math.floor(n / 62_500) % 250}.${Math.floor(n / 250) % 250}.${(n % 250) + 1}`;
 let userCounter = 0;
 
 export const PASSWORD = 'correct-horse-battery';
@@ -17,8 +22,11 @@ export interface Reply<T = any> {
 
 export class TestClient {
   cookies = new Map<string, string>();
-  /** Each client looks like its own address, so sign-in rate limits do not collide across tests. */
-  readonly ip = `10.0.${Math.floor(ipCounter / 250)}.${(ipCounter++ % 250) + 1}`;
+  /**
+   * Each client looks like its own address, so sign-in and sign-up rate limits do not collide across tests: a
+   * random block per test file (files run in workers of their own, each counting from 0), then one per client.
+   */
+  readonly ip = tenNet(IP_BLOCK * 250 + ipCounter++);
   user: { id: string; email: string; name: string } | null = null;
 
   constructor(readonly baseUrl: string = inject('baseUrl')) {}
