@@ -37,8 +37,7 @@ async function fernhollow(c: SeedCtx) {
   await addMachine(c, 'mach_demo_churn', 'site_demo_creamery', 'Butter churn line 2', 'L2', 'Three churn drives on one Modbus bus from the line PLC.');
   await addMachine(c, 'mach_demo_press', 'site_demo_creamery', 'Cheese press cell', 'C4');
   await addMachine(c, 'mach_demo_kiln', 'site_demo_tiles', 'Kiln conveyor', 'K1');
-  // Its PLC program declares command strings STRING[80].
-  await addMachine(c, 'mach_demo_seamer', 'site_demo_cannery', 'Seamer line 1', 'S1', '', 80);
+  await addMachine(c, 'mach_demo_seamer', 'site_demo_cannery', 'Seamer line 1', 'S1');
 
   // Butter churn line 2: PLC-200 masters a 9600 8-E-1 bus; DRV-203 was swapped last week and came up at 19200.
   await addDevice(c, { id: 'dev_demo_plc200', machineId: 'mach_demo_churn', tag: 'PLC-200', name: 'Line 2 controller', role: 'plc', maker: 'Vellmar Systems', model: 'VX-220', serialNumber: 'VX22-0048812', firmware: '3.1.4', location: 'Cabinet MCC-2, rail A',
