@@ -71,7 +71,7 @@ describe('field work in the browser', () => {
     const b = await browser(PHONE);
     await signIn(b.page, 'technician@fernhollow.test');
     await visit(b.page, '/field/devices/dev_demo_drv501');
-    const command = b.page.locator('[data-testid="card-command"]', { hasText: 'Index 45°' });
+    const command = b.page.locator('[data-testid="card-command"][data-command-id="cmd_demo_drv501_index"]');
     const sends = command.getByTestId('card-send');
     await expect.poll(() => sends.evaluateAll((els) => els.map((e) => e.getAttribute('data-preset')))).toEqual(['', 'Index one station', 'Jog 1° one way', 'Jog 1° the other way']);
     // Worked out by hand in the demo syntax: -1° × 100 steps/° = -100; 0.05 rev/s × 36,000 = 1800 steps/s; 33 bytes at 9600 8-N-1.

@@ -135,6 +135,9 @@ describe('vault in the browser', () => {
     const d = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `TRM-${stamp}`, ports: [{ name: 'Aux', settings: { interface: 'rs232', baud: 9600 } }] });
     await visit(page, `/vault/devices/${d.id}`);
     const port = d.ports[0];
+    // The page has read the port (version 1) and asks for nothing more before the colleague's change.
+    await page.getByRole('article', { name: 'Port Aux' }).getByText(`version ${port.version}`).waitFor();
+    await page.waitForLoadState('networkidle');
     // Someone else changes the port's baud rate after the page was opened.
     await api(page, 'PATCH', `/api/ports/${port.id}`, { version: port.version, settings: { ...port.settings, baud: 19200 } });
     await page.getByRole('article', { name: 'Port Aux' }).getByRole('button', { name: 'Move to trash' }).click();
