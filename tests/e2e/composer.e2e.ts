@@ -103,6 +103,28 @@ describe('command composer in the browser', () => {
     expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
   });
 
+  it('asks before saving a command with error findings, and its history says it was saved with them', async () => {
+    const b = await browser({ viewport: DESKTOP });
+    await signIn(b.page, 'engineer@fernhollow.test');
+    await visit(b.page, `${DRIVE}/new`);
+    const page = b.page;
+    await page.getByLabel('Command name').fill('Too long for the port (test)');
+    await page.getByLabel('Sent on port').selectOption('Service RS-232');
+    // The service port's frame rules allow 64 bytes a frame: 70 letters and the CR are too many.
+    await addText(page, 'A'.repeat(70));
+    await expect.poll(() => page.getByTestId('byte-count').textContent()).toBe('71');
+    await page.getByRole('button', { name: 'Save command' }).click();
+    const ask = page.getByTestId('save-with-findings');
+    await ask.waitFor();
+    expect(await ask.textContent()).toMatch(/error finding/);
+    await shot(page, 'composer-save-with-findings', false);
+    await ask.getByRole('button', { name: /^Save with/ }).click();
+    await page.waitForURL(/\/commands\/cmd_/);
+    const id = page.url().split('/').pop()!;
+    const history = await page.request.get(`/api/commands/${id}/revisions`);
+    expect((await history.json()).items[0].summary).toMatch(/ · saved with an error finding \(/);
+  });
+
   it('shows a colleague\'s save beside mine and re-applies only my changes, at phone width', async () => {
     const a = await browser({ viewport: PHONE });
     const b = await browser({ viewport: PHONE });

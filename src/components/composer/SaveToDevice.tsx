@@ -5,8 +5,10 @@ import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import type { CommandDraft } from './types';
 
-export default function SaveToDevice({ draft, valid }: { draft: CommandDraft; valid: boolean }) {
+export default function SaveToDevice({ draft, valid, errors = [] }: { draft: CommandDraft; valid: boolean; errors?: readonly { code: string; message: string }[] }) {
   const [deviceId, setDeviceId] = useState('');
+  // Saving with error findings asks first, as the composer's own save does (the history records them).
+  const [asking, setAsking] = useState(false);
   const devices = useQuery({ queryKey: vaultKeys.list('devices', { pageSize: 200, sort: 'tag' }), queryFn: () => api<{ items: { id: string; tag: string; name: string }[] }>('/api/devices?pageSize=200&sort=tag') });
   const save = useMutation({
     mutationFn: () => api<{ id: string }>('/api/commands', { body: { deviceId, ...draft, portName: '' } }),
@@ -21,7 +23,16 @@ export default function SaveToDevice({ draft, valid }: { draft: CommandDraft; va
           {devices.data?.items.map((d) => <option key={d.id} value={d.id}>{d.tag} {d.name}</option>)}
         </select>
       </div>
-      <button type="button" className="btn" disabled={!deviceId || !valid || save.isPending} onClick={() => save.mutate()}>Save to this device</button>
+      <button type="button" className="btn" disabled={!deviceId || !valid || save.isPending} onClick={() => (errors.length && !asking ? setAsking(true) : save.mutate())}>Save to this device</button>
+      {asking && errors.length > 0 && (
+        <div className="notice notice-warn text-sm grid gap-2 w-full" role="alertdialog" aria-labelledby="wb-findings-title" data-testid="save-with-findings">
+          <p id="wb-findings-title"><b>The preview has {errors.length === 1 ? 'an error finding' : `${errors.length} error findings`}</b> ({[...new Set(errors.map((e) => e.code))].join(', ')}). Save anyway? The command's history will say so.</p>
+          <div className="flex flex-wrap gap-2">
+            <button type="button" className="btn btn-sm" disabled={save.isPending} onClick={() => save.mutate()}>Save with {errors.length === 1 ? 'this finding' : 'these findings'}</button>
+            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setAsking(false)}>Not now</button>
+          </div>
+        </div>
+      )}
       {save.isError && <p className="notice notice-bad text-sm w-full" role="alert">{save.error.message}</p>}
     </div>
   );

@@ -24,11 +24,11 @@ export default function Workbench({ signedIn, canSave, signInHref }: Props) {
       <div className="grid gap-4">
         <ComposerCore initial={blank} ports={[{ name: 'Workbench', settings: defaultPortSettings }]} readOnly={false}
           portSlot={(s, set) => <PortQuick settings={s} onChange={set} />}
-          footer={(draft, valid) => (
+          footer={(draft, valid, _replace, errors) => (
             <Section title="Keep it" id="save">
               {!signedIn && <p><a href={signInHref} data-testid="sign-in-to-save">Sign in to save to a device</a>; everything else here works without an account.</p>}
               {signedIn && !canSave && <p className="text-sm text-muted">Your role in this team cannot add commands; ask an engineer to save it.</p>}
-              {signedIn && canSave && <Suspense fallback={<p className="text-sm">Loading your devices…</p>}><SaveToDevice draft={draft} valid={valid} /></Suspense>}
+              {signedIn && canSave && <Suspense fallback={<p className="text-sm">Loading your devices…</p>}><SaveToDevice draft={draft} valid={valid} errors={errors} /></Suspense>}
             </Section>
           )} />
         <Tools />
