@@ -281,12 +281,7 @@ describe('a parent moved to the trash while an import runs', () => {
     const doc = expectOk(await from.members.owner.get('/api/export'));
     const known = await jobIds(into.members.admin);
     const importing = into.members.admin.post('/api/import', { document: doc, apply: true });
-    for (;;) {
-      const job = expectOk(await into.members.admin.get('/api/import/jobs')).items.find((j: { id: string }) => !known.includes(j.id));
-      if (job && job.state === 'checking' && job.done > 1000) break;
-      if (job && job.state !== 'checking') throw new Error(`the import reached ${job.state} before the test could step in`);
-      await new Promise((r) => setTimeout(r, 10));
-    }
+    await untilStaging(into.members.admin, 1000, known);
     expectOk(await into.members.admin.del(`/api/machines/${target.id}`));
     const res = await importing;
     expect(res.status, JSON.stringify(res.body)).toBe(409);

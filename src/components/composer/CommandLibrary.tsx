@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { api } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
-import { presetValues, renderCommand, type CommandPreset } from '../../lib/composer/presets';
+import { presetValues, renderCommand, timingPort, type CommandPreset } from '../../lib/composer/presets';
 import { ms } from '../../lib/composer/format';
 import type { FieldValues, Template } from '../../lib/frame';
 import type { NamedPort } from './types';
@@ -35,8 +35,7 @@ function useTargets(enabled: boolean) {
 
 /** A command's presets as they are sent: PLC string, hex, bytes and time on the wire at its port. */
 function Presets({ item, ports }: { item: Item; ports: NamedPort[] }) {
-  const serial = ports.filter((p) => p.settings.interface !== 'tcp');
-  const port = serial.find((p) => p.name === item.portName) ?? serial[0];
+  const port = timingPort(ports, item.portName);
   return (
     <details className="text-sm" data-testid="library-presets">
       <summary>{item.presets.length} {item.presets.length === 1 ? 'preset' : 'presets'}{port ? ` (times at ${port.name})` : ''}</summary>

@@ -10,6 +10,7 @@ import { commandKeys } from '../../lib/client/keys';
 import { useConflict } from '../../lib/client/use-conflict';
 import { changedDraftFields, commandShape, mergedDraft, segmentIsLeaf } from './command-conflict';
 import { draftOf, type CommandDraft } from './types';
+import { SaveWithFindings, type ErrorFinding } from './SaveWithFindings';
 
 const CommandConflict = lazy(() => import('./CommandConflict'));
 
@@ -28,7 +29,7 @@ interface Props {
   dirty: boolean;
   valid: boolean;
   /** Error findings of the preview: saving with any asks first (the history records it). */
-  errors?: readonly { code: string; message: string }[];
+  errors?: readonly ErrorFinding[];
 }
 
 /** An update: the version it is based on, that version's draft, mine; `reapply` when sent from the conflict notice. */
@@ -58,7 +59,6 @@ export function SaveBar({ draft, base, saved, owner, composerHref, onSaved, onLo
   });
   const error = m.error instanceof ApiError && !conflict ? m.error : null;
   const save = () => m.mutate(saved ? { version: saved.version, base, mine: draftOf(draft) } : null);
-  const codes = [...new Set(errors.map((e) => e.code))];
   const theirs = conflict && draftOf(conflict.current);
   return (
     <div className="grid gap-2" data-testid="save-bar">
@@ -72,16 +72,7 @@ export function SaveBar({ draft, base, saved, owner, composerHref, onSaved, onLo
         </span>
       </div>
       {!valid && <p className="text-sm text-bad">Fix the template problems above before saving.</p>}
-      {asking && errors.length > 0 && (
-        <div className="notice notice-warn text-sm grid gap-2" role="alertdialog" aria-labelledby="save-findings-title" data-testid="save-with-findings">
-          <p id="save-findings-title"><b>The preview has {errors.length === 1 ? 'an error finding' : `${errors.length} error findings`}</b> ({codes.join(', ')}). Save anyway? The command's history will say it was saved with {errors.length === 1 ? 'it' : 'them'}.</p>
-          <ul className="list-disc pl-5">{errors.slice(0, 5).map((e, i) => <li key={i}>{e.message}</li>)}</ul>
-          <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn btn-sm" disabled={m.isPending} onClick={save}>Save with {errors.length === 1 ? 'this finding' : 'these findings'}</button>
-            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setAsking(false)}>Not now</button>
-          </div>
-        </div>
-      )}
+      {asking && errors.length > 0 && <SaveWithFindings errors={errors} busy={m.isPending} onSave={save} onCancel={() => setAsking(false)} />}
       {error && (
         <div className="notice notice-bad text-sm" role="alert">
           <p>{error.message}</p>

@@ -4,8 +4,9 @@ import { useState } from 'react';
 import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import type { CommandDraft } from './types';
+import { SaveWithFindings, type ErrorFinding } from './SaveWithFindings';
 
-export default function SaveToDevice({ draft, valid, errors = [] }: { draft: CommandDraft; valid: boolean; errors?: readonly { code: string; message: string }[] }) {
+export default function SaveToDevice({ draft, valid, errors = [] }: { draft: CommandDraft; valid: boolean; errors?: readonly ErrorFinding[] }) {
   const [deviceId, setDeviceId] = useState('');
   // Saving with error findings asks first, as the composer's own save does (the history records them).
   const [asking, setAsking] = useState(false);
@@ -24,15 +25,7 @@ export default function SaveToDevice({ draft, valid, errors = [] }: { draft: Com
         </select>
       </div>
       <button type="button" className="btn" disabled={!deviceId || !valid || save.isPending} onClick={() => (errors.length && !asking ? setAsking(true) : save.mutate())}>Save to this device</button>
-      {asking && errors.length > 0 && (
-        <div className="notice notice-warn text-sm grid gap-2 w-full" role="alertdialog" aria-labelledby="wb-findings-title" data-testid="save-with-findings">
-          <p id="wb-findings-title"><b>The preview has {errors.length === 1 ? 'an error finding' : `${errors.length} error findings`}</b> ({[...new Set(errors.map((e) => e.code))].join(', ')}). Save anyway? The command's history will say so.</p>
-          <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn btn-sm" disabled={save.isPending} onClick={() => save.mutate()}>Save with {errors.length === 1 ? 'this finding' : 'these findings'}</button>
-            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setAsking(false)}>Not now</button>
-          </div>
-        </div>
-      )}
+      {asking && errors.length > 0 && <SaveWithFindings errors={errors} busy={save.isPending} onSave={() => save.mutate()} onCancel={() => setAsking(false)} />}
       {save.isError && <p className="notice notice-bad text-sm w-full" role="alert">{save.error.message}</p>}
     </div>
   );

@@ -20,6 +20,12 @@ export function presetValues(saved: FieldValues, preset: CommandPreset): FieldVa
   return { ...saved, ...preset.values };
 }
 
+/** The port a command's times are for: the serial port it names, else the first serial port; null when none. */
+export function timingPort<P extends { name: string; settings: { interface: string } }>(ports: readonly P[], portName: string): P | null {
+  const serial = ports.filter((p) => p.settings.interface !== 'tcp');
+  return serial.find((p) => p.name === portName) ?? serial[0] ?? null;
+}
+
 /** One way of sending a command (its saved values or a preset) as a technician copies it. */
 export interface CommandRendering {
   /** The preset's name, or null for the command's saved values. */

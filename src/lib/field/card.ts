@@ -3,7 +3,7 @@ import {
   HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, portSettingsBlock, portShorthand,
   type PortSettings, type Template, type FieldValues,
 } from '../frame';
-import { renderCommandVariants, type CommandPreset, type CommandRendering } from '../composer/presets';
+import { renderCommandVariants, timingPort, type CommandPreset, type CommandRendering } from '../composer/presets';
 
 export { MACHINERY_CAUTION as CAUTION } from '../caution';
 
@@ -74,8 +74,7 @@ export function cardPort(p: CardPortInput, heading: string): CardPort {
  * its port (the one it names, else the device's first serial port).
  */
 export function cardCommand(c: CardCommandInput, ports: { name: string; settings: PortSettings }[] = []): CardCommand {
-  const serial = ports.filter((p) => p.settings.interface !== 'tcp');
-  const port = serial.find((p) => p.name === c.portName) ?? serial[0] ?? null;
+  const port = timingPort(ports, c.portName);
   return {
     id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
     sends: renderCommandVariants(c, port ? port.settings : null),

@@ -86,8 +86,8 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
 export async function updateCommand(ctx: TeamContext, id: string, input: CommandUpdate): Promise<CommandView> {
   const { version, ...patch } = input;
   return db.transaction(async (tx) => {
-    if (patch.presets !== undefined || patch.template !== undefined) await presetsFit(tx, ctx, id, patch);
     const current = await findCommand(tx, ctx, id);
+    if (patch.presets !== undefined || patch.template !== undefined) presetsFit(current, patch);
     const owner = await findOwner(tx, ctx, current);
     const errors = errorFindings({ ...current, ...definedOnly(patch) } as CommandRow, owner);
     const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>, { note: findingsNote(errors) });
@@ -112,8 +112,7 @@ const findingsNote = (codes: string[]) => (codes.length ? ` · saved with ${code
  * Presets must fit the template they are kept with: the one sent, or the saved one when only presets are sent;
  * a new template must fit the saved presets (send presets with it to change both at once).
  */
-async function presetsFit(q: DbOrTx, ctx: TeamContext, id: string, patch: Omit<CommandUpdate, 'version'>) {
-  const current = await findCommand(q, ctx, id);
+function presetsFit(current: CommandRow, patch: Omit<CommandUpdate, 'version'>) {
   const template = patch.template ?? current.template;
   const fields: Record<string, string> = {};
   (patch.presets ?? current.presets).forEach((p, i) => {

@@ -13,19 +13,20 @@ export const ownerPath = (kind: OwnerKind, id: string) => `/vault/${kind === 'de
 
 export async function libraryPage(ctx: TeamContext, kind: OwnerKind, id: string) {
   const owner = await findOwner(db, ctx, kind === 'device' ? { deviceId: id } : { profileId: id });
-  // A device's commands are measured against its machine's PLC STRING, when the machine records its length.
-  const [m] = kind === 'device'
-    ? await db.select({ capacity: machine.plcStringCapacity }).from(device).innerJoin(machine, eq(machine.id, device.machineId)).where(and(eq(device.id, id), eq(device.teamId, ctx.team.id)))
-    : [];
-  return {
-    owner: { kind, id, label: owner.label }, basePath: ownerPath(kind, id), canEdit: can(ctx.role, 'command:update'), ports: owner.ports,
-    plcStringCapacity: m?.capacity ?? null,
-  };
+  return { owner: { kind, id, label: owner.label }, basePath: ownerPath(kind, id), canEdit: can(ctx.role, 'command:update'), ports: owner.ports };
+}
+
+/** A device's commands are measured against its machine's PLC STRING, when the machine records its length. */
+async function plcStringCapacity(ctx: TeamContext, kind: OwnerKind, id: string): Promise<number | null> {
+  if (kind !== 'device') return null;
+  const [m] = await db.select({ capacity: machine.plcStringCapacity }).from(device).innerJoin(machine, eq(machine.id, device.machineId))
+    .where(and(eq(device.id, id), eq(device.teamId, ctx.team.id)));
+  return m?.capacity ?? null;
 }
 
 /** Props for the composer island; `commandId` "new" gives an unsaved command started from the first port's frame rules. */
 export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string, commandId: string) {
-  const lib = await libraryPage(ctx, kind, id);
+  const lib = { ...(await libraryPage(ctx, kind, id)), plcStringCapacity: await plcStringCapacity(ctx, kind, id) };
   if (commandId === 'new') {
     if (!can(ctx.role, 'command:create')) throw new Forbidden(`Your role (${ctx.role}) does not allow command create.`);
     const rules = lib.ports[0]?.settings.frameRules ?? {};
