@@ -127,6 +127,8 @@ describe('all rows or none', () => {
       const m = expectOk(await owner.post('/api/machines', { siteId: site.id, name: 'Line 1' }), 201);
       const importing = owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'IN'), mapping, apply: true }).catch((err: Error) => err);
       const job = await untilStaging(owner, ROWS, []);
+      // Stopped once both kinds of writing have begun: records out of sight and their history in the stage.
+      while ((await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])) === 0) await new Promise((r) => setTimeout(r, 10));
       await first.stop();
       expect(await importing).toBeInstanceOf(Error);
 
