@@ -55,29 +55,34 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   };
   return (
     <ComposerCore key={epoch} initial={base} ports={ports} readOnly={readOnly} banner={banner} plcStringCapacity={plcStringCapacity ?? null}
-      footer={(draft, valid, _replace, errors) => (
-        <>
-          {!readOnly && (
-            <Section title="Save" id="save">
-              <SaveBar draft={draft} base={base} saved={saved} owner={owner} valid={valid} errors={errors} composerHref={(id) => `${basePath}/${id}`}
-                dirty={JSON.stringify(draftOf(draft)) !== JSON.stringify(base)}
-                onSaved={(c) => { setSaved({ id: c.id, version: c.version }); setBase(draftOf(c)); }}
-                onLoad={load} />
-            </Section>
-          )}
-          {saved && (
-            <Section title="History" id="history-panel">
-              {showHistory ? (
-                <Suspense fallback={<p className="text-sm">Loading history…</p>}>
-                  <History key={saved.version} commandId={saved.id} canRestore={canEdit && !inheritedFrom} onRestored={load} />
-                </Suspense>
-              ) : (
-                <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
-              )}
-            </Section>
-          )}
-        </>
-      )} />
+      footer={(draft, valid, _replace, errors) => {
+        const dirty = JSON.stringify(draftOf(draft)) !== JSON.stringify(base);
+        return (
+          <>
+            {!readOnly && (
+              <Section title="Save" id="save">
+                <SaveBar draft={draft} base={base} saved={saved} owner={owner} valid={valid} errors={errors} composerHref={(id) => `${basePath}/${id}`}
+                  dirty={dirty}
+                  onSaved={(c) => { setSaved({ id: c.id, version: c.version }); setBase(draftOf(c)); }}
+                  onLoad={load} />
+              </Section>
+            )}
+            {saved && (
+              <Section title="History" id="history-panel">
+                {showHistory ? (
+                  <Suspense fallback={<p className="text-sm">Loading history…</p>}>
+                    {/* Keeping their version shows it, unless there are edits: saving those then shows the conflict, part by part. */}
+                    <History key={saved.version} commandId={saved.id} canRestore={canEdit && !inheritedFrom} seen={{ version: saved.version, draft: base }}
+                      onRestored={load} onKeep={(c) => { if (!dirty) load(c); }} />
+                  </Suspense>
+                ) : (
+                  <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
+                )}
+              </Section>
+            )}
+          </>
+        );
+      }} />
   );
 }
 

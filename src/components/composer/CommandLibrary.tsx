@@ -8,10 +8,12 @@ import { presetValues, renderCommand, timingPort, type CommandPreset } from '../
 import { ms } from '../../lib/composer/format';
 import type { FieldValues, Template } from '../../lib/frame';
 import type { NamedPort } from './types';
+import { useCommandTrash } from './use-command-trash';
 
 interface Item {
   id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
   template: Template; fieldValues: FieldValues; presets: CommandPreset[]; portName: string;
+  notes: string; replyTemplate: Template | null; rawUnits: Record<string, string>;
 }
 interface Target { value: string; label: string }
 interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean; ports: NamedPort[] }
@@ -68,7 +70,7 @@ function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath
     mutationFn: () => { const [kind, id] = target.split(':'); return api(`/api/commands/${item.id}/copy`, { body: { [kind === 'device' ? 'deviceId' : 'profileId']: id } }); },
     onSuccess: () => { setTarget(''); done(); },
   });
-  const trash = useMutation({ mutationFn: () => api(`/api/commands/${item.id}?version=${item.version}`, { method: 'DELETE' }), onSuccess: done });
+  const trash = useCommandTrash(item, done);
   const err = copy.error ?? trash.error;
   return (
     <li className="card grid gap-2" data-command={item.name}>
@@ -94,6 +96,7 @@ function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath
           )}
         </div>
       )}
+      {trash.notice}
       {err && <p className="notice notice-bad text-sm" role="alert">{err.message}</p>}
     </li>
   );

@@ -1,39 +1,67 @@
-/** History of one record: who changed which field from what to what; any revision can be restored. */
+/**
+ * History of one record: who changed which field from what to what; any revision can be restored. A restore names
+ * the version the history shows as the newest; if someone saved since, nothing is restored: their change is shown
+ * in the one conflict notice and the restore is asked again over their version.
+ */
 import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api, isStale } from '../../lib/client/api';
+import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
+import { useConflict } from '../../lib/client/use-conflict';
 import { QueryProvider } from '../QueryProvider';
+import { ConflictNotice } from '../ui/ConflictNotice';
 import { ErrorNotice, fieldLabel, Pager, showValue } from './shared';
+import { revisionPartLabel, revisionPartValue, snapshotShape, type Snapshot } from './revision-parts';
 
 interface Revision {
   id: string; version: number; action: string; userName: string; summary: string; createdAt: string;
   changes: { field: string; from: unknown; to: unknown }[];
+  snapshot: Snapshot;
 }
 interface PageOf<T> { items: T[]; total: number; page: number; pageSize: number }
+/** A restore: the revision, the version it is sent over, and the snapshot of the version seen (what their change is counted from). */
+interface Attempt { rev: Revision; version: number; seen: Revision }
 
 const ACTION: Record<string, string> = { create: 'Created', update: 'Changed', delete: 'Moved to trash', restore: 'Back from trash', revert: 'Restored', copy: 'Settings copied' };
 
 export function HistoryList({ type, id, canRestore, reload }: { type: string; id: string; canRestore: boolean; reload?: boolean }) {
   const qc = useQueryClient();
   const [page, setPage] = useState(1);
-  const q = useQuery({ queryKey: vaultKeys.history(type, id, page), queryFn: () => api<PageOf<Revision>>(`/api/revisions?entityType=${type}&entityId=${id}&page=${page}&pageSize=10`) });
-  const latest = q.data?.page === 1 ? q.data.items[0]?.version : undefined;
+  const pageOf = (n: number) => () => api<PageOf<Revision>>(`/api/revisions?entityType=${type}&entityId=${id}&page=${n}&pageSize=10`);
+  const q = useQuery({ queryKey: vaultKeys.history(type, id, page), queryFn: pageOf(page) });
+  // The newest revision is the version the history shows; on a later page it comes from the first.
+  const first = useQuery({ queryKey: vaultKeys.history(type, id, 1), queryFn: pageOf(1), enabled: page > 1 });
+  const newest = (page === 1 ? q.data : first.data)?.items[0];
+  const latest = newest?.version;
+  const conflicts = useConflict<Snapshot, Snapshot & { version: number }>(snapshotShape(newest?.snapshot ?? {}));
+  const conflict = conflicts.conflict;
+  const [asked, setAsked] = useState<Pick<Attempt, 'rev' | 'seen'> | null>(null);
   const restore = useMutation({
-    mutationFn: async (rev: Revision) => {
-      // The record's current version is the newest revision's: restoring is refused if someone changed it since.
-      const newest = await api<PageOf<Revision>>(`/api/revisions?entityType=${type}&entityId=${id}&pageSize=1`);
-      if (latest !== undefined && newest.items[0]!.version !== latest) throw new Error('This record changed while you were looking; the history has been refreshed.');
-      return api(`/api/revisions/${rev.id}/restore`, { body: { version: newest.items[0]!.version } });
+    mutationFn: ({ rev, version }: Attempt) => api(`/api/revisions/${rev.id}/restore`, { body: { version } }),
+    onSuccess: () => {
+      conflicts.clear();
+      setAsked(null);
+      return reload ? location.reload() : qc.invalidateQueries({ queryKey: vaultKeys.all() });
     },
-    onSuccess: () => (reload ? location.reload() : qc.invalidateQueries({ queryKey: vaultKeys.all() })),
+    onError: (err, { rev, seen }) => { if (conflicts.take(err, seen.snapshot, seen.snapshot)) setAsked({ rev, seen }); },
     onSettled: () => qc.invalidateQueries({ queryKey: vaultKeys.historyOf(type, id) }),
   });
   if (q.isPending) return <p className="text-sm text-muted">Loading history…</p>;
   if (q.isError) return <ErrorNotice error={q.error} />;
   return (
     <div>
-      {restore.isError && <ErrorNotice error={isStale(restore.error) ? new Error('Someone changed this record meanwhile; look at the newest version and try again.') : restore.error} />}
+      {restore.isError && !conflict && <ErrorNotice error={restore.error} />}
+      {conflict && asked && (
+        <div className="mb-2">
+          <ConflictNotice noun={type} version={conflict.version} rows={conflict.rows} busy={restore.isPending}
+            label={(p) => revisionPartLabel(type, p)} show={(p, v) => revisionPartValue(type, p, v)}
+            title={`Someone else saved this ${type} while you were looking at version ${asked.seen.version}; it is now at version ${conflict.version}.`}
+            explain={`Nothing was restored. Their change is below. Restoring revision ${asked.rev.version} now puts the whole ${type} back as it was then, undoing their change too; or keep version ${conflict.version} as they saved it.`}
+            reapplyLabel={`Restore revision ${asked.rev.version} over version ${conflict.version}`} discardLabel={`Keep version ${conflict.version}`}
+            onReapply={() => restore.mutate({ ...asked, version: conflict.version })}
+            onDiscard={() => { conflicts.clear(); setAsked(null); qc.invalidateQueries({ queryKey: vaultKeys.all() }); }} />
+        </div>
+      )}
       <ol className="grid gap-2" data-testid="history">
         {q.data.items.map((r) => (
           <li key={r.id} className="border border-line rounded p-2 bg-white" data-version={r.version}>
@@ -42,8 +70,8 @@ export function HistoryList({ type, id, canRestore, reload }: { type: string; id
               <span>{ACTION[r.action] ?? r.action}</span>
               <span className="text-muted">by {r.userName || 'someone since removed'} · {new Date(r.createdAt).toLocaleString()}</span>
               {canRestore && r.version !== latest && !['delete', 'restore'].includes(r.action) && (
-                <button type="button" className="btn btn-quiet btn-sm ml-auto" disabled={restore.isPending}
-                  onClick={() => confirm(`Put this record back as it was at version ${r.version}? This is saved as a new version.`) && restore.mutate(r)}>
+                <button type="button" className="btn btn-quiet btn-sm ml-auto" disabled={restore.isPending || !newest}
+                  onClick={() => newest && confirm(`Put this record back as it was at version ${r.version}? This is saved as a new version.`) && restore.mutate({ rev: r, version: newest.version, seen: newest })}>
                   Restore v{r.version}
                 </button>
               )}
