@@ -7,6 +7,17 @@ const browser = browserPool();
 
 const DRIVE = '/vault/devices/dev_demo_drv501/commands';
 const notation = (page: Page, id: string) => page.getByTestId(`notation-${id}`).textContent();
+const stamp = Date.now().toString(36).slice(-5).toUpperCase();
+
+/** A colleague's write (or the setup's), through the API with the page's session. */
+async function api(page: Page, method: string, path: string, data?: unknown) {
+  const res = await page.request.fetch(path, { method, data, headers: { origin: new URL(page.url()).origin } });
+  expect(res.status(), await res.text()).toBeLessThan(300);
+  return res.json();
+}
+
+/** A command of our own (a copy of a demo jog), so the demo jogs the other tests read stay as they are. */
+const ownCommand = (page: Page, name: string) => api(page, 'POST', '/api/commands/cmd_demo_drv501_jog_fwd/copy', { deviceId: 'dev_demo_drv501', name });
 
 async function addText(page: Page, text: string) {
   await page.locator('#req-add-kind').selectOption('text');
@@ -158,6 +169,100 @@ describe('command composer in the browser', () => {
     expect(saved).toMatchObject({ name: 'Jog conflict (theirs)', purpose: 'my purpose', notes: 'my notes', version: 3 });
     expect(saved.template.segments.map((s: { type: string }) => s.type)).toEqual(['integer', 'integer', 'literal', 'terminator']);
     expect(await page.getByLabel('Command name').inputValue()).toBe('Jog conflict (theirs)');
+  });
+
+  it('moving a command someone saved meanwhile shows their change first; "Keep it" writes nothing, the next ask moves it', async () => {
+    const { page } = await browser({ viewport: DESKTOP });
+    page.on('dialog', (d) => d.accept());
+    await signIn(page, 'engineer@fernhollow.test');
+    const name = `Trash conflict ${stamp}`;
+    const { id } = await ownCommand(page, name);
+    await visit(page, DRIVE);
+    const row = page.locator(`li[data-command="${name}"]`);
+    await row.waitFor();
+    await page.waitForLoadState('networkidle');
+    // A colleague saves the command after the library was listed.
+    await api(page, 'PATCH', `/api/commands/${id}`, { version: 1, purpose: `their purpose ${stamp}` });
+    await row.getByRole('button', { name: 'Move to trash' }).click();
+    const conflict = row.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.textContent()).toContain('Nothing was moved to the trash');
+    const purpose = conflict.locator('li', { hasText: 'Purpose' });
+    expect(await purpose.textContent()).toContain('their change');
+    expect(await purpose.locator('[data-side="theirs"]').textContent()).toBe(`their purpose ${stamp}`);
+    expect(await purpose.locator('[data-side="mine"]').textContent()).toBe('not changed by you');
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'composer-library-trash-conflict-desktop', false);
+    await page.setViewportSize(PHONE);
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'composer-library-trash-conflict-phone', false);
+    await page.setViewportSize(DESKTOP);
+
+    // "Keep it": nothing is written, the command stays at their version.
+    await conflict.getByRole('button', { name: 'Keep it' }).click();
+    await conflict.waitFor({ state: 'detached' });
+    expect(await api(page, 'GET', `/api/commands/${id}`)).toMatchObject({ version: 2, purpose: `their purpose ${stamp}` });
+    await page.waitForLoadState('networkidle');
+
+    // They save once more; this time the move goes ahead over the version the notice names.
+    await api(page, 'PATCH', `/api/commands/${id}`, { version: 2, notes: `their notes ${stamp}` });
+    await row.getByRole('button', { name: 'Move to trash' }).click();
+    await conflict.waitFor();
+    expect(await conflict.locator('li', { hasText: 'Notes' }).locator('[data-side="theirs"]').textContent()).toBe(`their notes ${stamp}`);
+    await conflict.getByRole('button', { name: 'Move version 3 to the trash' }).click();
+    await row.waitFor({ state: 'detached' });
+    const gone = await page.request.get(`/api/commands/${id}`);
+    expect(gone.status()).toBe(404);
+    const trashed = await api(page, 'GET', '/api/commands?deviceId=dev_demo_drv501&trashed=true');
+    expect(trashed.items.find((c: { id: string }) => c.id === id)).toMatchObject({ version: 4, notes: `their notes ${stamp}` });
+  });
+
+  it('restoring a revision after someone saved shows their change first; "Keep" writes nothing, the next ask restores', async () => {
+    const { page } = await browser({ viewport: DESKTOP });
+    await signIn(page, 'engineer@fernhollow.test');
+    const { id } = await ownCommand(page, `Restore conflict ${stamp}`);
+    const v1 = await api(page, 'GET', `/api/commands/${id}`);
+    await api(page, 'PATCH', `/api/commands/${id}`, { version: 1, purpose: 'second purpose' });
+    await visit(page, `${DRIVE}/${id}`);
+    await page.getByRole('button', { name: 'Show history (version 2)' }).click();
+    const history = page.getByTestId('history');
+    await history.getByRole('button', { name: 'Restore v1' }).waitFor();
+    await page.waitForLoadState('networkidle');
+    // A colleague saves while I look at version 2.
+    await api(page, 'PATCH', `/api/commands/${id}`, { version: 2, notes: `their notes ${stamp}` });
+    await history.getByRole('button', { name: 'Restore v1' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.textContent()).toContain('while you were looking at version 2; it is now at version 3');
+    expect(await conflict.textContent()).toContain('Nothing was restored');
+    const notes = conflict.locator('li', { hasText: 'Notes' });
+    expect(await notes.textContent()).toContain('their change');
+    expect(await notes.locator('[data-side="theirs"]').textContent()).toBe(`their notes ${stamp}`);
+    expect(await conflict.locator('li').count()).toBe(1);
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'composer-restore-conflict-desktop', false);
+    await page.setViewportSize(PHONE);
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'composer-restore-conflict-phone', false);
+    await page.setViewportSize(DESKTOP);
+
+    // "Keep version 3": nothing is written and the composer shows their version.
+    await conflict.getByRole('button', { name: 'Keep version 3' }).click();
+    await page.getByText('Saved · version 3').waitFor();
+    expect(await page.getByLabel('Notes').inputValue()).toBe(`their notes ${stamp}`);
+    expect(await api(page, 'GET', `/api/commands/${id}`)).toMatchObject({ version: 3, purpose: 'second purpose', notes: `their notes ${stamp}` });
+    await history.getByRole('button', { name: 'Restore v1' }).waitFor();
+    await page.waitForLoadState('networkidle');
+
+    // They save again; restoring version 1 over the version the notice names puts it back whole.
+    await api(page, 'PATCH', `/api/commands/${id}`, { version: 3, purpose: `their purpose ${stamp}` });
+    await history.getByRole('button', { name: 'Restore v1' }).click();
+    await conflict.waitFor();
+    expect(await conflict.locator('li', { hasText: 'Purpose' }).locator('[data-side="theirs"]').textContent()).toBe(`their purpose ${stamp}`);
+    await conflict.getByRole('button', { name: 'Restore revision 1 over version 4' }).click();
+    await page.getByText('Saved · version 5').waitFor();
+    expect(await api(page, 'GET', `/api/commands/${id}`)).toMatchObject({ version: 5, purpose: v1.purpose, notes: v1.notes });
+    expect(await page.getByLabel('Purpose').inputValue()).toBe(v1.purpose);
   });
 
   it('shows the jogs as PLC literals and decodes a reply with a bad checksum, at phone width', async () => {

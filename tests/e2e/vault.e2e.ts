@@ -150,6 +150,50 @@ describe('vault in the browser', () => {
     expect((await api(page, 'GET', `/api/devices/${d.id}`)).ports).toEqual([]);
   });
 
+  it('restoring a revision after someone saved shows their change first; "Keep" writes nothing, the next ask restores', async () => {
+    const { page } = await browser();
+    await signIn(page, 'engineer@fernhollow.test');
+    const d = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `RST-${stamp}`, location: 'Cabinet 1' });
+    await api(page, 'PATCH', `/api/devices/${d.id}`, { version: 1, location: 'Cabinet 2' });
+    await visit(page, `/vault/devices/${d.id}`);
+    const history = page.getByTestId('history');
+    await history.getByRole('button', { name: 'Restore v1' }).waitFor();
+    await page.waitForLoadState('networkidle');
+    // A colleague saves the device while I look at version 2 in its history.
+    await api(page, 'PATCH', `/api/devices/${d.id}`, { version: 2, firmware: `fw-${stamp}` });
+    await history.getByRole('button', { name: 'Restore v1' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    expect(await conflict.textContent()).toContain('while you were looking at version 2; it is now at version 3');
+    expect(await conflict.textContent()).toContain('Nothing was restored');
+    const firmware = conflict.locator('li', { hasText: 'firmware' });
+    expect(await firmware.textContent()).toContain('their change');
+    expect(await firmware.locator('[data-side="theirs"]').textContent()).toBe(`fw-${stamp}`);
+    expect(await conflict.locator('li').count()).toBe(1);
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'vault-restore-conflict-desktop', false);
+    await page.setViewportSize(PHONE);
+    await conflict.scrollIntoViewIfNeeded();
+    await shot(page, 'vault-restore-conflict-phone', false);
+    await page.setViewportSize(DESKTOP);
+
+    // "Keep version 3": nothing is written; the history shows their version as the newest.
+    await conflict.getByRole('button', { name: 'Keep version 3' }).click();
+    await conflict.waitFor({ state: 'detached' });
+    await history.locator('li[data-version="3"]').waitFor();
+    expect(await api(page, 'GET', `/api/devices/${d.id}`)).toMatchObject({ version: 3, location: 'Cabinet 2', firmware: `fw-${stamp}` });
+    await page.waitForLoadState('networkidle');
+
+    // They save again; restoring version 1 over the version the notice names puts the device back as it was.
+    await api(page, 'PATCH', `/api/devices/${d.id}`, { version: 3, location: `Cabinet 3 ${stamp}` });
+    await history.getByRole('button', { name: 'Restore v1' }).click();
+    await conflict.waitFor();
+    expect(await conflict.locator('li', { hasText: 'location' }).locator('[data-side="theirs"]').textContent()).toBe(`Cabinet 3 ${stamp}`);
+    await conflict.getByRole('button', { name: 'Restore revision 1 over version 4' }).click();
+    await history.locator('li[data-version="5"]').waitFor();
+    expect(await api(page, 'GET', `/api/devices/${d.id}`)).toMatchObject({ version: 5, location: 'Cabinet 1', firmware: d.firmware });
+  });
+
   it('shows the demo bus fault and the screens at phone and desktop widths', async () => {
     for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
       const { page } = await browser({ viewport });
