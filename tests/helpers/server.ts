@@ -61,7 +61,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
   });
   let output = '';
   child.stdout?.on('data', (d) => (output += d));
-  child.stderr?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => { output += d; if (process.env.SERVER_STDERR) process.stderr.write(d); });
   const deadline = Date.now() + 20_000;
   for (;;) {
     if (child.exitCode !== null) {

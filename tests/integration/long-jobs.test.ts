@@ -136,6 +136,7 @@ describe('all rows or none', () => {
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(0);
       expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND deleted_at IS NULL', [m.id])).toBe(0);
+      expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'IN-%'", [])).toBeGreaterThan(0);
       // Silent for longer than a running job ever is (every batch touches the job).
       await db.execute({ sql: 'UPDATE job SET updated_at = updated_at - 11 * 60 * 1000 WHERE id = ?', args: [job.id] });
 
@@ -144,6 +145,8 @@ describe('all rows or none', () => {
         expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
         expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
         expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBe(0);
+        // Their search rows went with them.
+        expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'IN-%'", [])).toBe(0);
         const again = new TestClient(second.baseUrl);
         again.cookies = owner.cookies;
         const listed = expectOk(await again.get('/api/import/jobs')).items[0];
@@ -172,13 +175,15 @@ describe('records written before the final transaction', () => {
       // Half the file is written, out of sight: stamped with the job's id like the trash stamps a record.
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(ROWS / 4);
       expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBeGreaterThan(ROWS / 4);
-      expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBe(0);
+      // Their search rows are written with them (so showing them adds none); a search reads live devices only.
+      expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBeGreaterThan(ROWS / 4);
     } finally {
       db.close();
     }
     expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(0);
     expect(expectOk(await viewer.get('/api/devices?q=OS-000001&pageSize=5')).total).toBe(0);
     expect(expectOk(await viewer.get('/api/devices/search?q=OS-000001')).items).toHaveLength(0);
+    expect(expectOk(await viewer.get('/api/devices/search?q=OS')).total).toBe(0);
     expect(expectOk(await eng.get('/api/trash')).items.some((i: { label: string }) => i.label.startsWith('OS-'))).toBe(false);
     const exported = expectOk(await eng.get(`/api/export`));
     expect(exported.devices.some((d: { tag: string }) => d.tag.startsWith('OS-'))).toBe(false);
@@ -195,6 +200,8 @@ describe('records written before the final transaction', () => {
       expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN device d ON d.id = r.entity_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
       expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN port p ON p.id = r.entity_id JOIN device d ON d.id = p.device_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
       expect(await count(after, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+      // One search row per device: written while staging, none added when shown.
+      expect(await count(after, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBe(ROWS);
     } finally {
       after.close();
     }
@@ -292,6 +299,7 @@ describe('a parent moved to the trash while an import runs', () => {
     try {
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE team_id = ?', [into.teamId])).toBe(0);
       expect(await count(db, 'SELECT count(*) AS n FROM port WHERE team_id = ?', [into.teamId])).toBe(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM device_search WHERE team_id = ?', [into.teamId])).toBe(0);
       expect(await count(db, "SELECT count(*) AS n FROM job_row j JOIN job ON job.id = j.job_id WHERE job.team_id = ?", [into.teamId])).toBe(0);
     } finally {
       db.close();

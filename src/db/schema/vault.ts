@@ -134,10 +134,13 @@ export const device = sqliteTable(
     ...bookkeeping(),
   },
   (t) => [
-    // `id` breaks ties in every list order, so the page can be read straight off the index.
-    index('device_team_tag_idx').on(t.teamId, t.deletedAt, t.tag, t.id),
-    index('device_team_updated_idx').on(t.teamId, t.deletedAt, t.updatedAt, t.id),
-    index('device_machine_idx').on(t.machineId, t.deletedAt, t.tag, t.id),
+    // `id` breaks ties in every list order, so the page can be read straight off the index. `deleted_at` comes
+    // last (lists and counts still read it off the index, skipping the few trashed rows), so moving a row in or out
+    // of the trash, or a long job's rows into sight, moves its entries only within their own page
+    // (docs/decisions/008-long-jobs-in-batches.md).
+    index('device_team_tag_idx').on(t.teamId, t.tag, t.id, t.deletedAt),
+    index('device_team_updated_idx').on(t.teamId, t.updatedAt, t.id, t.deletedAt),
+    index('device_machine_idx').on(t.machineId, t.tag, t.id, t.deletedAt),
     // Two live devices of one machine never share a tag, letter case of A–Z aside (as port names on a device).
     uniqueIndex('device_machine_tag_nocase_uq').on(t.machineId, sql`${t.tag} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
     trashIndex('device_trash_idx', t.trashId),
@@ -160,7 +163,8 @@ export const port = sqliteTable(
     ...bookkeeping(),
   },
   (t) => [
-    index('port_device_idx').on(t.deviceId, t.deletedAt, t.position),
+    // Without `deleted_at`: showing or trashing a port leaves this entry alone (a device's ports are read with their rows).
+    index('port_device_idx').on(t.deviceId, t.position),
     // Two live ports of one device never share a name, letter case of A–Z aside (`nameKey` in
     // src/lib/schemas/vault.ts is the same rule for imports); the trash may hold an old one.
     uniqueIndex('port_device_name_nocase_uq').on(t.deviceId, sql`${t.name} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),

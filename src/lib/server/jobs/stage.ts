@@ -4,6 +4,7 @@
  *   tables in short batches, out of sight: stamped like the trash (`deleted_at` set) with the job's id as their
  *   `trash_id`, so no list, search, export or trash page shows them and no unique name rule counts them. The
  *   final transaction shows them all at once, a stamp cleared per row (`show`), after checking their parents.
+ *   A device's search row is written with it (searches read live devices only), not when it is shown.
  * - **Other rows** are staged in `job_row` as JSON and moved with `INSERT … SELECT`: link members and the
  *   import map inside the final transaction, creation revisions after it (`afterCommit`), a batch per short
  *   transaction that also removes what it moved, so an interrupted move carries on where it stopped.
@@ -12,10 +13,11 @@
 import { eq, getTableColumns, getTableName, is, sql, SQL, type Column } from 'drizzle-orm';
 import type { SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { db, type Tx } from '../../../db/client';
-import { job, jobRow, revision } from '../../../db/schema';
+import { device, job, jobRow, revision } from '../../../db/schema';
 import { Conflict } from '../errors';
 import { ENTITIES, entityOf } from '../records/entities';
 import type { AnyEntity } from '../records/entity';
+import { hiddenSearchRows, removeSearchRows, searchRowsOf } from '../vault/search';
 import { nextTurn } from './turns';
 
 /** Rows written per statement while staging (each its own short write). */
@@ -138,6 +140,8 @@ export class Stage {
       if (this.expected !== null) this.progress = { done: this.staged, total: this.expected };
       await db.batch([
         db.run(write),
+        // A device's search row goes in with it, so the final transaction need not write 50,000 of them.
+        ...(table === device ? [db.run(searchRowsOf(slice.map((row) => String(row.id))))] : []),
         db.update(job).set({ done: this.progress.done, total: this.progress.total, updatedAt: new Date() }).where(eq(job.id, this.jobId)),
       ]);
       await nextTurn();
@@ -235,6 +239,12 @@ export async function finishAfterCommit(jobId: string): Promise<void> {
 
 /** Removes what a job that did not commit wrote out of sight, children first, and its stage. */
 export async function discardJob(jobId: string): Promise<void> {
+  // The search rows of its devices first (found while the devices are still there).
+  const searchRows = await hiddenSearchRows(jobId);
+  for (let lo = 0; lo < searchRows.length; lo += CLEAR_BATCH) {
+    await db.run(removeSearchRows(searchRows.slice(lo, lo + CLEAR_BATCH)));
+    await nextTurn();
+  }
   for (const e of [...RECORDS].reverse()) {
     for (;;) {
       const name = sql.identifier(getTableName(e.table));

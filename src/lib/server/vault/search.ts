@@ -1,5 +1,5 @@
 /** Team-wide device search over the FTS5 index `device_search` (kept current by triggers). */
-import { sql } from 'drizzle-orm';
+import { sql, type SQL } from 'drizzle-orm';
 import { db } from '../../../db/client';
 import type { TeamContext } from '../guard';
 import type { Page } from './records';
@@ -19,7 +19,8 @@ export async function searchDevices(ctx: TeamContext, q: string, page: number, p
   const match = ftsQuery(q);
   if (!match) throw new Invalid('q: type at least one letter or digit', { fields: { q: 'Type at least one letter or digit.' } });
   const offset = (page - 1) * pageSize;
-  // Ranked by FTS5's bm25; the team filter is on the index row, so other teams' devices are never joined.
+  // Ranked by FTS5's bm25; the team filter is on the index row, so other teams' devices are never joined. A long
+  // job's devices have their rows before they are shown (`searchRowsOf`), so only live devices count.
   const [rows, totals] = await Promise.all([
     db.all<Record<string, string>>(sql`
       SELECT d.id, d.tag, d.name, d.role, d.maker, d.model, d.serial_number AS serialNumber,
@@ -27,10 +28,11 @@ export async function searchDevices(ctx: TeamContext, q: string, page: number, p
       FROM device_search f
       JOIN device d ON d.id = f.device_id
       JOIN machine m ON m.id = d.machine_id
-      WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id}
+      WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id} AND d.deleted_at IS NULL
       ORDER BY f.rank, d.tag
       LIMIT ${pageSize} OFFSET ${offset}`),
-    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM device_search f WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id}`),
+    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM device_search f JOIN device d ON d.id = f.device_id
+      WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id} AND d.deleted_at IS NULL`),
   ]);
   const words = match.match(/"([^"]+)"/g)!.map((w) => w.slice(1, -1));
   const items = rows.map((r) => ({ ...(r as unknown as Omit<SearchHit, 'matched'>), matched: matchedFields(r, words) }));
@@ -42,4 +44,28 @@ function matchedFields(row: Record<string, string>, words: string[]): string[] {
     const tokens = String(row[f] ?? '').toLowerCase().match(/[\p{L}\p{N}]+/gu) ?? [];
     return words.some((w) => tokens.some((t) => t.startsWith(w)));
   });
+}
+
+/**
+ * The search rows of devices a long job writes out of sight, written in the same batch as the devices (the row
+ * `device_search_ai` would write for a live device), so the job's final transaction need not write them: showing
+ * a device whose trash stamp is a job's id adds no search row (migration 0015).
+ */
+export function searchRowsOf(deviceIds: readonly string[]): SQL {
+  return sql`INSERT INTO device_search (device_id, team_id, tag, name, maker, model, serial_number, site_name, machine_name)
+    SELECT d.id, d.team_id, d.tag, d.name, d.maker, d.model, d.serial_number, s.name, m.name
+    FROM device d JOIN machine m ON m.id = d.machine_id JOIN site s ON s.id = m.site_id
+    WHERE d.id IN (${sql.join(deviceIds.map((id) => sql`${id}`), sql`, `)})`;
+}
+
+/** Search rows of the devices a job still has out of sight (read in one pass: the index finds rows by id only by reading them all). */
+export async function hiddenSearchRows(jobId: string): Promise<number[]> {
+  const rows = await db.all<{ r: number }>(sql`SELECT f.rowid AS r FROM device_search f
+    WHERE f.device_id IN (SELECT id FROM device WHERE trash_id = ${jobId} AND deleted_at IS NOT NULL)`);
+  return rows.map((x) => Number(x.r));
+}
+
+/** Removes search rows by their row ids (a batch per call). */
+export function removeSearchRows(rowids: readonly number[]): SQL {
+  return sql`DELETE FROM device_search WHERE rowid IN (${sql.join(rowids.map((r) => sql`${r}`), sql`, `)})`;
 }
