@@ -126,7 +126,9 @@ async function main() {
     const appPort = await freePort();
     const app = `http://127.0.0.1:${appPort}`;
     let appLog = '';
-    const server = spawn(process.execPath, ['server/serve.mjs'], {
+    // BENCH_PROFILE=dir writes the app server's CPU profile there (node --cpu-prof), to see where a request's time goes.
+    const profile = process.env.BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
+    const server = spawn(process.execPath, [...profile, 'server/serve.mjs'], {
       env: { ...process.env, HOST: '127.0.0.1', PORT: String(appPort), BASE_URL: app, DATABASE_URL: url, SEED_DEMO: '0' },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
@@ -162,7 +164,7 @@ async function main() {
     report(runs);
   } finally {
     for (const c of children) c.kill('SIGTERM');
-    await new Promise((r) => setTimeout(r, 300));
+    await new Promise((r) => setTimeout(r, process.env.BENCH_PROFILE ? 2500 : 300));
     rmSync(dir, { recursive: true, force: true });
   }
 }

@@ -49,7 +49,9 @@ const ASSETS = '/_astro/';
 function serveStatic(req, res, fallThrough) {
   if (req.method !== 'GET' && req.method !== 'HEAD') return fallThrough();
   const path = (req.url ?? '/').split('?')[0];
-  if (path === '/' || path.endsWith('/')) return fallThrough();
+  // Only a file name (`/favicon.svg`, `/_astro/x.js`) can be in the built folder: pages and the API go straight to
+  // the app, without a look at the disk (and the not-found error it raises) on every request.
+  if (!/\.[^/]*$/.test(path)) return fallThrough();
   const immutable = path.startsWith(ASSETS);
   const stream = send(req, path, { root: clientDir, index: false, dotfiles: 'deny', immutable, maxAge: immutable ? '365d' : 0 });
   stream.on('directory', () => fallThrough());

@@ -231,6 +231,15 @@ describe('response headers', () => {
     expect(res.headers.get('x-content-type-options')).toBe('nosniff');
   });
 
+  it('serves the public folder by file name, and pages and the API from the app', async () => {
+    const icon = await fetch(`${inject('baseUrl')}/favicon.svg`);
+    expect(icon.status).toBe(200);
+    expect(icon.headers.get('content-type')).toMatch(/^image\/svg\+xml/);
+    expect(icon.headers.get('x-content-type-options')).toBe('nosniff');
+    expect((await fetch(`${inject('baseUrl')}/no-such-file.js`)).status).toBe(404);
+    expect((await fetch(`${inject('baseUrl')}/api/health`)).status).toBe(200);
+  });
+
   it('keeps signed-in pages and data out of every cache', async () => {
     const user = await new TestClient().signUp('cache');
     await user.post('/api/teams', { name: `Cache ${Date.now()}` });
