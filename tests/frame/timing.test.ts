@@ -29,11 +29,11 @@ describe('character and frame time', () => {
     expect(silentIntervals(s(19200, 8, 'even')).interCharTimeoutMs).toBeCloseTo(0.859375, 9);
   });
   test('transaction and polling cycle', () => {
-    // 9600 8-N-1 (common practice port setting): 8-byte request, 2 ms turnaround, 7-byte reply, 3.5-char gap
+    // 9600 8-N-1 (common practice port setting): 8-byte request, 2 ms response time, 7-byte reply, 3.5-char gap
     const t = lineTiming(s(9600), 8, 7, 2);
     expect(t.replyTimeMs).toBeCloseTo(7.2916667, 6);
     expect(t.transactionMs).toBeCloseTo(8 * (10 / 9.6) + 2 + 7 * (10 / 9.6) + 3.5 * (10 / 9.6), 9);
-    const cycle = pollCycle(s(9600), [{ requestBytes: 8, replyBytes: 7, turnaroundMs: 2 }, { requestBytes: 8, replyBytes: 7, turnaroundMs: 2 }]);
+    const cycle = pollCycle(s(9600), [{ requestBytes: 8, replyBytes: 7, responseMs: 2 }, { requestBytes: 8, replyBytes: 7, responseMs: 2 }]);
     expect(cycle.cycleTimeMs).toBeCloseTo(2 * t.transactionMs, 9);
     expect(cycle.pollsPerSecond).toBeCloseTo(2000 / (2 * t.transactionMs), 9);
     expect(pollCycle(s(9600), [])).toEqual({ cycleTimeMs: 0, pollsPerSecond: 0, cyclesPerSecond: 0 });

@@ -1,4 +1,5 @@
 import { describe, expect, test } from 'vitest';
+import { POST as busCycle } from '~/pages/api/tools/bus-cycle';
 import { POST as checksum } from '~/pages/api/tools/checksum';
 import { POST as convert } from '~/pages/api/tools/convert';
 import { POST as frame } from '~/pages/api/tools/frame';
@@ -121,6 +122,64 @@ describe('POST /api/tools/timing', () => {
     expect(r.status).toBe(422);
     expect(r.body.fields).toHaveProperty('dataBits');
     expect((await call(timing, { baud: 9600, dataBits: 8, parity: 'none', stopBits: 3, byteCount: 1 })).status).toBe(422);
+  });
+});
+
+describe('POST /api/tools/timing: the transaction as the bus planner counts it', () => {
+  const read10 = { baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, byteCount: 8, replyByteCount: 25 };
+  test('request, 3.5-character interval, response time, reply, interval; turnaroundMs is the older name of responseMs', async () => {
+    // Modbus over Serial Line V1.02 §2.5.1.1: 3.5 characters after each frame; python3 decimal: 40 × 10 / 9.6 + 20 = 61.666667
+    expect((await call(timing, { ...read10, responseMs: 20 })).body).toMatchObject({ frameTimeMs: 8.333333, replyTimeMs: 26.041667, transactionMs: 61.666667 });
+    expect((await call(timing, { ...read10, turnaroundMs: 20 })).body.transactionMs).toBe(61.666667);
+    expect((await call(timing, { ...read10, turnaroundMs: 20, responseMs: 20 })).body.transactionMs).toBe(61.666667);
+    // without a reply: the request and its interval (python3: 11.5 × 10 / 9.6 = 11.979167)
+    expect((await call(timing, { ...read10, replyByteCount: 0 })).body.transactionMs).toBe(11.979167);
+  });
+  test('422: the two names disagree, or a response time without a reply', async () => {
+    const both = await call(timing, { ...read10, turnaroundMs: 20, responseMs: 5 });
+    expect(both.status).toBe(422);
+    expect(both.body.fields.turnaroundMs).toContain('older name of responseMs');
+    const noReply = await call(timing, { ...read10, replyByteCount: undefined, responseMs: 5 });
+    expect(noReply.status).toBe(422);
+    expect(noReply.body.fields.responseMs).toContain('needs a reply');
+  });
+});
+
+describe('POST /api/tools/bus-cycle', () => {
+  const settings = { baud: 9600, protocol: 'modbus-rtu', retries: 2, responseTimeoutMs: 100 };
+  const read10 = { requestBytes: 8, replyBytes: 25, responseMs: 20 };
+  test('the worked example of docs/api.md: two devices read 10 holding registers at 9600 8-N-1', async () => {
+    // Modbus over Serial Line V1.02 §2.5.1.1 (3.5-character intervals); python3 decimal for the figures
+    const r = await call(busCycle, { settings, polls: [{ label: 'DRV-1', ...read10 }, { label: 'DRV-2', ...read10 }] });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ port: '9600 8-N-1', cycleMs: 123.333333, pollsPerSecond: 16.216216, worstCaseMs: 386.666667, worstCaseDevice: 'DRV-1', findings: [] });
+    expect(r.body.polls[1]).toMatchObject({ label: 'DRV-2', requestMs: 8.333333, replyMs: 26.041667, gapMs: 7.291667, totalMs: 61.666667 });
+  });
+  test('defaults: responseMs 0, perCycle 1, settings 9600 8-N-1 ascii; top-level retries and timeout override', async () => {
+    const r = await call(busCycle, { polls: [{ requestBytes: 4, replyBytes: 12 }], retries: 1, responseTimeoutMs: 50 });
+    // common practice: 16 × 10 / 9.6 = 16.666667 ms, no silent intervals outside Modbus RTU
+    expect(r.body).toMatchObject({ cycleMs: 16.666667, retries: 1, responseTimeoutMs: 50, worstCaseMs: 108.333333 });
+    expect(r.body.polls[0]).toMatchObject({ label: 'Poll 1', responseMs: 0, perCycle: 1 });
+  });
+  test('findings: timeout, target, broadcast delay, layout', async () => {
+    const r = await call(busCycle, {
+      settings: { ...settings, responseTimeoutMs: 20 }, targetCycleMs: 50,
+      polls: [{ label: 'DRV-1', ...read10 }, { label: 'All', requestBytes: 13, replyBytes: 0 }],
+      layout: { trunkM: 60, members: [{ label: 'PLC', bias: true }, { label: 'DRV-1', dropM: 25, bias: true }] },
+    });
+    expect(r.body.findings.map((f: any) => f.code)).toEqual(['response-timeout-too-short', 'cycle-over-target', 'broadcast-turnaround-missing', 'drop-too-long', 'bias-multiple']);
+  });
+  test('422 with a message per field', async () => {
+    const empty = await call(busCycle, { polls: [] });
+    expect(empty).toMatchObject({ status: 422, body: { fields: { polls: 'List at least one poll' } } });
+    const bad = await call(busCycle, { polls: [{ requestBytes: 0, replyBytes: 1.5, perCycle: 0 }], retries: -1 });
+    expect(bad.status).toBe(422);
+    expect(Object.keys(bad.body.fields).sort()).toEqual(['polls.0.perCycle', 'polls.0.replyBytes', 'polls.0.requestBytes', 'retries']);
+    expect(bad.body.fields['polls.0.requestBytes']).toBe('The request is at least 1 byte');
+    const noReply = await call(busCycle, { polls: [{ requestBytes: 8, replyBytes: 0, responseMs: 10 }] });
+    expect(noReply.body.fields['polls.0.responseMs']).toContain('no response time');
+    expect((await call(busCycle, { polls: [read10], extra: 1 })).status).toBe(422);
+    expect((await call(busCycle, { polls: [read10], settings: { baud: -1 } })).body.fields).toHaveProperty(['settings.baud']);
   });
 });
 

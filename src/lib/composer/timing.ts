@@ -21,18 +21,18 @@ export interface TimingSummary {
 
 /**
  * `replyBytes` null = no reply template (the reply row is left out and polls count the request only).
- * `turnaroundMs` is the device's own answer delay (from the port settings).
+ * `responseMs` is the device's own answer delay (from the port settings).
  */
-export function timingSummary(settings: LineSettings & Partial<PortSettings>, requestBytes: number, replyBytes: number | null, turnaroundMs = settings.turnaroundDelayMs ?? 0): TimingSummary {
-  const t = lineTiming(settings, requestBytes, replyBytes ?? 0, replyBytes === null ? 0 : turnaroundMs);
-  const cycle = pollCycle(settings, [{ requestBytes, replyBytes: replyBytes ?? 0, turnaroundMs: replyBytes === null ? 0 : turnaroundMs }]);
+export function timingSummary(settings: LineSettings & Partial<PortSettings>, requestBytes: number, replyBytes: number | null, responseMs = settings.turnaroundDelayMs ?? 0): TimingSummary {
+  const t = lineTiming(settings, requestBytes, replyBytes ?? 0, replyBytes === null ? 0 : responseMs);
+  const cycle = pollCycle(settings, [{ requestBytes, replyBytes: replyBytes ?? 0, responseMs: replyBytes === null ? 0 : responseMs }]);
   const bits = `${t.bitsPerChar} bits per character`;
   const rows: TimingRow[] = [
     { id: 'char', label: 'Character time', value: ms(t.charTimeMs), how: `${bits} ÷ ${settings.baud} bit/s (${rate(t.charsPerSecond)} characters/s)` },
     { id: 'frame', label: 'Frame time', value: ms(t.frameTimeMs), how: `${requestBytes} bytes × ${ms(t.charTimeMs)}` },
   ];
   if (replyBytes !== null) {
-    rows.push({ id: 'reply', label: 'Reply time', value: ms(t.replyTimeMs), how: `${replyBytes} bytes × ${ms(t.charTimeMs)}, after a ${ms(turnaroundMs)} turnaround` });
+    rows.push({ id: 'reply', label: 'Reply time', value: ms(t.replyTimeMs), how: `${replyBytes} bytes × ${ms(t.charTimeMs)}, after a ${ms(responseMs)} turnaround` });
   }
   const fixed = settings.baud > MODBUS_FIXED_TIMING_ABOVE_BAUD ? ` (fixed above ${MODBUS_FIXED_TIMING_ABOVE_BAUD} bit/s)` : '';
   rows.push(

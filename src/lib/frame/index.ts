@@ -59,3 +59,12 @@ export {
   type SequenceStep, type SequenceTiming, type PlcStringLength, type AssembledSequence, assembleSequence, plcStringFit,
 } from './sequence';
 export { MAX_SEQUENCE_DELAY_MS, MAX_PLC_STRING_CAPACITY, sequenceStepSchema, sequenceSchema, type SequenceRequest } from './sequence-schema';
+export {
+  BUS_CYCLE_CODES, BROADCAST_TURNAROUND_TYPICAL_MS, type BusPoll, type BusCycleOptions, type PollTiming, type BusCycleCode, type BusCycleFinding,
+  type BusCycle, type PollReport, type BusCycleReport, pollTiming, busCycle, busCycleReport,
+} from './bus-cycle';
+export {
+  MAX_DROP_M, MULTI_PORT_TAP_M, BUS_TOPOLOGIES, BUS_LAYOUT_CODES, type BusTopology, type BusLayoutMember, type BusLayout, type BusLayoutCode,
+  type BusLayoutFinding, maxDropM, checkBusLayout,
+} from './bus-layout';
+export { MAX_BUS_POLLS, MAX_POLL_BYTES, MAX_POLL_MS, busPollSchema, busLayoutMemberSchema, busCycleSchema, type BusCycleRequest } from './bus-cycle-schema';

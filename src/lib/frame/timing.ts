@@ -39,14 +39,17 @@ export interface LineTiming {
   /** Reply on the wire: replyByteCount × charTimeMs. */
   replyTimeMs: number;
   /** Device's time between the end of the request and the start of its reply (given, not measured). */
-  turnaroundMs: number;
+  responseMs: number;
   interCharTimeoutMs: number;
   interFrameGapMs: number;
-  /** frameTimeMs + turnaroundMs + replyTimeMs + interFrameGapMs: one complete poll. */
+  /**
+   * frameTimeMs + responseMs + replyTimeMs + interFrameGapMs: the composer's one-command estimate, one silent
+   * interval per poll. The timing tool and the bus planner count a transaction as ./bus-cycle.ts describes.
+   */
   transactionMs: number;
 }
 
-export function lineTiming(s: LineSettings, byteCount: number, replyByteCount = 0, turnaroundMs = 0): LineTiming {
+export function lineTiming(s: LineSettings, byteCount: number, replyByteCount = 0, responseMs = 0): LineTiming {
   const bits = bitsPerChar(s);
   const t = charTimeMs(s);
   const gaps = silentIntervals(s);
@@ -58,9 +61,9 @@ export function lineTiming(s: LineSettings, byteCount: number, replyByteCount = 
     charTimeMs: t,
     frameTimeMs,
     replyTimeMs,
-    turnaroundMs,
+    responseMs,
     ...gaps,
-    transactionMs: frameTimeMs + turnaroundMs + replyTimeMs + gaps.interFrameGapMs,
+    transactionMs: frameTimeMs + responseMs + replyTimeMs + gaps.interFrameGapMs,
   };
 }
 
@@ -69,7 +72,7 @@ export function roundMs(x: number): number {
   return Math.round(x * 1e6) / 1e6;
 }
 
-/** What `POST /api/tools/timing` answers: `lineTiming` with the port shorthand, times rounded by `roundMs`. */
+/** What `POST /api/tools/timing` answers: `lineTiming` with the port shorthand and the bus planner's transaction, times rounded by `roundMs`. */
 export interface TimingReport {
   /** `9600 8-N-1` */
   port: string;
@@ -80,11 +83,19 @@ export interface TimingReport {
   replyTimeMs: number;
   interCharTimeoutMs: number;
   interFrameGapMs: number;
+  /**
+   * One Modbus RTU transaction, as the bus planner counts it (./bus-cycle.ts): request + interFrameGapMs +
+   * responseMs + reply + interFrameGapMs; without a reply, request + interFrameGapMs.
+   */
   transactionMs: number;
 }
 
-export function timingReport(s: LineSettings, byteCount: number, replyByteCount = 0, turnaroundMs = 0): TimingReport {
-  const t = lineTiming(s, byteCount, replyByteCount, turnaroundMs);
+/** `responseMs`: the device's own delay from the end of the request to the start of its reply (with a reply only). */
+export function timingReport(s: LineSettings, byteCount: number, replyByteCount = 0, responseMs = 0): TimingReport {
+  const t = lineTiming(s, byteCount, replyByteCount, responseMs);
+  const transactionMs = replyByteCount > 0
+    ? t.frameTimeMs + t.interFrameGapMs + responseMs + t.replyTimeMs + t.interFrameGapMs
+    : t.frameTimeMs + t.interFrameGapMs;
   return {
     port: lineShorthand(s),
     bitsPerChar: t.bitsPerChar,
@@ -94,7 +105,7 @@ export function timingReport(s: LineSettings, byteCount: number, replyByteCount 
     replyTimeMs: roundMs(t.replyTimeMs),
     interCharTimeoutMs: roundMs(t.interCharTimeoutMs),
     interFrameGapMs: roundMs(t.interFrameGapMs),
-    transactionMs: roundMs(t.transactionMs),
+    transactionMs: roundMs(transactionMs),
   };
 }
 
@@ -102,13 +113,13 @@ export interface PolledDevice {
   requestBytes: number;
   replyBytes: number;
   /** Time the device takes to start answering, ms. */
-  turnaroundMs?: number;
+  responseMs?: number;
 }
 
 /** One polling cycle over every device on one line, each polled once, then the cycle repeats. */
 export function pollCycle(s: LineSettings, devices: readonly PolledDevice[]): { cycleTimeMs: number; pollsPerSecond: number; cyclesPerSecond: number } {
   let cycleTimeMs = 0;
-  for (const d of devices) cycleTimeMs += lineTiming(s, d.requestBytes, d.replyBytes, d.turnaroundMs ?? 0).transactionMs;
+  for (const d of devices) cycleTimeMs += lineTiming(s, d.requestBytes, d.replyBytes, d.responseMs ?? 0).transactionMs;
   if (cycleTimeMs === 0) return { cycleTimeMs: 0, pollsPerSecond: 0, cyclesPerSecond: 0 };
   return { cycleTimeMs, pollsPerSecond: (devices.length * 1000) / cycleTimeMs, cyclesPerSecond: 1000 / cycleTimeMs };
 }
