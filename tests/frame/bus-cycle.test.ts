@@ -99,6 +99,13 @@ describe('the cycle', () => {
     expect(c.worstCaseDevice).toBe('D1');
   });
 
+  test('when no silence makes the cycle longer, the worst case is the cycle itself', () => {
+    // silent: 1 × (8.333333 + 40) = 48.333333 ms, shorter than the 61.666667 ms transaction it replaces
+    const c = busCycle(rtu9600, [read10], { retries: 0, responseTimeoutMs: 40 });
+    expect(c.worstCaseMs).toBeCloseTo(61.666667, 6);
+    expect(c.worstCaseDevice).toBeNull();
+  });
+
   test('no polls', () => {
     expect(busCycle(rtu9600, [])).toMatchObject({ cycleMs: 0, pollsPerSecond: 0, worstCaseMs: 0, worstCaseDevice: null, findings: [] });
   });
@@ -110,7 +117,7 @@ describe('findings', () => {
     const c = busCycle(rtu9600, [{ ...read10, label: 'DRV-1', responseMs: 5 }, { ...read10, label: 'DRV-2' }], { responseTimeoutMs: 20 });
     expect(c.findings).toHaveLength(1);
     expect(c.findings[0]).toMatchObject({ severity: 'error', code: 'response-timeout-too-short', poll: 1 });
-    expect(c.findings[0]!.message).toContain('DRV-2');
+    expect(c.findings[0]!.message).toContain('the reply to "DRV-2" starts');
     expect(c.findings[0]!.message).toContain('23.646 ms');
     expect(busCycle(rtu9600, [read10], { responseTimeoutMs: 23.7 }).findings).toEqual([]);
   });

@@ -16,7 +16,7 @@ const PART = {
 } as const;
 type Part = keyof typeof PART;
 
-const ms = (x: number) => `${x >= 100 ? x.toFixed(0) : x >= 10 ? x.toFixed(1) : x.toFixed(2)} ms`;
+const ms = (x: number) => `${x === 0 ? '0' : x >= 100 ? x.toFixed(0) : x >= 10 ? x.toFixed(1) : x.toFixed(2)} ms`;
 
 export function BusTimeline({ report }: { report: BusCycleReport }) {
   const bands: { label: string; start: number; parts: { part: Part; ms: number }[]; totalMs: number }[] = [];

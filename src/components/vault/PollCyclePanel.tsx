@@ -100,7 +100,7 @@ export default function PollCyclePanel({ plan }: { plan: BusPlan }) {
                     <label htmlFor={f('cmd')} className="label !text-xs">Request</label>
                     <select id={f('cmd')} className="input !py-1" value={p.commandId} onChange={(e) => pick(p, e.target.value)}>
                       <option value="">Type the byte counts</option>
-                      {m.commands.map((c) => <option key={c.id} value={c.id}>{c.name} ({c.requestBytes} bytes)</option>)}
+                      {m.commands.map((c) => <option key={c.id} value={c.id}>{`${c.name} (${c.requestBytes} bytes)`}</option>)}
                     </select>
                   </div>
                   <div className="col-span-2">

@@ -87,9 +87,12 @@ export interface BusCycle {
   cycleMs: number;
   /** Transactions per second: Σ perCycle ÷ cycleMs. */
   pollsPerSecond: number;
-  /** The cycle when the device whose silence costs most misses every poll (its polls take `silentMs` each). */
+  /**
+   * The cycle when the device whose silence costs most misses every poll (its polls take `silentMs` each); the
+   * cycle itself when no device's silence makes it longer (a timeout shorter than the transaction it replaces).
+   */
   worstCaseMs: number;
-  /** The device of `worstCaseMs` (null when no poll expects a reply). */
+  /** The device of `worstCaseMs` (null when no silence makes the cycle longer, or no poll expects a reply). */
   worstCaseDevice: string | null;
   findings: BusCycleFinding[];
 }
@@ -146,7 +149,7 @@ export function busCycle(s: CycleSettings, polls: readonly BusPoll[], opts: BusC
   for (const d of devices) {
     let c = 0;
     for (const p of timings) c += (p.device === d ? p.silentMs : p.totalMs) * p.perCycle;
-    if (worstCaseDevice === null || c > worstCaseMs) {
+    if (c > worstCaseMs) {
       worstCaseMs = c;
       worstCaseDevice = d;
     }
@@ -162,7 +165,7 @@ export function busCycle(s: CycleSettings, polls: readonly BusPoll[], opts: BusC
     const start = p.requestGapMs > 0 ? `the ${ms(p.requestGapMs)} silent interval plus its ${ms(p.responseMs)} response time` : `its ${ms(p.responseMs)} response time`;
     findings.push({
       severity: 'error', code: 'response-timeout-too-short', poll: slowest,
-      message: `The response timeout (${ms(responseTimeoutMs)}) ends before ${p.label} starts to answer: ${start} make ${ms(p.replyStartMs!)}. Set the master's response timeout above ${ms(p.replyStartMs!)}, with a margin.`,
+      message: `The response timeout (${ms(responseTimeoutMs)}) ends before the reply to "${p.label}" starts: ${start} make ${ms(p.replyStartMs!)}. Set the master's response timeout above ${ms(p.replyStartMs!)}, with a margin.`,
     });
   }
   if (opts.targetCycleMs !== undefined && cycleMs > opts.targetCycleMs) {

@@ -1,7 +1,8 @@
 /**
  * The invented demo vault: Fernhollow Integration's customers (a creamery, a tile works, a cannery),
- * with one RS-485 drive bus that has a deliberate fault (DRV-203 left at 19200 on a 9600 bus) and one
- * sensor bus missing a terminator, for the link check to find. Fixed ids: safe to run on every start.
+ * with one RS-485 drive bus that has deliberate faults (DRV-203 left at 19200 on a 9600 bus, and answering after
+ * 60 ms where the PLC waits only 50 ms) and one sensor bus missing a terminator, for the link check and the poll
+ * cycle panel to find. Fixed ids: safe to run on every start.
  */
 import type { Role } from '../../permissions';
 import { DEMO_ACCOUNTS, DEMO_CUSTOMER_TEAM_ID, DEMO_TEAM_ID } from './platform';
@@ -39,16 +40,17 @@ async function fernhollow(c: SeedCtx) {
   await addMachine(c, 'mach_demo_kiln', 'site_demo_tiles', 'Kiln conveyor', 'K1');
   await addMachine(c, 'mach_demo_seamer', 'site_demo_cannery', 'Seamer line 1', 'S1');
 
-  // Butter churn line 2: PLC-200 masters a 9600 8-E-1 bus; DRV-203 was swapped last week and came up at 19200.
+  // Butter churn line 2: PLC-200 masters a 9600 8-E-1 bus with its response timeout cut to 50 ms; DRV-203 was
+  // swapped last week and came up at 19200, with a 60 ms reply delay (its port's turnaround delay).
   await addDevice(c, { id: 'dev_demo_plc200', machineId: 'mach_demo_churn', tag: 'PLC-200', name: 'Line 2 controller', role: 'plc', maker: 'Vellmar Systems', model: 'VX-220', serialNumber: 'VX22-0048812', firmware: '3.1.4', location: 'Cabinet MCC-2, rail A',
     ports: [
-      { id: 'port_demo_plc200_x3', name: 'X3 RS-485', settings: { ...modbus, nodeAddress: null, termination: true, bias: true }, wiring: rs485Pins, notes: 'Terminator switch S1 on the CPU front.' },
+      { id: 'port_demo_plc200_x3', name: 'X3 RS-485', settings: { ...modbus, nodeAddress: null, termination: true, bias: true, responseTimeoutMs: 50 }, wiring: rs485Pins, notes: 'Terminator switch S1 on the CPU front.' },
       { id: 'port_demo_plc200_x2', name: 'X2 RS-232', settings: { interface: 'rs232', baud: 9600, dataBits: 7, parity: 'even', stopBits: 1, protocol: 'ascii', frameRules: { terminator: '0D 0A', byteSet: 'printable', letterCase: 'upper', addressField: 'address' } }, wiring: db9 },
     ] });
   for (const [n, addr, baud, end] of [[201, 1, 9600, false], [202, 2, 9600, false], [203, 3, 19200, true]] as const) {
     await addDevice(c, { id: `dev_demo_drv${n}`, machineId: 'mach_demo_churn', tag: `DRV-${n}`, name: `Churn ${n - 200} drive`, role: 'drive', maker: 'Quillmoor', model: 'QD-40', serialNumber: `QD40-77${n}`, firmware: n === 203 ? '2.2.0' : '2.1.7', location: `Cabinet MCC-2, drive bay ${n - 200}`, profileId: 'prof_demo_qd40',
       notes: n === 203 ? 'Replacement unit fitted 2026-11-24.' : '',
-      ports: [{ id: `port_demo_drv${n}`, name: 'RS-485', settings: { ...modbus, baud, nodeAddress: addr, termination: end }, wiring: rs485Pins }] });
+      ports: [{ id: `port_demo_drv${n}`, name: 'RS-485', settings: { ...modbus, baud, nodeAddress: addr, termination: end, turnaroundDelayMs: n === 203 ? 60 : 5 }, wiring: rs485Pins }] });
   }
   await addDevice(c, { id: 'dev_demo_scl210', machineId: 'mach_demo_churn', tag: 'SCL-210', name: 'Butter block scale', role: 'scale', maker: 'Tallowby', model: 'TS-9', serialNumber: 'TS9-3391', location: 'Packing table', profileId: 'prof_demo_ts9',
     ports: [{ id: 'port_demo_scl210', name: 'COM1', settings: { interface: 'rs232', baud: 9600, dataBits: 7, parity: 'even', stopBits: 1, protocol: 'ascii', frameRules: { terminator: '0D 0A', byteSet: 'printable', letterCase: 'upper', maxLength: 32, addressField: 'address' } }, wiring: db9 }] });
