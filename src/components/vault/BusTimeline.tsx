@@ -4,7 +4,7 @@ import type { BusCycleReport } from '../../lib/frame/bus-cycle';
 /** Viewbox width: about a phone's width, so text stays legible at 390 px and scales up on wider screens. */
 const W = 360;
 const PAD = 6;
-const BAND = 34;
+const BAND = 36;
 /** Most bands drawn; a longer cycle is drawn to here and said so. */
 const MAX_BANDS = 48;
 
@@ -16,7 +16,10 @@ const PART = {
 } as const;
 type Part = keyof typeof PART;
 
-const ms = (x: number) => `${x === 0 ? '0' : x >= 100 ? x.toFixed(0) : x >= 10 ? x.toFixed(1) : x.toFixed(2)} ms`;
+const ms = (x: number) => `${x === 0 ? '0' : x >= 10 ? x.toFixed(1) : x.toFixed(2)} ms`;
+
+/** Keeps a band's label inside the drawing (about 56 characters fit at this font size). */
+const fit = (label: string) => (label.length > 44 ? `${label.slice(0, 43)}…` : label);
 
 export function BusTimeline({ report }: { report: BusCycleReport }) {
   const bands: { label: string; start: number; parts: { part: Part; ms: number }[]; totalMs: number }[] = [];
@@ -45,17 +48,17 @@ export function BusTimeline({ report }: { report: BusCycleReport }) {
   const summary = `One poll cycle of ${ms(report.cycleMs)}: ${count} transaction${count === 1 ? '' : 's'}${count > bands.length ? `, the first ${bands.length} drawn` : ''}.`;
   return (
     <figure className="print:break-inside-avoid" data-testid="bus-timeline">
-      <svg viewBox={`0 0 ${W} ${height}`} width="100%" style={{ maxWidth: '48rem' }} role="img" aria-label={summary} className="block border border-line rounded bg-white">
+      <svg viewBox={`0 0 ${W} ${height}`} width="100%" style={{ maxWidth: '32rem' }} role="img" aria-label={summary} className="block border border-line rounded bg-white">
         {bands.map((b, i) => {
           const y = i * BAND + 4;
           let x = PAD + b.start * scale;
           return (
             <g key={i}>
-              <text x={PAD} y={y + 10} fontSize="11" fill="#16202a">{b.label} · {ms(b.totalMs)}</text>
-              <rect x={PAD} y={y + 15} width={W - 2 * PAD} height={12} fill="#f6f7f4" />
+              <text x={PAD} y={y + 11} fontSize="12" fill="#16202a">{fit(b.label)} · {ms(b.totalMs)}</text>
+              <rect x={PAD} y={y + 17} width={W - 2 * PAD} height={12} fill="#f6f7f4" />
               {b.parts.map((p, j) => {
                 const w = p.ms * scale;
-                const rect = w > 0 ? <rect key={j} x={x} y={y + 15} width={Math.max(w, 0.75)} height={12} fill={PART[p.part].fill}><title>{`${PART[p.part].label}: ${ms(p.ms)}`}</title></rect> : null;
+                const rect = w > 0 ? <rect key={j} x={x} y={y + 17} width={Math.max(w, 0.75)} height={12} fill={PART[p.part].fill}><title>{`${PART[p.part].label}: ${ms(p.ms)}`}</title></rect> : null;
                 x += w;
                 return rect;
               })}
