@@ -59,3 +59,4 @@ export {
   type SequenceStep, type SequenceTiming, type PlcStringLength, type AssembledSequence, assembleSequence, plcStringFit,
 } from './sequence';
 export { MAX_SEQUENCE_DELAY_MS, MAX_PLC_STRING_CAPACITY, sequenceStepSchema, sequenceSchema, type SequenceRequest } from './sequence-schema';
+export { type StepReply, type SequenceReply, decodeSequenceReply } from './sequence-reply';

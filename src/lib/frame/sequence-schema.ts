@@ -10,7 +10,17 @@ export const MAX_SEQUENCE_DELAY_MS = 60_000;
 /** Largest PLC STRING capacity accepted, in characters (IEC 61131-3 leaves the maximum to the implementation). */
 export const MAX_PLC_STRING_CAPACITY = 65_535;
 
-export const sequenceStepSchema = z.strictObject({ template: templateSchema, values: fieldValuesSchema.default({}) });
+/** Longest wait for one step's reply, ms. */
+export const MAX_REPLY_WAIT_MS = 60_000;
+
+export const sequenceStepSchema = z.strictObject({
+  template: templateSchema,
+  values: fieldValuesSchema.default({}),
+  /** What the device answers this step; absent or null = no reply expected. */
+  reply: templateSchema.nullable().optional(),
+  /** `separate` only: wait for the reply, at most this long, before the next send. */
+  waitForReplyMs: z.number().finite().min(0).max(MAX_REPLY_WAIT_MS).optional(),
+});
 
 export const sequenceSchema = z
   .strictObject({
@@ -25,6 +35,11 @@ export const sequenceSchema = z
     if (body.delayMs !== undefined && body.mode !== 'separate') {
       ctx.addIssue({ code: 'custom', path: ['delayMs'], message: 'A delay applies only between separate sends; set "mode": "separate" or leave the delay out' });
     }
+    body.steps.forEach((step, i) => {
+      if (step.waitForReplyMs === undefined) return;
+      if (body.mode !== 'separate') ctx.addIssue({ code: 'custom', path: ['steps', i, 'waitForReplyMs'], message: 'A step waits for its reply only when the steps are sent separately; set "mode": "separate" or leave the wait out' });
+      else if (!step.reply) ctx.addIssue({ code: 'custom', path: ['steps', i, 'waitForReplyMs'], message: 'Give the step a reply template to wait for, or leave the wait out' });
+    });
   });
 
 export type SequenceRequest = z.infer<typeof sequenceSchema>;

@@ -21,6 +21,13 @@ export const MAX_SEQUENCE_STEPS = 32;
 export interface SequenceStepInput {
   template: Template;
   values?: FieldValues;
+  /** What the device answers this step (a reply template); absent or null = no reply expected. */
+  reply?: Template | null;
+  /**
+   * `separate` only: before the next send, wait for this step's reply, at most this long (its timeout, ms).
+   * The timing counts the whole timeout (the worst case). Absent = do not wait.
+   */
+  waitForReplyMs?: number;
 }
 
 export interface SequenceOptions {
@@ -51,6 +58,12 @@ export interface SequenceStep {
   /** The step's segment map, in whole-string offsets. */
   segments: SegmentSpan[];
   findings: SequenceFinding[];
+  /** True when the step has a reply template (present only then). */
+  expectsReply?: boolean;
+  /** `separate` only, when the step waits for its reply: the timeout counted, ms (present only then). */
+  waitForReplyMs?: number;
+  /** `separate` only: worst case from the sequence's first byte out to this step's first byte out, ms. */
+  startMs?: number;
 }
 
 /** `timingReport` of the whole string, and what the sends add up to. */
@@ -60,8 +73,12 @@ export interface SequenceTiming extends TimingReport {
   delayMs: number;
   /** (steps − 1) × delayMs when separate, else 0. */
   delayTotalMs: number;
-  /** frameTimeMs + delayTotalMs: first byte out to last byte out. */
+  /** frameTimeMs + delayTotalMs + waitTotalMs: first byte out to last byte out (worst case when steps wait). */
   totalMs: number;
+  /** Reply timeouts counted before the last send (each waiting step but the last), ms; 0 when none waits. */
+  waitTotalMs: number;
+  /** totalMs plus the last step's reply timeout when it waits: first byte out to the end of the last wait, ms. */
+  worstCaseMs: number;
 }
 
 /** Length of the PLC STRING(s) in characters: one per byte, however a notation writes it (`$0D` is one). */
@@ -110,6 +127,24 @@ function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
     capacity = null;
   }
   return { mode, delayMs, capacity };
+}
+
+/** A step's reply wait in `separate` mode: a finding and 0 when unusable, or when there is no reply to wait for. */
+function readWait(step: SequenceStepInput, index: number, findings: SequenceFinding[]): number {
+  const w = step.waitForReplyMs;
+  if (w === undefined) return 0;
+  if (!(Number.isFinite(w) && w >= 0)) {
+    findings.push({ severity: 'error', code: 'field-invalid', step: index, message: `${stepName(index)}: reply timeout ${String(w)} ms is not a time of 0 ms or more; enter one.` });
+    return 0;
+  }
+  if (!step.reply) {
+    findings.push({
+      severity: 'warning', code: 'step-wait-without-reply', step: index,
+      message: `${stepName(index)} waits for a reply but expects none; give it a reply template or leave the wait out.`,
+    });
+    return 0;
+  }
+  return w;
 }
 
 /** A field without a width limit, and the step it is in. */
@@ -172,6 +207,7 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
   const parts: Uint8Array[] = [];
   const out: SequenceStep[] = [];
   const widest: Widest[] = [];
+  const waits: number[] = [];
   let at = 0;
   steps.forEach((step, index) => {
     const frame = assembleFrame(step.template, step.values ?? {});
@@ -186,13 +222,23 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
         message: `${stepName(index)} has no terminator, so in one string the device cannot tell where it ends and ${stepName(index + 1).toLowerCase()} begins. Add a terminator segment, or send the steps separately.`,
       });
     }
+    const wait = mode === 'separate' ? readWait(step, index, findings) : 0;
+    if (mode !== 'separate' && step.waitForReplyMs !== undefined) {
+      findings.push({
+        severity: 'warning', code: 'step-wait-in-one-string', step: index,
+        message: `${stepName(index)} waits for its reply, but in one string every step goes out at once; send the steps separately to wait between them.`,
+      });
+    }
     const longest = longestFrame(step.template);
     widest.push({ byteCount: longest.byteCount, unlimited: longest.unlimited.map((f) => ({ ...f, step: index })) });
     const byteCount = frame.byteCount;
     out.push({
       index, start: at, end: at + byteCount, byteCount, frameTimeMs: roundMs(byteCount * charMs), longestByteCount: longest.byteCount,
       segments: frame.segments.map((s) => ({ ...s, start: s.start + at, end: s.end + at })), findings,
+      ...(step.reply ? { expectsReply: true } : {}),
+      ...(wait > 0 ? { waitForReplyMs: wait } : {}),
     });
+    waits.push(wait);
     parts.push(frame.bytes);
     at += byteCount;
   });
@@ -220,9 +266,21 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
   const findings = out.flatMap((s) => s.findings).concat(sequenceFindings);
   const sends = mode === 'separate' ? steps.length : Math.min(1, steps.length);
   const delayTotalMs = Math.max(0, sends - 1) * delayMs;
+  // Worst case: each waiting step's whole timeout, then the delay, before the next send.
+  const waitTotalMs = waits.slice(0, -1).reduce((n, w) => n + w, 0);
+  const lastWait = waits.length ? waits[waits.length - 1]! : 0;
+  if (mode === 'separate') {
+    let t = 0;
+    for (const s of out) {
+      s.startMs = roundMs(t);
+      t += s.byteCount * charMs + waits[s.index]! + delayMs;
+    }
+  }
+  const totalMs = at * charMs + delayTotalMs + waitTotalMs;
   const timing: SequenceTiming = {
     ...timingReport(settings, at),
-    sends, delayMs, delayTotalMs: roundMs(delayTotalMs), totalMs: roundMs(at * charMs + delayTotalMs),
+    sends, delayMs, delayTotalMs: roundMs(delayTotalMs), totalMs: roundMs(totalMs),
+    waitTotalMs: roundMs(waitTotalMs), worstCaseMs: roundMs(totalMs + lastWait),
   };
   return { ok: isClean(findings), mode, bytes, byteCount: at, notations: renderAllNotations(bytes), plcString, steps: out, findings, timing };
 }
