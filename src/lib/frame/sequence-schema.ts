@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { portSettingsSchema } from './port-settings';
 import { fieldValuesSchema } from './schema-common';
+import { parseHex } from './notations/numeric';
 import { MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from './sequence';
 import { templateSchema } from './template';
 
@@ -30,10 +31,18 @@ export const sequenceSchema = z
     mode: z.enum(SEQUENCE_MODES).default('one-string'),
     delayMs: z.number().finite().min(0).max(MAX_SEQUENCE_DELAY_MS).optional(),
     plcStringCapacity: z.number().int().min(1).max(MAX_PLC_STRING_CAPACITY).optional(),
+    /** What the device sent back for the whole sequence, as hex: split per step against the steps' `reply` templates. */
+    received: z.string().max(60_000).superRefine((text, ctx) => {
+      const r = parseHex(text);
+      if (!r.ok) ctx.addIssue({ code: 'custom', message: `${r.error.message} (character ${r.error.position})` });
+    }).optional(),
   })
   .superRefine((body, ctx) => {
     if (body.delayMs !== undefined && body.mode !== 'separate') {
       ctx.addIssue({ code: 'custom', path: ['delayMs'], message: 'A delay applies only between separate sends; set "mode": "separate" or leave the delay out' });
+    }
+    if (body.received !== undefined && !body.steps.some((s) => s.reply)) {
+      ctx.addIssue({ code: 'custom', path: ['received'], message: 'No step expects a reply; give the steps that answer a "reply" template' });
     }
     body.steps.forEach((step, i) => {
       if (step.waitForReplyMs === undefined) return;
