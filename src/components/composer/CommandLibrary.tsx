@@ -8,10 +8,14 @@ import { presetValues, renderCommand, timingPort, type CommandPreset } from '../
 import { ms } from '../../lib/composer/format';
 import type { FieldValues, Template } from '../../lib/frame';
 import type { NamedPort } from './types';
+import type { SavedSequence, StepInfo } from '../../lib/composer/saved-sequence';
+import { ApiError } from '../../lib/client/api';
 
 interface Item {
   id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
   template: Template; fieldValues: FieldValues; presets: CommandPreset[]; portName: string;
+  /** Set for a sequence, with its steps as they stand (gaps named). */
+  sequence?: SavedSequence | null; steps?: StepInfo[];
 }
 interface Target { value: string; label: string }
 interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean; ports: NamedPort[] }
@@ -60,6 +64,25 @@ function Presets({ item, ports }: { item: Item; ports: NamedPort[] }) {
   );
 }
 
+/** A sequence's steps in order, each gap in words. */
+function SequenceSteps({ item }: { item: Item }) {
+  const steps = item.steps ?? [];
+  return (
+    <div className="text-sm grid gap-1" data-testid="library-sequence-steps">
+      <p className="text-muted">{steps.length} {steps.length === 1 ? 'step' : 'steps'}, {item.sequence?.mode === 'separate' ? 'sent separately' : 'sent as one string'}</p>
+      <ol className="list-decimal pl-5">
+        {steps.map((st) => (
+          <li key={st.index} className={st.gap ? 'text-bad' : undefined} data-state={st.state}>{st.gap ?? st.name}</li>
+        ))}
+      </ol>
+    </div>
+  );
+}
+
+/** The sequences a command is a step of, as the API's 409 names them on a move to the trash. */
+const usedByOf = (e: unknown): { name: string; steps: number[] }[] | null =>
+  e instanceof ApiError && e.status === 409 && Array.isArray(e.body.usedBy) ? (e.body.usedBy as { name: string; steps: number[] }[]) : null;
+
 function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath: string; canEdit: boolean; targets: Target[]; ports: NamedPort[] }) {
   const qc = useQueryClient();
   const [target, setTarget] = useState('');
@@ -68,16 +91,33 @@ function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath
     mutationFn: () => { const [kind, id] = target.split(':'); return api(`/api/commands/${item.id}/copy`, { body: { [kind === 'device' ? 'deviceId' : 'profileId']: id } }); },
     onSuccess: () => { setTarget(''); done(); },
   });
-  const trash = useMutation({ mutationFn: () => api(`/api/commands/${item.id}?version=${item.version}`, { method: 'DELETE' }), onSuccess: done });
+  const trash = useMutation({
+    mutationFn: async () => {
+      const url = `/api/commands/${item.id}?version=${item.version}`;
+      try {
+        return await api(url, { method: 'DELETE' });
+      } catch (e) {
+        // A step of sequences: ask again, naming them, before leaving a gap in each.
+        const used = usedByOf(e);
+        if (!used) throw e;
+        const list = used.map((u) => `"${u.name}" (step ${u.steps.join(', ')})`).join(', ');
+        if (!confirm(`"${item.name}" is a step of ${list}. In the trash it leaves a gap there until it is restored or the step replaced. Move it to the trash anyway?`)) return null;
+        return api(`${url}&confirmUsed=true`, { method: 'DELETE' });
+      }
+    },
+    onSuccess: done,
+  });
   const err = copy.error ?? trash.error;
   return (
     <li className="card grid gap-2" data-command={item.name}>
       <div className="flex flex-wrap items-baseline gap-x-3">
         <a href={`${basePath}/${item.id}`} className="font-semibold">{item.name}</a>
         {item.movesMachinery && <span className="text-xs rounded bg-[#fdf3e3] text-warn px-1.5">moves machinery</span>}
+        {item.sequence && <span className="text-xs rounded border border-line px-1.5" data-testid="sequence-badge">sequence</span>}
         {item.inherited && <span className="text-xs text-muted">from profile {item.owner.label} · read-only here</span>}
       </div>
       {item.purpose && <p className="text-sm text-muted">{item.purpose}</p>}
+      {item.sequence && <SequenceSteps item={item} />}
       {item.presets.length > 0 && <Presets item={item} ports={ports} />}
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2 text-sm">
