@@ -5,7 +5,7 @@
  * command is in the trash or purged is a gap: it stays in the sequence, named, with an error finding.
  */
 import { assembleSequence, type AssembledSequence, type SequenceOptions, type SequenceStepInput } from '../frame/sequence';
-import type { SequenceMode } from '../frame/sequence';
+import type { SequenceMode } from '../frame/sequence-limits';
 import type { FieldValues, Template } from '../frame/template';
 
 export interface SavedSequenceStep {

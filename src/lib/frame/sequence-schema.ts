@@ -3,16 +3,12 @@ import { z } from 'zod';
 import { portSettingsSchema } from './port-settings';
 import { fieldValuesSchema } from './schema-common';
 import { parseHex } from './notations/numeric';
-import { MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from './sequence';
+import { MAX_REPLY_WAIT_MS, MAX_SEQUENCE_DELAY_MS, MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from './sequence-limits';
 import { templateSchema } from './template';
 
-/** Longest delay between separate sends, ms (as the port's turnaround delay). */
-export const MAX_SEQUENCE_DELAY_MS = 60_000;
+export { MAX_REPLY_WAIT_MS, MAX_SEQUENCE_DELAY_MS };
 /** Largest PLC STRING capacity accepted, in characters (IEC 61131-3 leaves the maximum to the implementation). */
 export const MAX_PLC_STRING_CAPACITY = 65_535;
-
-/** Longest wait for one step's reply, ms. */
-export const MAX_REPLY_WAIT_MS = 60_000;
 
 export const sequenceStepSchema = z.strictObject({
   template: templateSchema,

@@ -4,19 +4,19 @@
  * Each step is assembled and checked as its own frame; only sequence-level findings are added.
  */
 import { type SegmentSpan, assembleFrame } from './assemble';
-import { type Finding, isClean } from './findings';
-import { type UnlimitedField, longestFrame } from './longest';
+import { isClean } from './findings';
+import { longestFrame } from './longest';
 import { type RenderedNotations, renderAllNotations } from './notations';
 import { type LineSettings, defaultPortSettings } from './port-settings';
 import { type FrameCheckSettings, checkAssembledFrame } from './preview';
 import type { FieldValues, Template } from './template';
 import { type TimingReport, charTimeMs, roundMs, timingReport } from './timing';
 
-/** `one-string`: the steps' bytes back to back in one send; `separate`: one send per step, `delayMs` apart. */
-export const SEQUENCE_MODES = ['one-string', 'separate'] as const;
-export type SequenceMode = (typeof SEQUENCE_MODES)[number];
-/** Most steps the tools API accepts in one sequence. */
-export const MAX_SEQUENCE_STEPS = 32;
+import { MAX_SEQUENCE_STEPS, SEQUENCE_MODES, type SequenceMode } from './sequence-limits';
+import { type SequenceFinding, type Widest, capacityFindings, isCapacity, stepName } from './plc-string';
+
+export { MAX_SEQUENCE_STEPS, SEQUENCE_MODES, type SequenceMode };
+export { plcStringFit, type SequenceFinding } from './plc-string';
 
 export interface SequenceStepInput {
   template: Template;
@@ -38,11 +38,6 @@ export interface SequenceOptions {
   delayMs?: number;
   /** Characters the PLC STRING holds (its declared STRING[n] length); none = no capacity check. */
   plcStringCapacity?: number;
-}
-
-/** A finding with `range` in whole-string offsets; `step` (0-based) names the step it came from. */
-export interface SequenceFinding extends Finding {
-  step?: number;
 }
 
 export interface SequenceStep {
@@ -105,9 +100,6 @@ export interface AssembledSequence {
   timing: SequenceTiming;
 }
 
-const stepName = (i: number) => `Step ${i + 1}`;
-const isCapacity = (c: number) => Number.isInteger(c) && c >= 1;
-
 /** Sequence-level options given in code without the schema: a finding each, and a usable value. */
 function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
   const invalid = (message: string) => findings.push({ severity: 'error', code: 'field-invalid', message });
@@ -145,55 +137,6 @@ function readWait(step: SequenceStepInput, index: number, findings: SequenceFind
     return 0;
   }
   return w;
-}
-
-/** A field without a width limit, and the step it is in. */
-type StepField = UnlimitedField & { step?: number };
-/** The widest case of a string: its bytes (null = unbounded) and the fields that have no limit. */
-interface Widest {
-  byteCount: number | null;
-  unlimited: StepField[];
-}
-
-const listFields = (fields: readonly StepField[]) =>
-  fields.map((f) => (f.step === undefined ? `"${f.label}"` : `"${f.label}" (${stepName(f.step).toLowerCase()})`)).join(', ');
-
-/**
- * The capacity findings for one PLC string of `length` bytes starting at `at`: the actual string too long,
- * else the widest case too long (or unbounded). `what` names the string in the messages.
- */
-function capacityFindings(
-  what: string, at: number, length: number, longest: Widest, capacity: number, advice: string,
-): SequenceFinding[] {
-  if (length > capacity) {
-    return [{
-      severity: 'error', code: 'plc-string-too-long', range: [at + capacity, at + length],
-      message: `${what} is ${length} characters; the PLC string holds ${capacity}. Declare it STRING[${length}] or longer${advice}.`,
-    }];
-  }
-  const numbers = longest.unlimited.filter((f) => f.countedAs !== null);
-  const counted = numbers.length ? ` ${listFields(numbers)} ${numbers.length === 1 ? 'has' : 'have'} no width and no min and max, so ${numbers.length === 1 ? 'it is' : 'they are'} counted at ${numbers[0]!.countedAs} characters.` : '';
-  if (longest.byteCount === null) {
-    const texts = longest.unlimited.filter((f) => f.countedAs === null);
-    return [{
-      severity: 'error', code: 'plc-string-may-overflow',
-      message: `${what} has no upper length: text field ${listFields(texts)} has no maxLength. Give ${texts.length === 1 ? 'it' : 'each'} a maxLength so the string always fits the ${capacity} characters the PLC string holds (the values given make ${length}).${counted}`,
-    }];
-  }
-  if (longest.byteCount > capacity) {
-    return [{
-      severity: 'error', code: 'plc-string-may-overflow',
-      message: `With every field at its widest, ${what.toLowerCase()} is ${longest.byteCount} characters, more than the ${capacity} the PLC string holds (the values given make ${length}). Narrow the fields (width, min and max, maxLength) or declare STRING[${longest.byteCount}].${counted}`,
-    }];
-  }
-  return [];
-}
-
-/** One command's string against a PLC STRING that holds `capacity` characters (null = not recorded: no findings). */
-export function plcStringFit(template: Template, byteCount: number, capacity: number | null): { capacity: number | null; length: number; longestLength: number | null; findings: SequenceFinding[] } {
-  const longest = longestFrame(template);
-  const findings = capacity !== null && isCapacity(capacity) ? capacityFindings('The string', 0, byteCount, longest, capacity, '') : [];
-  return { capacity, length: byteCount, longestLength: longest.byteCount, findings };
 }
 
 /** Assembles and checks a sequence of steps; never throws on malformed input. */

@@ -3,8 +3,7 @@ import { z } from 'zod';
 import { readTypedNumber } from '../frame/field-format';
 import { isField, templateSchema, type FieldSegment, type Template } from '../frame/template';
 import { MAX_PRESETS, presetKey } from '../composer/presets';
-import { MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from '../frame/sequence';
-import { MAX_REPLY_WAIT_MS, MAX_SEQUENCE_DELAY_MS } from '../frame/sequence-schema';
+import { MAX_REPLY_WAIT_MS, MAX_SEQUENCE_DELAY_MS, MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from '../frame/sequence-limits';
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
 const id = z.string().min(1, 'Choose a record.').max(64);
