@@ -106,5 +106,39 @@ describe('saved sequences in the browser', () => {
     await phone.page.getByTestId('sequence-spans').waitFor();
     await noOverflow(phone.page, 'saved sequence at 390 px');
     await shot(phone.page, 'sequence-four-move-phone');
+  }, 120_000);
+
+  it('asks before trashing a command a sequence uses, shows the gap, and mends when it is restored', async () => {
+    const b = await browser({ viewport: DESKTOP });
+    const page = b.page;
+    await signIn(page, 'engineer@fernhollow.test');
+    const origin = new URL(page.url()).origin;
+    const run = Date.now().toString(36);
+    const post = async (data: object) => {
+      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
+      expect(res.status(), await res.text()).toBe(201);
+      return (await res.json()) as { id: string };
+    };
+    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
+    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', steps: [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }] } });
+
+    await visit(page, DRIVE);
+    const questions: string[] = [];
+    page.on('dialog', (d) => { questions.push(d.message()); void d.accept(); });
+    await page.locator(`[data-command="Velocity ${run}"]`).getByRole('button', { name: 'Move to trash' }).click();
+    const steps = page.locator(`[data-command="Two-step ${run}"]`).getByTestId('library-sequence-steps');
+    await expect.poll(() => steps.locator('li').first().textContent()).toBe(`Step 1: the command "Velocity ${run}" is in the trash; restore it or replace the step.`);
+    expect(questions).toEqual([`Move "Velocity ${run}" to the trash?`, expect.stringContaining(`is a step of "Two-step ${run}" (step 1)`)]);
+
+    await visit(page, `${DRIVE}/${seq.id}`);
+    await page.getByTestId('step-gap').waitFor();
+    expect(await page.getByTestId('findings').locator('[data-code="step-command-missing"]').count()).toBe(1);
+    expect(await page.getByTestId('step-span').count()).toBe(2);
+    await shot(page, 'sequence-gap-desktop', false);
+
+    await visit(page, DRIVE);
+    await page.getByText('In the trash (', { exact: false }).click();
+    await page.getByRole('listitem').filter({ hasText: `Velocity ${run}` }).getByRole('button', { name: 'Restore' }).click();
+    await expect.poll(() => steps.locator('li').first().textContent()).toBe(`Velocity ${run}`);
   });
 });

@@ -155,6 +155,11 @@ describe('the trash and a sequence', () => {
     const mended = expectOk(await eng.patch(`/api/commands/${seq.id}`, { version: seq.version, sequence: { mode: 'one-string', steps } }));
     expect(mended.savedWithErrors).toBeUndefined();
     expect(expectOk(await eng.get(`/api/commands/${seq.id}`)).steps.map((s: any) => s.state)).toEqual(['ok', 'ok', 'ok']);
+    // putting back the first version brings the gap back too: never refused for a step's command
+    const history = expectOk(await eng.get(`/api/commands/${seq.id}/revisions`));
+    const first = history.items.find((r: any) => r.version === 1);
+    expectOk(await eng.post(`/api/commands/${seq.id}/restore`, { revisionId: first.id, version: history.version }));
+    expect(expectOk(await eng.get(`/api/commands/${seq.id}`)).steps.map((s: any) => s.state)).toEqual(['ok', 'purged', 'ok', 'ok']);
   });
 
   it('a command no sequence uses goes to the trash without a question', async () => {

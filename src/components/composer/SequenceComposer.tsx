@@ -5,12 +5,12 @@
  * composer carries none of it.
  */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useMemo, useState } from 'react';
+import { lazy, Suspense, useMemo, useState } from 'react';
 import { api, ApiError, isStale } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
 import { assembleSaved, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
 import { defaultPortSettings } from '../../lib/frame/port-settings';
-import type { Template } from '../../lib/frame/template';
+import { templateSchema, type Template } from '../../lib/frame/template';
 import { QueryProvider } from '../QueryProvider';
 import { Caution } from '../ui/Caution';
 import { Section } from '../ui/Section';
@@ -34,6 +34,7 @@ export interface SequenceComposerProps {
 }
 
 const EMPTY: Template = { version: 1, segments: [] };
+const History = lazy(() => import('./History'));
 type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
@@ -53,6 +54,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   const [mode, setMode] = useState(command.sequence?.mode ?? 'one-string');
   const [delayMs, setDelayMs] = useState(command.sequence?.delayMs ?? 0);
   const [asking, setAsking] = useState(false);
+  const [showHistory, setShowHistory] = useState(false);
   const [base, setBase] = useState(() => JSON.stringify({ details, seq: command.sequence }));
   const readOnly = !canEdit || !!inheritedFrom;
 
@@ -69,16 +71,28 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   const sequence: SavedSequence = { mode, delayMs: mode === 'separate' ? delayMs : 0, steps: steps.map((s) => s.step) };
   const port = ports.find((p) => p.name === details.portName) ?? ports[0];
   const settings = port?.settings ?? defaultPortSettings;
-  const s = useMemo(() => assembleSaved(sequence, lookup, { settings, ...(plcStringCapacity ? { plcStringCapacity } : {}) }),
+  // An inline step's template as its segment editor leaves it may not be whole yet: previewed empty until it is.
+  const problems = sequence.steps.flatMap((x, i) => (['template', 'replyTemplate'] as const).flatMap((k) => {
+    const t = x[k];
+    const r = t ? templateSchema.safeParse(t) : null;
+    return r && !r.success ? [`Step ${i + 1}${k === 'replyTemplate' ? ', expected reply' : ''}: ${r.error.issues[0]!.path.join('.')}: ${r.error.issues[0]!.message}`] : [];
+  }));
+  const parsed = (t: Template) => { const r = templateSchema.safeParse(t); return r.success ? r.data : null; };
+  const previewed: SavedSequence = { ...sequence, steps: sequence.steps.map((x) => ({
+    ...x,
+    ...(x.template ? { template: parsed(x.template) ?? EMPTY } : {}),
+    ...(x.replyTemplate ? { replyTemplate: parsed(x.replyTemplate) } : {}),
+  })) };
+  const s = useMemo(() => assembleSaved(previewed, lookup, { settings, ...(plcStringCapacity ? { plcStringCapacity } : {}) }),
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [JSON.stringify(sequence), lookup, settings, plcStringCapacity]);
-  const templates = sequence.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
-  const replies = sequence.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
+    [JSON.stringify(previewed), lookup, settings, plcStringCapacity]);
+  const templates = previewed.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
+  const replies = previewed.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
   const names = s.info.map((i) => i.name);
   const moves = details.movesMachinery || sequence.steps.some((x) => x.commandId && (lib.live ?? []).find((c) => c.id === x.commandId)?.movesMachinery);
   const errors = s.findings.filter((f) => f.severity === 'error');
   const dirty = JSON.stringify({ details, seq: sequence }) !== base;
-  const valid = !!details.name.trim() && steps.length > 0;
+  const valid = !!details.name.trim() && steps.length > 0 && problems.length === 0;
 
   const save = useMutation({
     mutationFn: async () => {
@@ -122,6 +136,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
           </Section>
           <Section title="Steps" id="steps">
             {lib.error && <p className="notice notice-bad text-sm" role="alert">{lib.error.message}</p>}
+            {problems.map((p) => <p key={p} className="notice notice-bad text-sm mb-2" role="alert">{p}</p>)}
             <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
               rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
           </Section>
@@ -145,7 +160,7 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
                 {save.isPending ? 'Saving…' : saved ? (dirty ? 'Unsaved changes' : `Saved · version ${saved.version}`) : 'Not saved yet'}
               </span>
             </div>
-            {!valid && <p className="text-sm text-bad">Name the sequence and give it at least one step before saving.</p>}
+            {!valid && <p className="text-sm text-bad">{problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'}</p>}
             {asking && errors.length > 0 && <SaveWithFindings errors={errors} busy={save.isPending} onSave={() => save.mutate()} onCancel={() => setAsking(false)} />}
             {err && (
               <div className="notice notice-bad text-sm" role="alert">
@@ -154,6 +169,18 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
               </div>
             )}
           </div>
+        </Section>
+      )}
+      {saved && (
+        <Section title="History" id="history-panel">
+          {showHistory ? (
+            <Suspense fallback={<p className="text-sm">Loading history…</p>}>
+              {/* A restored version replaces the steps wholesale: the page reloads to show it as saved. */}
+              <History key={saved.version} commandId={saved.id} canRestore={!readOnly} onRestored={() => location.reload()} />
+            </Suspense>
+          ) : (
+            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
+          )}
         </Section>
       )}
     </div>

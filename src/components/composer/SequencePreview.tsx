@@ -37,7 +37,7 @@ export function SequencePreview({ s, info, templates }: { s: AssembledSequence; 
         {s.steps.map((step) => (
           <li key={step.index} className="border-l-4 border-accent pl-2 min-w-0" data-testid="step-span" data-start={step.start} data-end={step.end}>
             <p className="text-xs text-muted mb-1">
-              Step {step.index + 1} · {info[step.index]?.name ?? ''} · bytes {step.start}–{Math.max(step.start, step.end - 1)} · {step.byteCount} bytes · {ms(step.frameTimeMs)}
+              Step {step.index + 1} · {info[step.index]?.name ?? ''} · {step.byteCount ? <>bytes {step.start}–{step.end - 1} · {step.byteCount} bytes · {ms(step.frameTimeMs)}</> : 'no bytes'}
               {step.startMs !== undefined && <> · goes out at {ms(step.startMs)} at the latest</>}
             </p>
             {info[step.index]?.gap

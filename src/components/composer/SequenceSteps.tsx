@@ -90,6 +90,20 @@ export function SequenceSteps({ steps, onChange, library, info, assembled, separ
                         onChange={(t) => set(key, { template: t })} onRawUnits={() => {}} />
                     </details>
                   )}
+                  {!step.commandId && step.template && !readOnly && (
+                    <label className="text-sm flex items-center gap-2">
+                      <input type="checkbox" checked={!!step.replyTemplate}
+                        onChange={(e) => set(key, e.target.checked ? { replyTemplate: starterTemplate(rules, protocol) } : { replyTemplate: undefined, waitForReplyMs: undefined })} />
+                      The device answers this step
+                    </label>
+                  )}
+                  {!step.commandId && step.replyTemplate && !readOnly && (
+                    <details>
+                      <summary className="cursor-pointer text-sm">Expected reply of this step</summary>
+                      <SegmentEditor idPrefix={`step-${key}-reply`} template={step.replyTemplate} rules={rules} protocol={protocol} rawUnits={{}} readOnly={readOnly}
+                        onChange={(t) => set(key, { replyTemplate: t })} onRawUnits={() => {}} />
+                    </details>
+                  )}
                   {cmd && cmd.presets.length > 0 && !readOnly && (
                     <label className="text-sm flex flex-wrap items-center gap-2">Values from a preset
                       <select className="input !py-1 !w-auto max-w-full" value="" data-testid="step-preset"
