@@ -84,6 +84,12 @@ describe('saved sequences in the browser', () => {
     await page.getByText('Saved · version 1').waitFor();
     const url = page.url();
     expect(await page.getByTestId('notation-iecLiteral').textContent()).toBe(`'${MOVE}'`);
+    // sent separately with a 5 ms pause: python3: 58.333 + 3 × 5 = 73.333 ms from the first byte to the last
+    await page.getByLabel('As separate sends, one per step').check();
+    await page.getByLabel('Pause between sends').fill('5');
+    await expect.poll(() => page.getByTestId('sequence-total-ms').textContent()).toBe('73.333 ms');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await page.getByText('Saved · version 2').waitFor();
 
     await visit(page, DRIVE);
     const item = page.locator(`[data-command="Four-move ${run}"]`);
@@ -94,7 +100,8 @@ describe('saved sequences in the browser', () => {
     await visit(page, `/field/devices/${DEVICE}`);
     const card = page.locator('[data-testid="card-command"]', { hasText: `Four-move ${run}` });
     expect(await card.getByTestId('card-sequence-steps').textContent()).toContain(`4. Distance ${run}`);
-    expect(await card.locator('.fcmd-code').first().textContent()).toBe(`'${MOVE}'`);
+    // sent separately: each step's own string on the card
+    expect(await card.locator('.fcmd-code').first().textContent()).toBe("'1!SET:/R180000$0D'");
 
     const phone = await browser({ viewport: PHONE });
     await signIn(phone.page, 'engineer@fernhollow.test');

@@ -63,7 +63,8 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   const library = useMemo(() => (lib.live ?? []).filter((c) => !c.inherited && !c.sequence && c.id !== saved?.id), [lib.live, saved]);
   const lookup = useMemo(() => {
     const map = new Map<string, StepCommand>();
-    for (const c of lib.live ?? []) if (!c.inherited) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: false });
+    // Inherited ones too: a profile's sequence seen from one of its devices refers to the profile's commands.
+    for (const c of lib.live ?? []) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: false });
     for (const c of lib.trashed) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: true });
     return (id: string) => map.get(id);
   }, [lib.live, lib.trashed]);
@@ -96,9 +97,13 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
 
   const save = useMutation({
     mutationFn: async () => {
-      const body = { ...details, sequence };
+      const body: Record<string, unknown> = { ...details, sequence };
       if (!saved) return api<{ id: string; version: number }>('/api/commands', { body: { [owner.kind === 'device' ? 'deviceId' : 'profileId']: owner.id, template: EMPTY, ...body } });
-      return api<{ id: string; version: number }>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: saved.version, ...body } });
+      // Only what changed since it was opened (or last saved), on the version it was opened at.
+      const was = JSON.parse(base) as { details: Record<string, unknown>; seq: unknown };
+      const before: Record<string, unknown> = { ...was.details, sequence: was.seq };
+      const changed = Object.fromEntries(Object.entries(body).filter(([k, v]) => JSON.stringify(v) !== JSON.stringify(before[k])));
+      return api<{ id: string; version: number }>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: saved.version, ...changed } });
     },
     onSuccess: (c) => {
       setAsking(false);
