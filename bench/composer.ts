@@ -15,6 +15,8 @@ const COMPOSER = '/vault/devices/dev_demo_drv501/commands/cmd_demo_drv501_index'
 const PAGES = [
   { path: COMPOSER, signedIn: true, islands: true },
   { path: '/vault/devices/dev_demo_drv501/commands/new', signedIn: true, islands: true },
+  { path: '/vault/devices/dev_demo_drv501/commands/new?kind=sequence', signedIn: true, islands: true },
+  { path: '/vault/devices/dev_demo_drv501/commands', signedIn: true, islands: true },
   { path: '/workbench', signedIn: false, islands: true },
   { path: '/', signedIn: false, islands: false },
 ];

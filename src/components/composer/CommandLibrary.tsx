@@ -9,11 +9,14 @@ import { ms } from '../../lib/composer/format';
 import type { FieldValues, Template } from '../../lib/frame';
 import type { NamedPort } from './types';
 import { useCommandTrash } from './use-command-trash';
+import type { SavedSequence, StepInfo } from '../../lib/composer/saved-sequence';
 
 interface Item {
   id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
   template: Template; fieldValues: FieldValues; presets: CommandPreset[]; portName: string;
   notes: string; replyTemplate: Template | null; rawUnits: Record<string, string>;
+  /** Set for a sequence, with its steps as they stand (gaps named). */
+  sequence?: SavedSequence | null; steps?: StepInfo[];
 }
 interface Target { value: string; label: string }
 interface Props { owner: { kind: 'device' | 'profile'; id: string; label: string }; basePath: string; canEdit: boolean; ports: NamedPort[] }
@@ -62,6 +65,22 @@ function Presets({ item, ports }: { item: Item; ports: NamedPort[] }) {
   );
 }
 
+/** A sequence's steps in order, each gap in words. */
+function SequenceSteps({ item }: { item: Item }) {
+  const steps = item.steps ?? [];
+  return (
+    <div className="text-sm grid gap-1" data-testid="library-sequence-steps">
+      <p className="text-muted">{steps.length} {steps.length === 1 ? 'step' : 'steps'}, {item.sequence?.mode === 'separate' ? 'sent separately' : 'sent as one string'}</p>
+      <ol className="list-decimal pl-5">
+        {steps.map((st) => (
+          <li key={st.index} className={st.gap ? 'text-bad' : undefined} data-state={st.state}>{st.gap ?? st.name}</li>
+        ))}
+      </ol>
+    </div>
+  );
+}
+
+/** The sequences a command is a step of, as the API's 409 names them on a move to the trash. */
 function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath: string; canEdit: boolean; targets: Target[]; ports: NamedPort[] }) {
   const qc = useQueryClient();
   const [target, setTarget] = useState('');
@@ -77,9 +96,11 @@ function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath
       <div className="flex flex-wrap items-baseline gap-x-3">
         <a href={`${basePath}/${item.id}`} className="font-semibold">{item.name}</a>
         {item.movesMachinery && <span className="text-xs rounded bg-[#fdf3e3] text-warn px-1.5">moves machinery</span>}
+        {item.sequence && <span className="text-xs rounded border border-line px-1.5" data-testid="sequence-badge">sequence</span>}
         {item.inherited && <span className="text-xs text-muted">from profile {item.owner.label} · read-only here</span>}
       </div>
       {item.purpose && <p className="text-sm text-muted">{item.purpose}</p>}
+      {item.sequence && <SequenceSteps item={item} />}
       {item.presets.length > 0 && <Presets item={item} ports={ports} />}
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2 text-sm">

@@ -4,7 +4,7 @@
  */
 import { useMemo, useState, type ReactNode } from 'react';
 import { previewFrame } from '../../lib/frame/preview';
-import { plcStringFit } from '../../lib/frame/sequence';
+import { plcStringFit } from '../../lib/frame/plc-string';
 import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
 import { restartForPort, starterTemplate } from '../../lib/composer/segments';

@@ -15,11 +15,13 @@ interface Props {
   values: FieldValues;
   rawUnits: Record<string, string>;
   onChange: (v: FieldValues) => void;
+  /** Prefix of the inputs' ids (several forms on one page each need their own); default `value`. */
+  idPrefix?: string;
 }
 
 const asText = (v: unknown) => (v === undefined || v === null ? '' : String(v));
 
-export function ValuesForm({ template, values, rawUnits, onChange }: Props) {
+export function ValuesForm({ template, values, rawUnits, onChange, idPrefix = 'value' }: Props) {
   const fields = template.segments.filter(isField);
   // `raw`: the form keeps the text as typed (the engine reads numbers from the text, exactly).
   const resolver = useMemo(() => zodResolver(valuesSchemaFor(template), undefined, { raw: true }), [template]);
@@ -40,7 +42,7 @@ export function ValuesForm({ template, values, rawUnits, onChange }: Props) {
   return (
     <form className="grid gap-3 sm:grid-cols-2" noValidate onSubmit={(e) => e.preventDefault()} data-testid="values-form">
       {fields.map((f: FieldSegment) => {
-        const id = `value-${f.name}`;
+        const id = `${idPrefix}-${f.name}`;
         const err = errors[f.name]?.message;
         const both = f.type === 'integer' || f.type === 'decimal' ? bothUnits(f, live[f.name] || f.default, rawUnits[f.name]) : null;
         return (

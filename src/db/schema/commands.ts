@@ -10,6 +10,7 @@ import { team } from './teams';
 import { device, deviceProfile, trashIndex, versionedColumns } from './vault';
 import type { FieldValues, Template } from '../../lib/frame/template';
 import type { CommandPreset } from '../../lib/composer/presets';
+import type { SavedSequence } from '../../lib/composer/saved-sequence';
 
 
 export const command = sqliteTable(
@@ -38,6 +39,11 @@ export const command = sqliteTable(
     notes: text('notes').notNull().default(''),
     /** The command moves machinery: the composer shows the safety caution above it. */
     movesMachinery: integer('moves_machinery', { mode: 'boolean' }).notNull().default(false),
+    /**
+     * Set when the command is a sequence of steps (library commands of the same owner by id, or inline
+     * templates; src/lib/composer/saved-sequence.ts); its own template is then empty. Null = a single command.
+     */
+    sequence: text('sequence', { mode: 'json' }).$type<SavedSequence | null>(),
     ...versionedColumns(),
     trashId: text('trash_id'),
   },

@@ -4,6 +4,7 @@ import {
   type PortSettings, type Template, type FieldValues,
 } from '../frame';
 import { renderCommandVariants, timingPort, type CommandPreset, type CommandRendering } from '../composer/presets';
+import { assembleSaved, type SavedSequence, type StepCommand } from '../composer/saved-sequence';
 
 export { MACHINERY_CAUTION as CAUTION } from '../caution';
 
@@ -24,6 +25,8 @@ export interface CardCommandInput {
   presets: CommandPreset[];
   portName: string;
   movesMachinery: boolean;
+  /** Set for a sequence (its own template is empty). */
+  sequence?: SavedSequence | null;
 }
 
 export interface CardPort {
@@ -46,6 +49,8 @@ export interface CardCommand {
   sends: CommandRendering[];
   /** The port the times are for, e.g. `Service RS-232, 9600 8-N-1`; null when the device has no serial port. */
   line: string | null;
+  /** A sequence's steps in order: each command's name, or the gap in words. Absent for a single command. */
+  steps?: string[];
 }
 
 export function cardPort(p: CardPortInput, heading: string): CardPort {
@@ -73,11 +78,42 @@ export function cardPort(p: CardPortInput, heading: string): CardPort {
  * The command's bytes as a PLC string literal and as hex, with its saved values and with each preset, timed on
  * its port (the one it names, else the device's first serial port).
  */
-export function cardCommand(c: CardCommandInput, ports: { name: string; settings: PortSettings }[] = []): CardCommand {
+export function cardCommand(c: CardCommandInput, ports: { name: string; settings: PortSettings }[] = [], lookup: (id: string) => StepCommand | undefined = () => undefined): CardCommand {
   const port = timingPort(ports, c.portName);
+  if (c.sequence) {
+    return {
+      id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
+      ...sequenceSends(c.sequence, lookup, port ? port.settings : null),
+      line: port ? `${port.name}, ${portShorthand(port.settings)}` : null,
+    };
+  }
   return {
     id: c.id, name: c.name, purpose: c.purpose, movesMachinery: c.movesMachinery,
     sends: renderCommandVariants(c, port ? port.settings : null),
     line: port ? `${port.name}, ${portShorthand(port.settings)}` : null,
+  };
+}
+
+/**
+ * A sequence on the card: the whole string as one send, or each step as its own when sent separately; a gap or
+ * an error finding is the problem that keeps it from being built.
+ */
+function sequenceSends(seq: SavedSequence, lookup: (id: string) => StepCommand | undefined, line: PortSettings | null): { sends: CommandRendering[]; steps: string[] } {
+  const s = assembleSaved(seq, lookup, line ? { settings: line } : {});
+  const steps = s.info.map((i) => i.gap ?? i.name);
+  const problem = s.findings.find((f) => f.severity === 'error')?.message ?? null;
+  const hexOf = (from: number, to: number) => s.notations.hex.split(' ').slice(from, to).join(' ');
+  if (seq.mode === 'one-string') {
+    return { steps, sends: [{ preset: null, plc: s.notations.iecLiteral, hex: s.notations.hex, byteCount: s.byteCount, wireMs: line ? s.timing.frameTimeMs : null, problem }] };
+  }
+  return {
+    steps,
+    sends: s.steps.map((step) => {
+      const one = assembleSaved({ ...seq, mode: 'one-string', steps: [seq.steps[step.index]!] }, lookup, line ? { settings: line } : {});
+      return {
+        preset: `Step ${step.index + 1} · ${s.info[step.index]!.name}`, plc: one.notations.iecLiteral, hex: hexOf(step.start, step.end), byteCount: step.byteCount,
+        wireMs: line ? step.frameTimeMs : null, problem: step.findings.find((f) => f.severity === 'error')?.message ?? null,
+      };
+    }),
   };
 }

@@ -8,7 +8,7 @@ interface Doc {
   devices: { id: string; machineId: string; profileId: string | null; tag: string }[];
   ports: { id: string; deviceId: string; name: string }[];
   links: { id: string; machineId: string; name: string; members: { portId: string }[] }[];
-  commands: { id: string; deviceId: string | null; profileId: string | null; name: string }[];
+  commands: { id: string; deviceId: string | null; profileId: string | null; name: string; sequence?: { steps: { commandId?: string }[] } }[];
 }
 
 /** Every reference resolves inside the document, ids are unique, tags are unique per machine and port names per device (`nameKey`). Answers problems in words. */
@@ -62,10 +62,22 @@ export function documentProblems(doc: Doc, max = 20): string[] {
     else if (c.deviceId && !devices.has(c.deviceId)) add(`command ${c.name}: its device ${c.deviceId} is not in the document`);
     else if (c.profileId && !profiles.has(c.profileId)) add(`command ${c.name}: its profile ${c.profileId} is not in the document`);
   }
+  const commands = new Map(doc.commands.map((c) => [c.id, c]));
+  for (const c of doc.commands) {
+    (c.sequence?.steps ?? []).forEach((s, i) => {
+      if (!s.commandId) return;
+      const to = commands.get(s.commandId);
+      const at = `command ${c.name}: step ${i + 1}`;
+      if (!to) add(`${at} refers to command ${s.commandId}, which is not in the document (it was in the trash or purged when exported?); replace the step or remove the sequence from the file`);
+      else if (to.id === c.id) add(`${at} refers to the sequence itself`);
+      else if (to.deviceId !== c.deviceId || to.profileId !== c.profileId) add(`${at} refers to command ${to.name} of another device or profile`);
+      else if (to.sequence) add(`${at} refers to ${to.name}, which is itself a sequence`);
+    });
+  }
   return out;
 }
 
-const REF_KEYS = ['id', 'siteId', 'machineId', 'deviceId', 'profileId', 'portId'] as const;
+const REF_KEYS = ['id', 'siteId', 'machineId', 'deviceId', 'profileId', 'portId', 'commandId'] as const;
 
 /**
  * The document with every id replaced by its record's position (`#3`) and the header (team, time)

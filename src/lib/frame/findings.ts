@@ -15,7 +15,9 @@ export const FINDING_CODES = [
   // reply decoding (decodeReply)
   'reply-mismatch', 'reply-too-short', 'reply-extra-bytes', 'reply-field-unreadable', 'checksum-mismatch',
   // command sequences (assembleSequence)
-  'step-unterminated', 'plc-string-too-long', 'plc-string-may-overflow',
+  'step-unterminated', 'plc-string-too-long', 'plc-string-may-overflow', 'step-wait-without-reply', 'step-wait-in-one-string',
+  // saved sequences (a step whose library command is in the trash or purged)
+  'step-command-missing',
 ] as const;
 export type FindingCode = (typeof FINDING_CODES)[number];
 

@@ -68,3 +68,4 @@ export {
   type BusLayoutFinding, maxDropM, checkBusLayout,
 } from './bus-layout';
 export { MAX_BUS_POLLS, MAX_POLL_BYTES, MAX_POLL_MS, busPollSchema, busLayoutMemberSchema, busCycleSchema, type BusCycleRequest } from './bus-cycle-schema';
+export { type StepReply, type SequenceReply, decodeSequenceReply } from './sequence-reply';

@@ -4,23 +4,30 @@
  * Each step is assembled and checked as its own frame; only sequence-level findings are added.
  */
 import { type SegmentSpan, assembleFrame } from './assemble';
-import { type Finding, isClean } from './findings';
-import { type UnlimitedField, longestFrame } from './longest';
+import { isClean } from './findings';
+import { longestFrame } from './longest';
 import { type RenderedNotations, renderAllNotations } from './notations';
 import { type LineSettings, defaultPortSettings } from './port-settings';
 import { type FrameCheckSettings, checkAssembledFrame } from './preview';
 import type { FieldValues, Template } from './template';
 import { type TimingReport, charTimeMs, roundMs, timingReport } from './timing';
 
-/** `one-string`: the steps' bytes back to back in one send; `separate`: one send per step, `delayMs` apart. */
-export const SEQUENCE_MODES = ['one-string', 'separate'] as const;
-export type SequenceMode = (typeof SEQUENCE_MODES)[number];
-/** Most steps the tools API accepts in one sequence. */
-export const MAX_SEQUENCE_STEPS = 32;
+import { MAX_SEQUENCE_STEPS, SEQUENCE_MODES, type SequenceMode } from './sequence-limits';
+import { type SequenceFinding, type Widest, capacityFindings, isCapacity, stepName } from './plc-string';
+
+export { MAX_SEQUENCE_STEPS, SEQUENCE_MODES, type SequenceMode };
+export { plcStringFit, type SequenceFinding } from './plc-string';
 
 export interface SequenceStepInput {
   template: Template;
   values?: FieldValues;
+  /** What the device answers this step (a reply template); absent or null = no reply expected. */
+  reply?: Template | null;
+  /**
+   * `separate` only: before the next send, wait for this step's reply, at most this long (its timeout, ms).
+   * The timing counts the whole timeout (the worst case). Absent = do not wait.
+   */
+  waitForReplyMs?: number;
 }
 
 export interface SequenceOptions {
@@ -31,11 +38,6 @@ export interface SequenceOptions {
   delayMs?: number;
   /** Characters the PLC STRING holds (its declared STRING[n] length); none = no capacity check. */
   plcStringCapacity?: number;
-}
-
-/** A finding with `range` in whole-string offsets; `step` (0-based) names the step it came from. */
-export interface SequenceFinding extends Finding {
-  step?: number;
 }
 
 export interface SequenceStep {
@@ -51,6 +53,12 @@ export interface SequenceStep {
   /** The step's segment map, in whole-string offsets. */
   segments: SegmentSpan[];
   findings: SequenceFinding[];
+  /** True when the step has a reply template (present only then). */
+  expectsReply?: boolean;
+  /** `separate` only, when the step waits for its reply: the timeout counted, ms (present only then). */
+  waitForReplyMs?: number;
+  /** `separate` only: worst case from the sequence's first byte out to this step's first byte out, ms. */
+  startMs?: number;
 }
 
 /** `timingReport` of the whole string, and what the sends add up to. */
@@ -60,8 +68,12 @@ export interface SequenceTiming extends TimingReport {
   delayMs: number;
   /** (steps − 1) × delayMs when separate, else 0. */
   delayTotalMs: number;
-  /** frameTimeMs + delayTotalMs: first byte out to last byte out. */
+  /** frameTimeMs + delayTotalMs + waitTotalMs: first byte out to last byte out (worst case when steps wait). */
   totalMs: number;
+  /** Reply timeouts counted before the last send (each waiting step but the last), ms; 0 when none waits. */
+  waitTotalMs: number;
+  /** totalMs plus the last step's reply timeout when it waits: first byte out to the end of the last wait, ms. */
+  worstCaseMs: number;
 }
 
 /** Length of the PLC STRING(s) in characters: one per byte, however a notation writes it (`$0D` is one). */
@@ -88,9 +100,6 @@ export interface AssembledSequence {
   timing: SequenceTiming;
 }
 
-const stepName = (i: number) => `Step ${i + 1}`;
-const isCapacity = (c: number) => Number.isInteger(c) && c >= 1;
-
 /** Sequence-level options given in code without the schema: a finding each, and a usable value. */
 function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
   const invalid = (message: string) => findings.push({ severity: 'error', code: 'field-invalid', message });
@@ -112,53 +121,22 @@ function readOptions(options: SequenceOptions, findings: SequenceFinding[]) {
   return { mode, delayMs, capacity };
 }
 
-/** A field without a width limit, and the step it is in. */
-type StepField = UnlimitedField & { step?: number };
-/** The widest case of a string: its bytes (null = unbounded) and the fields that have no limit. */
-interface Widest {
-  byteCount: number | null;
-  unlimited: StepField[];
-}
-
-const listFields = (fields: readonly StepField[]) =>
-  fields.map((f) => (f.step === undefined ? `"${f.label}"` : `"${f.label}" (${stepName(f.step).toLowerCase()})`)).join(', ');
-
-/**
- * The capacity findings for one PLC string of `length` bytes starting at `at`: the actual string too long,
- * else the widest case too long (or unbounded). `what` names the string in the messages.
- */
-function capacityFindings(
-  what: string, at: number, length: number, longest: Widest, capacity: number, advice: string,
-): SequenceFinding[] {
-  if (length > capacity) {
-    return [{
-      severity: 'error', code: 'plc-string-too-long', range: [at + capacity, at + length],
-      message: `${what} is ${length} characters; the PLC string holds ${capacity}. Declare it STRING[${length}] or longer${advice}.`,
-    }];
+/** A step's reply wait in `separate` mode: a finding and 0 when unusable, or when there is no reply to wait for. */
+function readWait(step: SequenceStepInput, index: number, findings: SequenceFinding[]): number {
+  const w = step.waitForReplyMs;
+  if (w === undefined) return 0;
+  if (!(Number.isFinite(w) && w >= 0)) {
+    findings.push({ severity: 'error', code: 'field-invalid', step: index, message: `${stepName(index)}: reply timeout ${String(w)} ms is not a time of 0 ms or more; enter one.` });
+    return 0;
   }
-  const numbers = longest.unlimited.filter((f) => f.countedAs !== null);
-  const counted = numbers.length ? ` ${listFields(numbers)} ${numbers.length === 1 ? 'has' : 'have'} no width and no min and max, so ${numbers.length === 1 ? 'it is' : 'they are'} counted at ${numbers[0]!.countedAs} characters.` : '';
-  if (longest.byteCount === null) {
-    const texts = longest.unlimited.filter((f) => f.countedAs === null);
-    return [{
-      severity: 'error', code: 'plc-string-may-overflow',
-      message: `${what} has no upper length: text field ${listFields(texts)} has no maxLength. Give ${texts.length === 1 ? 'it' : 'each'} a maxLength so the string always fits the ${capacity} characters the PLC string holds (the values given make ${length}).${counted}`,
-    }];
+  if (!step.reply) {
+    findings.push({
+      severity: 'warning', code: 'step-wait-without-reply', step: index,
+      message: `${stepName(index)} waits for a reply but expects none; give it a reply template or leave the wait out.`,
+    });
+    return 0;
   }
-  if (longest.byteCount > capacity) {
-    return [{
-      severity: 'error', code: 'plc-string-may-overflow',
-      message: `With every field at its widest, ${what.toLowerCase()} is ${longest.byteCount} characters, more than the ${capacity} the PLC string holds (the values given make ${length}). Narrow the fields (width, min and max, maxLength) or declare STRING[${longest.byteCount}].${counted}`,
-    }];
-  }
-  return [];
-}
-
-/** One command's string against a PLC STRING that holds `capacity` characters (null = not recorded: no findings). */
-export function plcStringFit(template: Template, byteCount: number, capacity: number | null): { capacity: number | null; length: number; longestLength: number | null; findings: SequenceFinding[] } {
-  const longest = longestFrame(template);
-  const findings = capacity !== null && isCapacity(capacity) ? capacityFindings('The string', 0, byteCount, longest, capacity, '') : [];
-  return { capacity, length: byteCount, longestLength: longest.byteCount, findings };
+  return w;
 }
 
 /** Assembles and checks a sequence of steps; never throws on malformed input. */
@@ -172,6 +150,7 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
   const parts: Uint8Array[] = [];
   const out: SequenceStep[] = [];
   const widest: Widest[] = [];
+  const waits: number[] = [];
   let at = 0;
   steps.forEach((step, index) => {
     const frame = assembleFrame(step.template, step.values ?? {});
@@ -186,13 +165,23 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
         message: `${stepName(index)} has no terminator, so in one string the device cannot tell where it ends and ${stepName(index + 1).toLowerCase()} begins. Add a terminator segment, or send the steps separately.`,
       });
     }
+    const wait = mode === 'separate' ? readWait(step, index, findings) : 0;
+    if (mode !== 'separate' && step.waitForReplyMs !== undefined) {
+      findings.push({
+        severity: 'warning', code: 'step-wait-in-one-string', step: index,
+        message: `${stepName(index)} waits for its reply, but in one string every step goes out at once; send the steps separately to wait between them.`,
+      });
+    }
     const longest = longestFrame(step.template);
     widest.push({ byteCount: longest.byteCount, unlimited: longest.unlimited.map((f) => ({ ...f, step: index })) });
     const byteCount = frame.byteCount;
     out.push({
       index, start: at, end: at + byteCount, byteCount, frameTimeMs: roundMs(byteCount * charMs), longestByteCount: longest.byteCount,
       segments: frame.segments.map((s) => ({ ...s, start: s.start + at, end: s.end + at })), findings,
+      ...(step.reply ? { expectsReply: true } : {}),
+      ...(wait > 0 ? { waitForReplyMs: wait } : {}),
     });
+    waits.push(wait);
     parts.push(frame.bytes);
     at += byteCount;
   });
@@ -220,9 +209,21 @@ export function assembleSequence(steps: readonly SequenceStepInput[], options: S
   const findings = out.flatMap((s) => s.findings).concat(sequenceFindings);
   const sends = mode === 'separate' ? steps.length : Math.min(1, steps.length);
   const delayTotalMs = Math.max(0, sends - 1) * delayMs;
+  // Worst case: each waiting step's whole timeout, then the delay, before the next send.
+  const waitTotalMs = waits.slice(0, -1).reduce((n, w) => n + w, 0);
+  const lastWait = waits.length ? waits[waits.length - 1]! : 0;
+  if (mode === 'separate') {
+    let t = 0;
+    for (const s of out) {
+      s.startMs = roundMs(t);
+      t += s.byteCount * charMs + waits[s.index]! + delayMs;
+    }
+  }
+  const totalMs = at * charMs + delayTotalMs + waitTotalMs;
   const timing: SequenceTiming = {
     ...timingReport(settings, at),
-    sends, delayMs, delayTotalMs: roundMs(delayTotalMs), totalMs: roundMs(at * charMs + delayTotalMs),
+    sends, delayMs, delayTotalMs: roundMs(delayTotalMs), totalMs: roundMs(totalMs),
+    waitTotalMs: roundMs(waitTotalMs), worstCaseMs: roundMs(totalMs + lastWait),
   };
   return { ok: isClean(findings), mode, bytes, byteCount: at, notations: renderAllNotations(bytes), plcString, steps: out, findings, timing };
 }

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { readTypedNumber } from '../frame/field-format';
 import { isField, templateSchema, type FieldSegment, type Template } from '../frame/template';
 import { MAX_PRESETS, presetKey } from '../composer/presets';
+import { MAX_REPLY_WAIT_MS, MAX_SEQUENCE_DELAY_MS, MAX_SEQUENCE_STEPS, SEQUENCE_MODES } from '../frame/sequence-limits';
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
 const id = z.string().min(1, 'Choose a record.').max(64);
@@ -68,6 +69,36 @@ export const presetsSchema = z.array(presetSchema).max(MAX_PRESETS, `At most ${M
   });
 });
 
+/** One step of a saved sequence: a library command by id, or an inline template (exactly one of the two). */
+export const savedStepSchema = z
+  .strictObject({
+    commandId: id.optional(),
+    template: templateSchema.optional(),
+    values: fieldValuesSchema.default({}),
+    replyTemplate: templateSchema.nullable().optional(),
+    waitForReplyMs: z.number().finite().min(0).max(MAX_REPLY_WAIT_MS).optional(),
+  })
+  .superRefine((s, ctx) => {
+    if (!s.commandId === !s.template) ctx.addIssue({ code: 'custom', path: ['commandId'], message: 'Give a step either a library command (commandId) or its own template (one of them).' });
+    if (s.commandId && s.replyTemplate !== undefined) ctx.addIssue({ code: 'custom', path: ['replyTemplate'], message: 'A library command\'s step expects that command\'s reply; give a reply template only to an inline step.' });
+    if (s.template) for (const [key, message] of valuesProblems(s.template, s.values)) ctx.addIssue({ code: 'custom', path: ['values', key], message });
+  });
+
+/** A saved sequence: 1 to 32 steps sent as one string or separately, `delayMs` apart. */
+export const savedSequenceSchema = z
+  .strictObject({
+    mode: z.enum(SEQUENCE_MODES).default('one-string'),
+    delayMs: z.number().finite().min(0).max(MAX_SEQUENCE_DELAY_MS).default(0),
+    steps: z.array(savedStepSchema).min(1, 'Give the sequence at least one step.').max(MAX_SEQUENCE_STEPS, `A sequence has at most ${MAX_SEQUENCE_STEPS} steps.`),
+  })
+  .superRefine((q, ctx) => {
+    if (q.mode !== 'separate' && q.delayMs > 0) ctx.addIssue({ code: 'custom', path: ['delayMs'], message: 'A delay applies only between separate sends; choose separate sends or set the delay to 0.' });
+    q.steps.forEach((s, i) => {
+      if (s.waitForReplyMs !== undefined && q.mode !== 'separate') ctx.addIssue({ code: 'custom', path: ['steps', i, 'waitForReplyMs'], message: 'A step waits for its reply only when the steps are sent separately.' });
+      if (s.waitForReplyMs !== undefined && s.template && !s.replyTemplate) ctx.addIssue({ code: 'custom', path: ['steps', i, 'waitForReplyMs'], message: 'Give the step a reply template to wait for, or leave the wait out.' });
+    });
+  });
+
 const commandFields = {
   name: text(120).min(1, 'Enter a command name.'),
   purpose: text(300).default(''),
@@ -79,6 +110,8 @@ const commandFields = {
   presets: presetsSchema.default([]),
   notes: text(5000).default(''),
   movesMachinery: z.boolean().default(false),
+  /** Set for a sequence of commands (its own template is then unused: send `{ "version": 1, "segments": [] }`). */
+  sequence: savedSequenceSchema.nullable().default(null),
 };
 
 /** Problems of values (saved or a preset's) with the template, each at its key; empty when they fit. */

@@ -1,7 +1,7 @@
 /** Request schemas for field work and sharing: field log, attachments, share links, import and export. */
 import { z } from 'zod';
 import { templateSchema } from '../frame/template';
-import { presetsSchema, valuesProblems } from './commands';
+import { presetsSchema, savedSequenceSchema, valuesProblems } from './commands';
 import { emailSchema } from './platform';
 import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, wiringRowSchema } from './vault';
 
@@ -107,6 +107,8 @@ export const exportDocumentSchema = z.strictObject({
     notes: text(5000), movesMachinery: z.boolean(),
     // Exports made before presets existed have none.
     presets: presetsSchema.default([]),
+    // A sequence: steps refer to commands of the document by their ids here. Absent for single commands.
+    sequence: savedSequenceSchema.optional(),
   }).superRefine((c, ctx) => {
     c.presets.forEach((p, i) => {
       for (const [key, message] of valuesProblems(c.template, p.values)) ctx.addIssue({ code: 'custom', path: ['presets', i, 'values', key], message: `Preset "${p.name}": ${message}` });

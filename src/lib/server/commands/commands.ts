@@ -5,7 +5,9 @@ import { command } from '../../../db/schema';
 import { recordCreated, trashRecord } from '../records/engine';
 import { commandEntity } from '../records/entities';
 import { valuesProblems, type CommandCopy, type CommandCreate, type CommandUpdate } from '../../schemas/commands';
-import { Invalid } from '../errors';
+import { Conflict, Invalid } from '../errors';
+import { assembleSaved, referencedIds, type StepInfo } from '../../composer/saved-sequence';
+import { checkSteps, inlineSteps, sequencesUsing, stepCommands, stepsOf } from './sequences';
 import { previewFrame } from '../../frame';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
@@ -20,6 +22,8 @@ export interface CommandView extends CommandRow {
   owner: { kind: CommandOwner['kind']; id: string; label: string };
   /** Listed on a device but kept on its profile: read-only there, copy to change. */
   inherited: boolean;
+  /** A sequence's steps as they stand: names, and the gap where a step's command is in the trash or purged. */
+  steps?: StepInfo[];
 }
 
 const view = (row: CommandRow, owner: CommandOwner, inherited = false): CommandView => ({
@@ -49,15 +53,16 @@ export async function listCommands(ctx: TeamContext, ref: { deviceId?: string; p
     )
     .orderBy(asc(command.name), asc(command.id));
   const profile = profileId ? await findOwner(db, ctx, { profileId }) : null;
-  const own = rows.filter((r) => (owner.kind === 'device' ? r.deviceId === owner.id : true)).map((r) => view(r, owner));
-  const inherited = profile ? rows.filter((r) => r.profileId === profileId).map((r) => view(r, profile, true)) : [];
+  const withSteps = await stepsOf(db, ctx, rows);
+  const own = withSteps.filter((r) => (owner.kind === 'device' ? r.deviceId === owner.id : true)).map((r) => view(r, owner));
+  const inherited = profile ? withSteps.filter((r) => r.profileId === profileId).map((r) => view(r, profile, true)) : [];
   return { owner, items: [...own, ...inherited] };
 }
 
 /** One command with its owner. `forDevice` answers a profile command as seen from a device made from it. */
 export async function getCommand(ctx: TeamContext, id: string, q: DbOrTx = db): Promise<CommandView> {
-  const row = await findCommand(q, ctx, id);
-  return view(row, await findOwner(q, ctx, row));
+  const [row] = await stepsOf(q, ctx, [await findCommand(q, ctx, id)]);
+  return view(row!, await findOwner(q, ctx, row!));
 }
 
 /** The command as seen from a device page: its own, or its profile's (inherited); 404 otherwise. */
@@ -73,11 +78,15 @@ export async function createCommand(ctx: TeamContext, input: CommandCreate): Pro
   return db.transaction(async (tx) => {
     const owner = await findOwner(tx, ctx, input);
     const { deviceId: _d, profileId: _p, ...fields } = input;
+    if (input.sequence) {
+      sequenceShape(input);
+      await checkSteps(tx, ctx, { deviceId: input.deviceId ?? null, profileId: input.profileId ?? null }, null, input.sequence);
+    }
     const [row] = await tx
       .insert(command)
       .values({ id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, ...fields, updatedBy: ctx.user.id })
       .returning();
-    const errors = errorFindings(row!, owner);
+    const errors = await errorFindings(tx, ctx, row!, owner);
     await recordCreated(tx, ctx, commandEntity, row!, `Created command ${row!.name}${findingsNote(errors)}`);
     return { ...view(row!, owner), ...(errors.length ? { savedWithErrors: errors } : {}) };
   });
@@ -88,16 +97,41 @@ export async function updateCommand(ctx: TeamContext, id: string, input: Command
   return db.transaction(async (tx) => {
     const current = await findCommand(tx, ctx, id);
     if (patch.presets !== undefined || patch.template !== undefined) presetsFit(current, patch);
+    const next = { ...current, ...definedOnly(patch) } as CommandRow;
+    if (patch.sequence !== undefined || (current.sequence && patch.template !== undefined)) await sequenceFits(tx, ctx, current, next);
     const owner = await findOwner(tx, ctx, current);
-    const errors = errorFindings({ ...current, ...definedOnly(patch) } as CommandRow, owner);
+    const errors = await errorFindings(tx, ctx, next, owner);
     const { row } = await updateCommandVersioned(tx, ctx, id, version, definedOnly(patch) as Partial<CommandRow>, { note: findingsNote(errors) });
     return { ...view(row, owner), ...(errors.length ? { savedWithErrors: errors } : {}) };
   });
 }
 
+/** A sequence's own template stays empty and it has no values or presets of its own: its steps hold them. */
+function sequenceShape(c: Pick<CommandRow, 'template' | 'fieldValues' | 'presets'>) {
+  if (c.template.segments.length) throw new Invalid('A sequence keeps its templates in its steps; send its own template empty ({ "version": 1, "segments": [] }).', { fields: { template: 'Leave empty for a sequence.' } });
+  if (Object.keys(c.fieldValues).length) throw new Invalid('A sequence keeps its values in its steps; send no fieldValues.', { fields: { fieldValues: 'Leave empty for a sequence.' } });
+  if (c.presets.length) throw new Invalid('A sequence has no presets of its own; use the presets of its steps\' commands.', { fields: { presets: 'Leave empty for a sequence.' } });
+}
+
+/** An updated sequence's steps follow the rules; a command used as a step cannot itself become a sequence. */
+async function sequenceFits(tx: DbOrTx, ctx: TeamContext, current: CommandRow, next: CommandRow) {
+  if (!next.sequence) return;
+  sequenceShape(next);
+  if (!current.sequence) {
+    const users = await sequencesUsing(tx, ctx, current);
+    if (users.length) throw new Invalid(`"${current.name}" is a step of ${users.map((u) => `"${u.name}"`).join(', ')}; a step must be a single command, so it cannot become a sequence.`);
+  }
+  await checkSteps(tx, ctx, current, current.id, next.sequence, referencedIds(current.sequence));
+}
+
 /** Codes of the error findings the command's frame has with its saved values, checked on its port as the composer checks it. */
-function errorFindings(c: Pick<CommandRow, 'template' | 'fieldValues' | 'portName'>, owner: CommandOwner): string[] {
+async function errorFindings(q: DbOrTx, ctx: TeamContext, c: Pick<CommandRow, 'template' | 'fieldValues' | 'portName' | 'sequence'>, owner: CommandOwner): Promise<string[]> {
   const port = owner.ports.find((p) => p.name === c.portName) ?? owner.ports[0];
+  if (c.sequence) {
+    const found = await stepCommands(q, ctx, referencedIds(c.sequence));
+    const s = assembleSaved(c.sequence, (id) => found.get(id), { settings: port?.settings });
+    return [...new Set(s.findings.filter((f) => f.severity === 'error').map((f) => f.code))];
+  }
   try {
     return [...new Set(previewFrame(c.template, c.fieldValues, port?.settings).findings.filter((f) => f.severity === 'error').map((f) => f.code))];
   } catch {
@@ -122,9 +156,20 @@ function presetsFit(current: CommandRow, patch: Omit<CommandUpdate, 'version'>) 
   if (first) throw new Invalid(patch.presets ? first : `${first} Change the preset with the template, or remove it.`, { fields });
 }
 
-/** Moves a command to the trash (its history stays; restoring a revision brings it back). */
-export async function trashCommand(ctx: TeamContext, id: string, version?: number) {
+/**
+ * Moves a command to the trash (its history stays; restoring a revision brings it back). A command that live
+ * sequences use as a step is refused (409 with `usedBy`, each sequence and its step numbers) unless
+ * `confirmUsed`: then those sequences show the gap until it is restored or the step replaced.
+ */
+export async function trashCommand(ctx: TeamContext, id: string, version?: number, confirmUsed = false) {
   return db.transaction(async (tx) => {
+    if (!confirmUsed) {
+      const usedBy = await sequencesUsing(tx, ctx, await findCommand(tx, ctx, id));
+      if (usedBy.length) {
+        const list = usedBy.map((u) => `"${u.name}" (step ${u.steps.join(', ')})`).join(', ');
+        throw new Conflict(`This command is a step of ${usedBy.length === 1 ? 'the sequence' : 'the sequences'} ${list}. Moved to the trash, it leaves a gap there until it is restored or the step replaced; confirm to move it anyway.`, { usedBy });
+      }
+    }
     const row = await trashRecord(tx, ctx, commandEntity, id, version);
     return { id, trashed: true, version: row.version };
   });
@@ -152,6 +197,8 @@ export async function copyCommand(ctx: TeamContext, id: string, input: CommandCo
     const sameOwner = (input.deviceId ?? null) === source.deviceId && (input.profileId ?? null) === source.profileId;
     const name = input.name ?? (sameOwner ? await copyName(tx, ctx, source) : source.name);
     const fields = { ...(snapshotOf(commandEntity, source) as Pick<CommandRow, (typeof commandEntity.snapshotKeys)[number]>), name };
+    // Steps point at commands of their own device or profile: elsewhere they become inline steps.
+    if (fields.sequence && !sameOwner) fields.sequence = await inlineSteps(tx, ctx, fields.sequence);
     const [row] = await tx
       .insert(command)
       .values({ ...fields, id: newId('cmd'), teamId: ctx.team.id, deviceId: input.deviceId ?? null, profileId: input.profileId ?? null, updatedBy: ctx.user.id })

@@ -24,19 +24,23 @@ async function plcStringCapacity(ctx: TeamContext, kind: OwnerKind, id: string):
   return m?.capacity ?? null;
 }
 
-/** Props for the composer island; `commandId` "new" gives an unsaved command started from the first port's frame rules. */
-export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string, commandId: string) {
+/**
+ * Props for the composer island; `commandId` "new" gives an unsaved command started from the first port's frame
+ * rules, or with `newSequence` an unsaved sequence without steps.
+ */
+export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string, commandId: string, opts: { newSequence?: boolean } = {}) {
   const lib = { ...(await libraryPage(ctx, kind, id)), plcStringCapacity: await plcStringCapacity(ctx, kind, id) };
   if (commandId === 'new') {
     if (!can(ctx.role, 'command:create')) throw new Forbidden(`Your role (${ctx.role}) does not allow command create.`);
     const rules = lib.ports[0]?.settings.frameRules ?? {};
     const template = starterTemplate(rules, lib.ports[0]?.settings.protocol);
-    const command = { name: 'New command', purpose: '', notes: '', movesMachinery: false, template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {}, presets: [] };
+    const sequence = opts.newSequence ? { mode: 'one-string' as const, delayMs: 0, steps: [] } : null;
+    const command = { name: sequence ? 'New sequence' : 'New command', purpose: '', notes: '', movesMachinery: false, template: sequence ? { version: 1 as const, segments: [] } : template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {}, presets: [], sequence };
     return { ...lib, command, inheritedFrom: undefined };
   }
   const c = kind === 'device' ? await getCommandForDevice(ctx, id, commandId) : await getCommand(ctx, commandId);
   if (kind === 'profile' && c.profileId !== id) throw new NotFound('No command with that id in this profile.');
   const inheritedFrom = c.inherited && c.profileId ? { profileId: c.profileId, label: c.owner.label } : undefined;
-  const command = { id: c.id, version: c.version, name: c.name, purpose: c.purpose, notes: c.notes, movesMachinery: c.movesMachinery, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, presets: c.presets };
+  const command = { id: c.id, version: c.version, name: c.name, purpose: c.purpose, notes: c.notes, movesMachinery: c.movesMachinery, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, presets: c.presets, sequence: c.sequence };
   return { ...lib, command, inheritedFrom };
 }

@@ -5,6 +5,8 @@ import { command, device, machine, port } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { cardCommand, cardPort, type CardCommand, type CardPort } from '../../field/card';
 import { liveDevice, liveMachine, liveSite } from './scope';
+import { referencedIds } from '../../composer/saved-sequence';
+import { stepCommands } from '../commands/sequences';
 
 type TeamRef = Pick<TeamContext, 'team'>;
 type DeviceRow = typeof device.$inferSelect;
@@ -48,6 +50,8 @@ async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: Devic
     )).orderBy(asc(command.name)),
     revisions(ctx.team.id, ids),
   ]);
+  // The commands sequences use as steps, also those in the trash (the card names the gap).
+  const steps = await stepCommands(db, ctx, cmds.flatMap((c) => referencedIds(c.sequence)));
   return devices.map((d) => {
     const own = cmds.filter((c) => c.deviceId === d.id);
     const names = new Set(own.map((c) => c.name.toLowerCase()));
@@ -56,7 +60,7 @@ async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: Devic
     return {
       device: { id: d.id, tag: d.tag, name: d.name, role: d.role, maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, version: d.version, machineId: d.machineId },
       ports: mine.map((p) => ({ ...cardPort(p, heading(d)), version: p.version })),
-      commands: [...own, ...inherited].map((c) => cardCommand(c, mine)),
+      commands: [...own, ...inherited].map((c) => cardCommand(c, mine, (id) => steps.get(id))),
       revision: revs.get(d.id) ?? { number: 0, date: null },
     };
   });

@@ -77,6 +77,8 @@ export async function exportDocument(ctx: TeamContext, opts: { siteId?: string }
       id: c.id, deviceId: c.deviceId, profileId: c.profileId, name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues as Record<string, string | number | null>,
       replyTemplate: c.replyTemplate ?? null, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery,
       presets: c.presets.map((p) => ({ name: p.name, values: p.values as Record<string, string | number | null> })),
+      // Steps refer to the exported commands by their ids in this document (the import maps them to the new ones).
+      ...(c.sequence ? { sequence: c.sequence as NonNullable<ExportDocument['commands'][number]['sequence']> } : {}),
     })),
   };
 }

@@ -51,6 +51,10 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
   const commands = fresh('commands', doc.commands).map(({ source: c, target }) => ({
     ...c, ...stamp, id: target, deviceId: c.deviceId ? ids.devices.get(c.deviceId)! : null, profileId: c.profileId ? ids.profiles.get(c.profileId)! : null,
   }));
+  // Every command has its new id by now, so a step may refer to a command later in the file.
+  for (const c of commands) {
+    if (c.sequence) c.sequence = { ...c.sequence, steps: c.sequence.steps.map((s) => (s.commandId ? { ...s, commandId: ids.commands.get(s.commandId)! } : s)) };
+  }
 
   await stage.add(site, sites);
   await stage.add(machine, machines);

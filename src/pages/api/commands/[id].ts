@@ -15,8 +15,11 @@ export const PATCH: APIRoute = route(async ({ locals, params, request }) => {
   return json(await updateCommand(ctx, params.id!, validate(commandUpdateSchema, await readJson(request))));
 });
 
-/** Moves the command to the trash, like vault records; `?version=` must then be current. */
+/**
+ * Moves the command to the trash, like vault records; `?version=` must then be current. A step of live
+ * sequences answers 409 with `usedBy` unless `?confirmUsed=true`.
+ */
 export const DELETE: APIRoute = route(async ({ locals, params, url }) => {
   const ctx = guard(locals, 'command:delete');
-  return json(await trashCommand(ctx, params.id!, versionParam(url)));
+  return json(await trashCommand(ctx, params.id!, versionParam(url), url.searchParams.get('confirmUsed') === 'true'));
 });

@@ -1,14 +1,15 @@
 import type { APIRoute } from 'astro';
-import { assembleSequence, sequenceSchema, toHex } from '../../../lib/frame';
+import { assembleSequence, decodeSequenceReply, sequenceSchema, toHex } from '../../../lib/frame';
+import { hexBytes } from '../../../lib/frame/schema-common';
 import { json, readJson, route, validate } from '../../../lib/server/http';
 
 /**
  * Public: assemble a sequence of commands (each a template with values) as one string or as separate
  * sends, with every notation of the whole string, each step's span and findings, the PLC string length
- * against a capacity, and the time on the line.
+ * against a capacity, and the time on the line; with `received`, the replies split per step.
  */
 export const POST: APIRoute = route(async ({ request }) => {
-  const { steps, settings, mode, delayMs, plcStringCapacity } = validate(sequenceSchema, await readJson(request, 64 * 1024));
+  const { steps, settings, mode, delayMs, plcStringCapacity, received } = validate(sequenceSchema, await readJson(request, 64 * 1024));
   const s = assembleSequence(steps, { settings, mode, delayMs, plcStringCapacity });
   return json({
     ok: s.ok,
@@ -20,5 +21,6 @@ export const POST: APIRoute = route(async ({ request }) => {
     steps: s.steps,
     findings: s.findings,
     timing: s.timing,
+    ...(received === undefined ? {} : { replies: decodeSequenceReply(steps.map((x) => x.reply ?? null), hexBytes(received)) }),
   });
 });

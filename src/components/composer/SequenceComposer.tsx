@@ -1,0 +1,202 @@
+/**
+ * Island for a saved sequence (/vault/{devices,profiles}/[id]/commands/[commandId] when the command is one, or
+ * `new?kind=sequence`): its steps from the library or inline, one string or separate sends, the preview of the
+ * whole string with each step's span, the replies per step, and saving. Its own island, so the single-command
+ * composer carries none of it.
+ */
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { lazy, Suspense, useMemo, useState } from 'react';
+import { api, ApiError, isStale } from '../../lib/client/api';
+import { commandKeys } from '../../lib/client/keys';
+import { assembleSaved, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
+import { defaultPortSettings } from '../../lib/frame/port-settings';
+import { templateSchema, type Template } from '../../lib/frame/template';
+import { QueryProvider } from '../QueryProvider';
+import { Caution } from '../ui/Caution';
+import { Section } from '../ui/Section';
+import { CommandDetails } from './CommandDetails';
+import { PortPicker } from './PortPicker';
+import { SaveWithFindings } from './SaveWithFindings';
+import { SequencePreview } from './SequencePreview';
+import { SequenceReplies } from './SequenceReplies';
+import { SequenceSteps, type KeyedStep } from './SequenceSteps';
+import type { LibraryCommand } from './sequence-types';
+import { draftOf, type CommandDraft, type NamedPort } from './types';
+
+export interface SequenceComposerProps {
+  command: CommandDraft & { id?: string; version?: number; sequence: SavedSequence | null };
+  ports: NamedPort[];
+  owner: { kind: 'device' | 'profile'; id: string; label: string };
+  basePath: string;
+  canEdit: boolean;
+  inheritedFrom?: { profileId: string; label: string };
+  plcStringCapacity?: number | null;
+}
+
+const EMPTY: Template = { version: 1, segments: [] };
+const History = lazy(() => import('./History'));
+type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
+// Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
+const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
+
+function useLibrary(owner: SequenceComposerProps['owner']) {
+  const param = owner.kind === 'device' ? 'deviceId' : 'profileId';
+  const live = useQuery({ queryKey: commandKeys.list(owner), queryFn: () => api<{ items: LibraryCommand[] }>(`/api/commands?${param}=${owner.id}`) });
+  const trashed = useQuery({ queryKey: commandKeys.list(owner, true), queryFn: () => api<{ items: LibraryCommand[] }>(`/api/commands?${param}=${owner.id}&trashed=true`) });
+  return { live: live.data?.items ?? null, trashed: trashed.data?.items ?? [], error: live.error };
+}
+
+function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStringCapacity = null }: SequenceComposerProps) {
+  const qc = useQueryClient();
+  const [saved, setSaved] = useState(command.id ? { id: command.id, version: command.version! } : null);
+  const [details, setDetails] = useState<Details>({ name: command.name, purpose: command.purpose, notes: command.notes, movesMachinery: command.movesMachinery, portName: command.portName });
+  const [steps, setSteps] = useState<KeyedStep[]>(() => keyed(command.sequence));
+  const [mode, setMode] = useState(command.sequence?.mode ?? 'one-string');
+  const [delayMs, setDelayMs] = useState(command.sequence?.delayMs ?? 0);
+  const [asking, setAsking] = useState(false);
+  const [showHistory, setShowHistory] = useState(false);
+  const [base, setBase] = useState(() => JSON.stringify({ details, seq: command.sequence }));
+  const readOnly = !canEdit || !!inheritedFrom;
+
+  const lib = useLibrary(owner);
+  // Single commands kept on this very device or profile: the ones a step may use.
+  const library = useMemo(() => (lib.live ?? []).filter((c) => !c.inherited && !c.sequence && c.id !== saved?.id), [lib.live, saved]);
+  const lookup = useMemo(() => {
+    const map = new Map<string, StepCommand>();
+    // Inherited ones too: a profile's sequence seen from one of its devices refers to the profile's commands.
+    for (const c of lib.live ?? []) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: false });
+    for (const c of lib.trashed) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: true });
+    return (id: string) => map.get(id);
+  }, [lib.live, lib.trashed]);
+
+  const sequence: SavedSequence = { mode, delayMs: mode === 'separate' ? delayMs : 0, steps: steps.map((s) => s.step) };
+  const port = ports.find((p) => p.name === details.portName) ?? ports[0];
+  const settings = port?.settings ?? defaultPortSettings;
+  // An inline step's template as its segment editor leaves it may not be whole yet: previewed empty until it is.
+  const problems = sequence.steps.flatMap((x, i) => (['template', 'replyTemplate'] as const).flatMap((k) => {
+    const t = x[k];
+    const r = t ? templateSchema.safeParse(t) : null;
+    return r && !r.success ? [`Step ${i + 1}${k === 'replyTemplate' ? ', expected reply' : ''}: ${r.error.issues[0]!.path.join('.')}: ${r.error.issues[0]!.message}`] : [];
+  }));
+  const parsed = (t: Template) => { const r = templateSchema.safeParse(t); return r.success ? r.data : null; };
+  const previewed: SavedSequence = { ...sequence, steps: sequence.steps.map((x) => ({
+    ...x,
+    ...(x.template ? { template: parsed(x.template) ?? EMPTY } : {}),
+    ...(x.replyTemplate ? { replyTemplate: parsed(x.replyTemplate) } : {}),
+  })) };
+  const s = useMemo(() => assembleSaved(previewed, lookup, { settings, ...(plcStringCapacity ? { plcStringCapacity } : {}) }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [JSON.stringify(previewed), lookup, settings, plcStringCapacity]);
+  const templates = previewed.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
+  const replies = previewed.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
+  const names = s.info.map((i) => i.name);
+  const moves = details.movesMachinery || sequence.steps.some((x) => x.commandId && (lib.live ?? []).find((c) => c.id === x.commandId)?.movesMachinery);
+  const errors = s.findings.filter((f) => f.severity === 'error');
+  const dirty = JSON.stringify({ details, seq: sequence }) !== base;
+  const valid = !!details.name.trim() && steps.length > 0 && problems.length === 0;
+
+  const save = useMutation({
+    mutationFn: async () => {
+      const body: Record<string, unknown> = { ...details, sequence };
+      if (!saved) return api<{ id: string; version: number }>('/api/commands', { body: { [owner.kind === 'device' ? 'deviceId' : 'profileId']: owner.id, template: EMPTY, ...body } });
+      // Only what changed since it was opened (or last saved), on the version it was opened at.
+      const was = JSON.parse(base) as { details: Record<string, unknown>; seq: unknown };
+      const before: Record<string, unknown> = { ...was.details, sequence: was.seq };
+      const changed = Object.fromEntries(Object.entries(body).filter(([k, v]) => JSON.stringify(v) !== JSON.stringify(before[k])));
+      return api<{ id: string; version: number }>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: saved.version, ...changed } });
+    },
+    onSuccess: (c) => {
+      setAsking(false);
+      qc.invalidateQueries({ queryKey: commandKeys.all() });
+      if (!saved) return location.assign(`${basePath}/${c.id}`);
+      setSaved({ id: c.id, version: c.version });
+      setBase(JSON.stringify({ details, seq: sequence }));
+    },
+  });
+  const err = save.error instanceof ApiError ? save.error : null;
+
+  return (
+    <div className="grid gap-4" data-testid="sequence-composer">
+      {inheritedFrom && <p className="notice notice-ok text-sm" data-testid="inherited">This sequence comes from the profile <b>{inheritedFrom.label}</b> and is shown read-only here.</p>}
+      {moves && <Caution lead="This sequence moves machinery." testId="machinery-caution" />}
+      <Section title="Sequence" id="details">
+        <CommandDetails draft={{ ...command, ...details }} onChange={(p) => setDetails((d) => ({ ...d, ...p }))} readOnly={readOnly} />
+      </Section>
+      <div className="grid gap-4 lg:grid-cols-2 items-start">
+        <div className="grid gap-4 min-w-0">
+          <Section title="Port" id="port">
+            <PortPicker ports={ports} value={details.portName} readOnly={readOnly} onChange={(portName) => setDetails((d) => ({ ...d, portName }))} />
+          </Section>
+          <Section title="How it is sent" id="send-mode">
+            <fieldset className="grid gap-2 text-sm" disabled={readOnly}>
+              <legend className="sr-only">How the steps are sent</legend>
+              <label className="flex items-center gap-2"><input type="radio" name="seq-mode" checked={mode === 'one-string'} onChange={() => setMode('one-string')} /> As one string (each step keeps its own terminator)</label>
+              <label className="flex items-center gap-2"><input type="radio" name="seq-mode" checked={mode === 'separate'} onChange={() => setMode('separate')} /> As separate sends, one per step</label>
+              {mode === 'separate' && (
+                <label className="flex flex-wrap items-center gap-2">Pause between sends
+                  <input type="number" min={0} max={60000} className="input !py-1 !w-24" value={delayMs} onChange={(e) => setDelayMs(Math.max(0, Number(e.target.value) || 0))} /> ms
+                </label>
+              )}
+            </fieldset>
+          </Section>
+          <Section title="Steps" id="steps">
+            {lib.error && <p className="notice notice-bad text-sm" role="alert">{lib.error.message}</p>}
+            {problems.map((p) => <p key={p} className="notice notice-bad text-sm mb-2" role="alert">{p}</p>)}
+            <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
+              rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
+          </Section>
+        </div>
+        <div className="grid gap-4 min-w-0">
+          <Section title="Preview" id="preview">
+            {lib.live ? <SequencePreview s={s} info={s.info} templates={templates} /> : <p className="text-sm">Loading the library…</p>}
+          </Section>
+        </div>
+      </div>
+      <Section title="Replies" id="reply">
+        <SequenceReplies replies={replies} names={names} />
+      </Section>
+      {!readOnly && (
+        <Section title="Save" id="save">
+          <div className="grid gap-2" data-testid="save-bar">
+            <div className="flex flex-wrap items-center gap-3">
+              <button type="button" className="btn" disabled={!valid || save.isPending || (!!saved && !dirty)}
+                onClick={() => (errors.length && !asking ? setAsking(true) : save.mutate())}>{saved ? 'Save changes' : 'Save sequence'}</button>
+              <span className="text-sm text-muted" role="status">
+                {save.isPending ? 'Saving…' : saved ? (dirty ? 'Unsaved changes' : `Saved · version ${saved.version}`) : 'Not saved yet'}
+              </span>
+            </div>
+            {!valid && <p className="text-sm text-bad">{problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'}</p>}
+            {asking && errors.length > 0 && <SaveWithFindings errors={errors} busy={save.isPending} onSave={() => save.mutate()} onCancel={() => setAsking(false)} />}
+            {err && (
+              <div className="notice notice-bad text-sm" role="alert">
+                <p>{isStale(err) ? 'Someone else saved this sequence meanwhile. Reload the page to see their version, then make your change again.' : err.message}</p>
+                {!isStale(err) && Object.entries(err.fields).map(([k, v]) => <p key={k} className="mono text-xs">{k}: {v}</p>)}
+              </div>
+            )}
+          </div>
+        </Section>
+      )}
+      {saved && (
+        <Section title="History" id="history-panel">
+          {showHistory ? (
+            <Suspense fallback={<p className="text-sm">Loading history…</p>}>
+              {/* A restored version replaces the steps wholesale: the page reloads to show it as saved. */}
+              <History key={saved.version} commandId={saved.id} canRestore={!readOnly} seen={{ version: saved.version, draft: draftOf({ ...command, ...details }) }}
+                onRestored={() => location.reload()} onKeep={() => location.reload()} />
+            </Suspense>
+          ) : (
+            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
+          )}
+        </Section>
+      )}
+    </div>
+  );
+}
+
+export default function SequenceComposer(props: SequenceComposerProps) {
+  return (
+    <QueryProvider>
+      <Inner {...props} />
+    </QueryProvider>
+  );
+}
