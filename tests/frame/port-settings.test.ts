@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { STANDARD_BAUD_RATES, defaultPortSettings, portSettingsSchema, portShorthand, type PortSettingsInput } from '~/lib/frame';
+import { STANDARD_BAUD_RATES, alignControlLines, defaultPortSettings, portSettingsSchema, portShorthand, type PortSettingsInput } from '~/lib/frame';
 
 test('defaults: 9600 8-N-1 on RS-232 without handshake', () => {
   // common practice port setting: 9600 baud, 8 data bits, no parity, 1 stop bit
@@ -63,5 +63,32 @@ describe('control lines and the older keys (docs/decisions/012)', () => {
     expect(portSettingsSchema.safeParse({ rtsLeadMs: 1000, rtsTailMs: 0.5 }).success).toBe(true);
     expect(portSettingsSchema.safeParse({ echo: 'yes' }).success).toBe(false);
     expect(portSettingsSchema.safeParse({ rtsMode: 'sometimes' }).error?.issues.map((i) => i.path.join('.'))).toEqual(['rtsMode']);
+  });
+});
+
+describe('the form keeps both sides in step (alignControlLines)', () => {
+  const start = { handshake: 'none', rs485Direction: 'none', rtsMode: 'off', ctsMode: 'ignore', dtrMode: 'off' } as const;
+  test('choosing a handshake sets the lines it means; leaving it clears them', () => {
+    const rtsCts = alignControlLines({ ...start, handshake: 'rts-cts' }, 'handshake');
+    expect(rtsCts).toEqual({ handshake: 'rts-cts', rs485Direction: 'none', rtsMode: 'flow', ctsMode: 'gate', dtrMode: 'off' });
+    expect(alignControlLines({ ...rtsCts, handshake: 'xon-xoff' }, 'handshake')).toEqual({ ...start, handshake: 'xon-xoff' });
+    expect(alignControlLines({ ...rtsCts, handshake: 'dtr-dsr' }, 'handshake')).toEqual({ ...start, handshake: 'dtr-dsr', dtrMode: 'flow' });
+    // RTS always on stays when the handshake changes to one that does not use RTS.
+    expect(alignControlLines({ ...start, rtsMode: 'on', handshake: 'xon-xoff' }, 'handshake')).toEqual({ ...start, rtsMode: 'on', handshake: 'xon-xoff' });
+    // RTS/CTS takes RTS from RS-485 direction control.
+    expect(alignControlLines({ ...start, rs485Direction: 'rts', rtsMode: 'transmit', handshake: 'rts-cts' }, 'handshake'))
+      .toEqual({ handshake: 'rts-cts', rs485Direction: 'none', rtsMode: 'flow', ctsMode: 'gate', dtrMode: 'off' });
+  });
+  test('RS-485 direction by RTS sets RTS on while sending; leaving it switches RTS off', () => {
+    const rts = alignControlLines({ ...start, rs485Direction: 'rts' }, 'rs485Direction');
+    expect(rts).toEqual({ ...start, rs485Direction: 'rts', rtsMode: 'transmit' });
+    expect(alignControlLines({ ...rts, rs485Direction: 'auto' }, 'rs485Direction')).toEqual({ ...start, rs485Direction: 'auto' });
+  });
+  test('a changed line gives the older keys it means', () => {
+    expect(alignControlLines({ ...start, rtsMode: 'transmit' }, 'rtsMode')).toEqual({ ...start, rtsMode: 'transmit', rs485Direction: 'rts' });
+    expect(alignControlLines({ ...start, rtsMode: 'flow', ctsMode: 'gate' }, 'ctsMode')).toEqual({ ...start, rtsMode: 'flow', ctsMode: 'gate', handshake: 'rts-cts' });
+    expect(alignControlLines({ ...start, handshake: 'rts-cts', rtsMode: 'flow', ctsMode: 'ignore' }, 'ctsMode')).toEqual({ ...start, rtsMode: 'flow' });
+    expect(alignControlLines({ ...start, handshake: 'xon-xoff', dtrMode: 'on' }, 'dtrMode')).toEqual({ ...start, handshake: 'xon-xoff', dtrMode: 'on' });
+    expect(alignControlLines({ ...start, rs485Direction: 'rts', rtsMode: 'on' }, 'rtsMode')).toEqual({ ...start, rtsMode: 'on' });
   });
 });

@@ -39,7 +39,7 @@ export {
   INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, RS485_DIRECTIONS, RTS_MODES, CTS_MODES, DTR_MODES, MAX_RTS_DELAY_MS, STANDARD_BAUD_RATES,
   type PortInterface, type Parity, type StopBits, type Handshake, type Protocol, type Rs485Direction, type RtsMode, type CtsMode, type DtrMode,
   lineSettingsSchema, type LineSettings, portSettingsSchema, portSettingsObjectSchema, withControlLines, fillControlLines,
-  linesFromOldKeys, oldKeysFromLines, controlLineDisagreements, type PortSettings, type PortSettingsInput, defaultPortSettings,
+  linesFromOldKeys, oldKeysFromLines, controlLineDisagreements, alignControlLines, type PortSettings, type PortSettingsInput, defaultPortSettings,
 } from './port-settings';
 export {
   PARITY_LETTERS, INTERFACE_LABELS, PARITY_LABELS, HANDSHAKE_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS,

@@ -204,3 +204,24 @@ export const defaultPortSettings: PortSettings = {
   protocol: 'ascii',
   frameRules: defaultFrameRules,
 };
+
+/**
+ * The five control-line keys after the user changed one of them in a form, the others moved to agree: choosing
+ * RTS/CTS handshaking sets RTS to flow control and CTS to gating (and drops RS-485 direction by RTS), leaving it
+ * clears them; DTR/DSR likewise with DTR; RS-485 direction by RTS sets RTS on while transmitting, leaving it
+ * switches RTS off; a changed line recomputes `handshake` and `rs485Direction` (`oldKeysFromLines`).
+ */
+export function alignControlLines(s: ControlKeys, changed: keyof ControlKeys): ControlKeys {
+  const next = { ...s };
+  if (changed === 'handshake') {
+    const rtsCts = next.rtsMode === 'flow' && next.ctsMode === 'gate';
+    if (s.handshake === 'rts-cts') Object.assign(next, { rtsMode: 'flow', ctsMode: 'gate' });
+    else if (rtsCts) Object.assign(next, { rtsMode: 'off', ctsMode: 'ignore' });
+    if (s.handshake === 'dtr-dsr') next.dtrMode = 'flow';
+    else if (s.handshake !== 'rts-cts' && next.dtrMode === 'flow') next.dtrMode = 'off';
+  } else if (changed === 'rs485Direction') {
+    if (s.rs485Direction === 'rts') next.rtsMode = 'transmit';
+    else if (next.rtsMode === 'transmit') next.rtsMode = 'off';
+  }
+  return { ...next, ...oldKeysFromLines(next, s) };
+}
