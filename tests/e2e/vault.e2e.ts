@@ -53,6 +53,7 @@ describe('vault in the browser', () => {
     await expect.poll(() => form.getByLabel('RTS', { exact: true }).inputValue()).toBe('transmit');
     await form.getByLabel('Direction control').selectOption('auto');
     await expect.poll(() => form.getByLabel('RTS', { exact: true }).inputValue()).toBe('off');
+    await shot(page, 'vault-port-form-desktop');
     await form.getByLabel('Termination on at this device').check();
     await form.getByLabel('Bias on at this device').check();
     await form.getByRole('button', { name: 'Add port' }).click();

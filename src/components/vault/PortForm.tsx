@@ -126,17 +126,17 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
         </fieldset>
       )}
       {iface !== 'tcp' && (
-        <fieldset className="grid gap-x-3 grid-cols-2 sm:grid-cols-3 items-end">
+        <fieldset className="grid gap-x-3 sm:grid-cols-3 items-start">
           <legend className="font-semibold text-sm mb-1">Control lines</legend>
           <Select reg={form.register} id={f('rts')} name="settings.rtsMode" label={CONTROL_LINE_LABELS.rtsMode} options={RTS_MODES.map((m) => [m, RTS_MODE_LABELS[m]])} onChange={align('rtsMode')} />
           <Select reg={form.register} id={f('cts')} name="settings.ctsMode" label={CONTROL_LINE_LABELS.ctsMode} options={CTS_MODES.map((m) => [m, CTS_MODE_LABELS[m]])} onChange={align('ctsMode')} />
           <Select reg={form.register} id={f('dtr')} name="settings.dtrMode" label={CONTROL_LINE_LABELS.dtrMode} options={DTR_MODES.map((m) => [m, DTR_MODE_LABELS[m]])} onChange={align('dtrMode')} />
-          {([['rtsLeadMs', `${CONTROL_LINE_LABELS.rtsLeadMs} (ms)`, 'RTS on this long before the first start bit'], ['rtsTailMs', `${CONTROL_LINE_LABELS.rtsTailMs} (ms)`, 'RTS held this long after the transmit buffer empties']] as const).map(([k, label, hint]) => (
+          {([['rtsLeadMs', `${CONTROL_LINE_LABELS.rtsLeadMs} (ms)`, 'Before the first start bit'], ['rtsTailMs', `${CONTROL_LINE_LABELS.rtsTailMs} (ms)`, 'After the transmit buffer empties']] as const).map(([k, label, hint]) => (
             <FormField key={k} id={f(k)} label={label} error={err(`settings.${k}`)} hint={hint}>
               <input id={f(k)} className="input mono" inputMode="decimal" {...form.register(`settings.${k}`, { setValueAs: (v) => (v === '' ? NaN : Number(v)) })} />
             </FormField>
           ))}
-          <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.echo')} /> Hears its own transmission (echo)</label>
+          <label className="flex items-center gap-2 mb-3 sm:mt-8"><input type="checkbox" {...form.register('settings.echo')} /> Hears its own transmission (echo)</label>
           {(err('settings.handshake') || err('settings.rs485Direction')) && <p className="field-error sm:col-span-3" role="alert">{err('settings.handshake') ?? err('settings.rs485Direction')}</p>}
         </fieldset>
       )}
