@@ -48,7 +48,12 @@ describe('vault in the browser', () => {
     await form.getByLabel('Electrical interface').selectOption('rs485-2w');
     await form.getByLabel('Baud rate').fill('19200');
     await form.getByLabel('Parity').selectOption('even');
+    // Direction by RTS and the RTS line move together; back to automatic switches RTS off again.
+    await form.getByLabel('Direction control').selectOption('rts');
+    await expect.poll(() => form.getByLabel('RTS', { exact: true }).inputValue()).toBe('transmit');
     await form.getByLabel('Direction control').selectOption('auto');
+    await expect.poll(() => form.getByLabel('RTS', { exact: true }).inputValue()).toBe('off');
+    await shot(page, 'vault-port-form-desktop');
     await form.getByLabel('Termination on at this device').check();
     await form.getByLabel('Bias on at this device').check();
     await form.getByRole('button', { name: 'Add port' }).click();

@@ -1,7 +1,7 @@
 /** A field card's port: shorthand, facts and copy text in the words of src/lib/frame/port-text.ts, written out by hand. */
 import { expect, it } from 'vitest';
 import { cardPort } from '~/lib/field/card';
-import { portSettingsSchema } from '~/lib/frame';
+import { portSettingsBlock, portSettingsSchema } from '~/lib/frame';
 
 it('an RS-485 port: line settings in words, termination and bias, and the full copy text', () => {
   const settings = portSettingsSchema.parse({
@@ -17,10 +17,20 @@ it('an RS-485 port: line settings in words, termination and bias, and the full c
     { label: 'Parity', value: 'Even' },
     { label: 'Stop bits', value: '1' },
     { label: 'Handshake', value: 'None' },
+    { label: 'RTS', value: 'Always off' },
+    { label: 'CTS', value: 'Not checked' },
+    { label: 'DTR', value: 'Always off' },
+    { label: 'Hears own transmission', value: 'no' },
     { label: 'Node address', value: '7' },
     { label: 'Termination', value: 'ON' },
     { label: 'Bias', value: 'off' },
+    { label: 'RS-485 direction', value: 'Automatic' },
     { label: 'Protocol', value: 'Modbus RTU' },
+    { label: 'Response timeout', value: '1000 ms' },
+    { label: 'Inter-character timeout', value: '0 ms' },
+    { label: 'Turnaround delay', value: '0 ms' },
+    { label: 'Retries', value: '0' },
+    { label: 'Frame rules', value: 'max 256 bytes' },
   ]);
   expect(card.copyText).toBe([
     'DRV-7 Filler drive — X3',
@@ -31,6 +41,10 @@ it('an RS-485 port: line settings in words, termination and bias, and the full c
     'Parity: Even',
     'Stop bits: 1',
     'Handshake: None',
+    'RTS: Always off',
+    'CTS: Not checked',
+    'DTR: Always off',
+    'Hears own transmission: no',
     'Protocol: Modbus RTU',
     'Node address: 7',
     'RS-485 direction control: Automatic',
@@ -55,6 +69,27 @@ it('a TCP port: the address as shorthand, no baud or framing', () => {
     { label: 'Node address', value: '—' },
     { label: 'Termination', value: 'n/a' },
     { label: 'Protocol', value: 'Modbus RTU' },
+    { label: 'Response timeout', value: '1000 ms' },
+    { label: 'Inter-character timeout', value: '0 ms' },
+    { label: 'Turnaround delay', value: '0 ms' },
+    { label: 'Retries', value: '0' },
   ]);
   expect(card.copyText.split('\n').slice(0, 5)).toEqual(['PLC-1 — Ethernet', 'Port: TCP 192.168.0.10:502', 'Interface: Serial over TCP', 'Baud rate: 19200', 'Data bits: 8']);
+});
+
+it('a PLC port with RTS on while sending: every control line, its lead and tail, and the copy is the vault text after the heading', () => {
+  const settings = portSettingsSchema.parse({ interface: 'rs232', rtsMode: 'transmit', rtsLeadMs: 2, rtsTailMs: 2, retries: 3, turnaroundDelayMs: 5 });
+  const card = cardPort({ id: 'p3', name: 'COM2', settings, wiring: [], notes: '' }, 'PLC-1');
+  expect(card.facts.slice(5, 12)).toEqual([
+    { label: 'Handshake', value: 'None' },
+    { label: 'RTS', value: 'On while sending' },
+    { label: 'CTS', value: 'Not checked' },
+    { label: 'DTR', value: 'Always off' },
+    { label: 'RTS lead', value: '2 ms' },
+    { label: 'RTS tail', value: '2 ms' },
+    { label: 'Hears own transmission', value: 'no' },
+  ]);
+  expect(card.facts.find((f) => f.label === 'Retries')).toEqual({ label: 'Retries', value: '3' });
+  expect(card.facts.find((f) => f.label === 'Turnaround delay')).toEqual({ label: 'Turnaround delay', value: '5 ms' });
+  expect(card.copyText).toBe(`PLC-1 — ${portSettingsBlock('COM2', settings, [])}`);
 });

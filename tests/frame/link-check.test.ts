@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { type LinkMember, type PortSettings, checkLink, defaultPortSettings } from '~/lib/frame';
+import { type LinkMember, type PortSettings, type PortSettingsInput, checkLink, defaultPortSettings, portSettingsSchema } from '~/lib/frame';
 
 const port = (p: Partial<PortSettings> = {}): PortSettings => ({ ...defaultPortSettings, ...p });
 const rs485 = (p: Partial<PortSettings> = {}) => port({ interface: 'rs485-2w', rs485Direction: 'auto', protocol: 'modbus-rtu', ...p });
@@ -91,5 +91,64 @@ describe('RS-485 bus rules', () => {
     expect(codes(checkLink(two, { kind: 'rs485-bus' }))).toEqual(['multiple-masters@drive']);
     expect(codes(checkLink(goodBus().map((m) => ({ ...m, role: 'slave' as const })), { kind: 'rs485-bus' }))).toContain('no-master');
     expect(codes(checkLink(goodBus(), { kind: 'point-to-point' }))).toContain('too-many-members');
+  });
+});
+
+describe('control lines', () => {
+  // Settings as the API stores them: the older keys and the control lines agree (portSettingsSchema fills both).
+  const line = (s: PortSettingsInput = {}) => portSettingsSchema.parse(s);
+  const p2p = (a: PortSettings, b: PortSettings) => checkLink([member('a', 'master', a), member('b', 'slave', b)], { kind: 'point-to-point' });
+
+  test('one end waits for CTS while the other never raises RTS', () => {
+    const r = p2p(line({ ctsMode: 'gate' }), line());
+    expect(codes(r)).toEqual(['cts-never-raised@a']);
+    expect(r.state).toBe('error');
+    expect(r.findings[0]!.message).toBe('A sends only while CTS is on, but B never raises RTS (RTS: Always off), so A waits to send. Set A\'s CTS to "Not checked", or B\'s RTS to flow control or always on.');
+    expect(p2p(line(), line({ ctsMode: 'gate' })).findings.map((f) => f.code + '@' + f.memberId)).toEqual(['cts-never-raised@b']);
+    expect(p2p(line({ ctsMode: 'gate' }), line({ rtsMode: 'transmit' })).findings[0]!.message).toContain('B raises RTS only while it is sending itself (RTS: On while sending)');
+    expect(codes(p2p(line({ ctsMode: 'gate' }), line({ rtsMode: 'on' })))).toEqual([]);
+    expect(codes(p2p(line({ ctsMode: 'gate' }), line({ rtsMode: 'flow' })))).toEqual([]);
+    // On RS-485 and RS-422 the control lines do not run in the cable.
+    expect(codes(p2p(line({ interface: 'rs422', ctsMode: 'gate' }), line({ interface: 'rs422' })))).toEqual([]);
+  });
+
+  test('hardware flow control on one end only', () => {
+    const r = p2p(line({ handshake: 'rts-cts' }), line());
+    expect(codes(r)).toEqual(['flow-one-end@b']);
+    expect(r.findings[0]!.message).toBe('A uses RTS/CTS hardware flow control but B does not; one end then waits for a line the other never raises. Set both ends the same.');
+    expect(p2p(line(), line({ rtsMode: 'flow', ctsMode: 'gate' })).findings[0]!.message).toMatch(/^B uses RTS\/CTS hardware flow control but A does not/);
+    expect(p2p(line(), line({ dtrMode: 'flow' })).findings.map((f) => [f.code, f.message.slice(0, 40)])).toEqual([['flow-one-end', 'B uses DTR/DSR hardware flow control but']]);
+    expect(codes(p2p(line({ handshake: 'rts-cts' }), line({ rtsMode: 'flow', ctsMode: 'gate' })))).toEqual([]);
+    // Software flow control on one end is still a handshake mismatch.
+    expect(codes(p2p(line({ handshake: 'xon-xoff' }), line()))).toEqual(['handshake-mismatch@b']);
+  });
+
+  test('2-wire RS-485: RTS on while sending or automatic direction counts as direction control', () => {
+    const bus = (s: PortSettingsInput) => {
+      const b = goodBus();
+      b[1]!.settings = line({ interface: 'rs485-2w', protocol: 'modbus-rtu', nodeAddress: 1, ...s });
+      return codes(checkLink(b, { kind: 'rs485-bus' }));
+    };
+    expect(bus({ rtsMode: 'transmit', rtsTailMs: 2 })).toEqual([]);
+    expect(bus({ rs485Direction: 'auto' })).toEqual([]);
+    expect(bus({})).toEqual(['no-direction-control@drive']);
+    expect(bus({ rtsMode: 'on' })).toEqual(['no-direction-control@drive']);
+  });
+
+  test('an RTS tail shorter than one character time at the port\'s baud', () => {
+    // Character time = bits per character ÷ baud (common practice): 8-N-1 is 10 bits, 1.0417 ms at 9600;
+    // 8-E-1 is 11 bits, 0.5729 ms at 19200; 7-E-2 is 11 bits, 1.1458 ms at 9600.
+    const tail = (s: PortSettingsInput) => checkLink([member('plc', 'master', line({ rtsMode: 'transmit', ...s }))], { kind: 'point-to-point' }).findings;
+    const short = tail({ rtsTailMs: 1 });
+    expect(short.map((f) => [f.severity, f.code, f.memberId])).toEqual([['warning', 'rts-tail-short', 'plc']]);
+    expect(short[0]!.message).toBe('PLC drops RTS 1 ms after its transmit buffer empties, but the last character takes 1.04 ms to leave the line (10 bits at 9600 bit/s); a converter switched by RTS may cut off its last stop bit. Set the RTS tail to at least 1.05 ms. (Assumes the tail counts from when the transmit buffer empties; if the port counts it from the end of the stop bit, this does not apply.)');
+    expect(tail({ rtsTailMs: 1.05 })).toEqual([]);
+    expect(tail({ rtsTailMs: 0 }).map((f) => f.code)).toEqual(['rts-tail-short']);
+    expect(tail({ baud: 19200, parity: 'even', rtsTailMs: 0.57 })[0]!.message).toContain('takes 0.57 ms to leave the line (11 bits at 19200 bit/s)');
+    expect(tail({ baud: 19200, parity: 'even', rtsTailMs: 0.58 })).toEqual([]);
+    expect(tail({ dataBits: 7, parity: 'even', stopBits: 2, rtsTailMs: 1.14 })[0]!.message).toContain('at least 1.15 ms');
+    expect(tail({ dataBits: 7, parity: 'even', stopBits: 2, rtsTailMs: 1.15 })).toEqual([]);
+    // No tail to speak of when RTS does not switch with sending.
+    expect(checkLink([member('plc', 'master', line({ rtsMode: 'on' }))], { kind: 'point-to-point' }).findings).toEqual([]);
   });
 });

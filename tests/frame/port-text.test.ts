@@ -56,6 +56,10 @@ describe('full settings text', () => {
       'Parity: Even',
       'Stop bits: 1',
       'Handshake: None',
+      'RTS: Always off',
+      'CTS: Not checked',
+      'DTR: Always off',
+      'Hears own transmission: no',
       'Protocol: Modbus RTU',
       'Node address: 5',
       'RS-485 direction control: Automatic',
@@ -78,6 +82,10 @@ describe('full settings text', () => {
       'Parity: None',
       'Stop bits: 1',
       'Handshake: None',
+      'RTS: Always off',
+      'CTS: Not checked',
+      'DTR: Always off',
+      'Hears own transmission: no',
       'Protocol: Modbus RTU',
       'Node address: 1',
       'Response timeout: 500 ms',
@@ -104,6 +112,26 @@ describe('full settings text', () => {
     for (const [value, words] of directions) expect(line({ interface: 'rs485-4w', rs485Direction: value }, 'RS-485 direction control')).toBe(`RS-485 direction control: ${words}`);
   });
 
+  test('control lines: RTS, CTS and DTR in words; lead and tail when RTS is on while sending; echo', () => {
+    const lines = (s: PortSettingsInput) => portSettingsText(port(s)).split('\n').filter((l) => /^(Handshake|RTS|CTS|DTR|Hears)/.test(l));
+    expect(lines({ interface: 'rs485-2w', rtsMode: 'transmit', rtsLeadMs: 2, rtsTailMs: 1.5, echo: true })).toEqual([
+      'Handshake: None',
+      'RTS: On while sending',
+      'CTS: Not checked',
+      'DTR: Always off',
+      'RTS lead: 2 ms',
+      'RTS tail: 1.5 ms',
+      'Hears own transmission: yes',
+    ]);
+    expect(lines({ handshake: 'rts-cts' })).toEqual([
+      'Handshake: RTS/CTS', 'RTS: Flow control (on while ready to receive)', 'CTS: Sends only while CTS is on', 'DTR: Always off', 'Hears own transmission: no',
+    ]);
+    expect(lines({ dtrMode: 'flow' })).toEqual(['Handshake: DTR/DSR', 'RTS: Always off', 'CTS: Not checked', 'DTR: Flow control (with DSR)', 'Hears own transmission: no']);
+    expect(lines({ rtsMode: 'on', dtrMode: 'on', ctsMode: 'gate' })).toEqual(['Handshake: None', 'RTS: Always on', 'CTS: Sends only while CTS is on', 'DTR: Always on', 'Hears own transmission: no']);
+    // A lead or tail left from RS-485 shows even when RTS no longer switches.
+    expect(lines({ rtsLeadMs: 3 })).toContain('RTS lead: 3 ms');
+  });
+
   test('the copy block: heading, settings, frame rules and wiring', () => {
     const s = port({
       interface: 'rs232', baud: 9600, dataBits: 7, parity: 'even', stopBits: 1, handshake: 'xon-xoff', protocol: 'ascii',
@@ -119,6 +147,10 @@ describe('full settings text', () => {
       'Parity: Even',
       'Stop bits: 1',
       'Handshake: XON/XOFF',
+      'RTS: Always off',
+      'CTS: Not checked',
+      'DTR: Always off',
+      'Hears own transmission: no',
       'Protocol: Delimited ASCII',
       'Response timeout: 1000 ms',
       'Inter-character timeout: 0 ms',
@@ -143,6 +175,10 @@ describe('full settings text', () => {
       'Parity: None',
       'Stop bits: 2',
       'Handshake: None',
+      'RTS: Always off',
+      'CTS: Not checked',
+      'DTR: Always off',
+      'Hears own transmission: no',
       'Protocol: Delimited ASCII',
       'Response timeout: 1000 ms',
       'Inter-character timeout: 0 ms',

@@ -36,7 +36,7 @@ describe('JSON export and import', () => {
   it('round-trips: export, import elsewhere, export again gives the same document apart from ids and times', async () => {
     const { site } = await siteTree(source.members.engineer);
     const first = expectOk(await source.members.engineer.get(`/api/export?siteId=${site.id}`));
-    expect(first).toMatchObject({ format: 'baudbook-export', version: 1, source: { scope: 'site' } });
+    expect(first).toMatchObject({ format: 'baudbook-export', version: 2, source: { scope: 'site' } });
     expect(first.devices).toHaveLength(2);
     expect(first.commands).toHaveLength(2);
     expect(first.links[0].members).toHaveLength(2);
@@ -75,7 +75,7 @@ describe('JSON export and import', () => {
     const base = expectOk(await source.members.owner.get('/api/export'));
     const bad = [
       { format: 'something-else', version: 1 },
-      { ...base, version: 2 },
+      { ...base, version: 3 },
       { ...base, devices: [{ ...base.devices[0], tag: '' }] },
       { ...base, ports: [...base.ports, { ...base.ports[0], id: 'port_dangling', deviceId: 'dev_missing', name: 'Extra' }] },
       { ...base, devices: [...base.devices, { ...base.devices[0] }] },

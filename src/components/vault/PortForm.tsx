@@ -1,4 +1,4 @@
-/** Edit or add one port: line settings, RS-485 options, timing, protocol, frame rules, wiring and notes. */
+/** Edit or add one port: line settings, control lines, RS-485 options, timing, protocol, frame rules, wiring and notes. */
 import { useState } from 'react';
 import { useFieldArray, useForm, type UseFormRegister } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -8,8 +8,12 @@ import { vaultKeys } from '../../lib/client/keys';
 import { changedFields, changedPaths, reapply, showValue } from '../../lib/client/conflict';
 import { useConflict } from '../../lib/client/use-conflict';
 import { portInputSchema, type PortInput } from '../../lib/schemas/vault';
-import { defaultPortSettings, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, RS485_DIRECTIONS, STANDARD_BAUD_RATES } from '../../lib/frame/port-settings';
-import { HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS } from '../../lib/frame/port-text';
+import {
+  alignControlLines, CTS_MODES, defaultPortSettings, DTR_MODES, HANDSHAKES, INTERFACES, PARITIES, PROTOCOLS, RS485_DIRECTIONS, RTS_MODES, STANDARD_BAUD_RATES,
+} from '../../lib/frame/port-settings';
+import {
+  CONTROL_LINE_LABELS, CTS_MODE_LABELS, DTR_MODE_LABELS, HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS, RTS_MODE_LABELS,
+} from '../../lib/frame/port-text';
 import { BYTE_SETS } from '../../lib/frame/frame-rules';
 import { FormField } from '../FormField';
 import { ConflictNotice } from '../ui/ConflictNotice';
@@ -50,6 +54,15 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
   const { errors, isDirty } = form.formState;
   useUnsavedGuard(isDirty);
   const iface = form.watch('settings.interface');
+  type ControlKey = 'handshake' | 'rs485Direction' | 'rtsMode' | 'ctsMode' | 'dtrMode';
+  // Handshake and RS-485 direction say some of what the control lines say; moving one moves the others to agree.
+  const align = (changed: ControlKey) => () => {
+    const now = form.getValues('settings');
+    const next = alignControlLines(now, changed);
+    for (const k of ['handshake', 'rs485Direction', 'rtsMode', 'ctsMode', 'dtrMode'] as const) {
+      if (next[k] !== now[k]) form.setValue(`settings.${k}`, next[k] as never, { shouldDirty: true });
+    }
+  };
 
   const save = useMutation({
     mutationFn: ({ value, changed, attempt }: { value: PortInput; changed: string[][]; attempt?: Attempt }) =>
@@ -92,7 +105,7 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
         <Select reg={form.register} id={f('dataBits')} name="settings.dataBits" label="Data bits" options={[5, 6, 7, 8].map((n) => [n, String(n)])} number />
         <Select reg={form.register} id={f('parity')} name="settings.parity" label="Parity" options={PARITIES.map((p) => [p, PARITY_LABELS[p]])} />
         <Select reg={form.register} id={f('stopBits')} name="settings.stopBits" label="Stop bits" options={[[1, '1'], [1.5, '1.5'], [2, '2']]} number />
-        <Select reg={form.register} id={f('handshake')} name="settings.handshake" label="Handshaking" options={HANDSHAKES.map((h) => [h, HANDSHAKE_LABELS[h]])} />
+        <Select reg={form.register} id={f('handshake')} name="settings.handshake" label="Handshaking" options={HANDSHAKES.map((h) => [h, HANDSHAKE_LABELS[h]])} onChange={align('handshake')} />
         <Select reg={form.register} id={f('protocol')} name="settings.protocol" label="Protocol" options={PROTOCOLS.map((p) => [p, PROTOCOL_LABELS[p]])} />
         <FormField id={f('addr')} label="Node address" error={err('settings.nodeAddress')} hint="Blank when the protocol has none">
           <input id={f('addr')} className="input mono" inputMode="numeric" {...form.register('settings.nodeAddress', { setValueAs: nullNumber })} />
@@ -107,9 +120,24 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
       {iface?.startsWith('rs485') && (
         <fieldset className="grid gap-x-3 sm:grid-cols-3 items-end">
           <legend className="font-semibold text-sm mb-1">RS-485</legend>
-          <Select reg={form.register} id={f('dir')} name="settings.rs485Direction" label="Direction control" options={RS485_DIRECTIONS.map((d) => [d, RS485_DIRECTION_LABELS[d]])} />
+          <Select reg={form.register} id={f('dir')} name="settings.rs485Direction" label="Direction control" options={RS485_DIRECTIONS.map((d) => [d, RS485_DIRECTION_LABELS[d]])} onChange={align('rs485Direction')} />
           <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.termination')} /> Termination on at this device</label>
           <label className="flex items-center gap-2 mb-3"><input type="checkbox" {...form.register('settings.bias')} /> Bias on at this device</label>
+        </fieldset>
+      )}
+      {iface !== 'tcp' && (
+        <fieldset className="grid gap-x-3 sm:grid-cols-3 items-start">
+          <legend className="font-semibold text-sm mb-1">Control lines</legend>
+          <Select reg={form.register} id={f('rts')} name="settings.rtsMode" label={CONTROL_LINE_LABELS.rtsMode} options={RTS_MODES.map((m) => [m, RTS_MODE_LABELS[m]])} onChange={align('rtsMode')} />
+          <Select reg={form.register} id={f('cts')} name="settings.ctsMode" label={CONTROL_LINE_LABELS.ctsMode} options={CTS_MODES.map((m) => [m, CTS_MODE_LABELS[m]])} onChange={align('ctsMode')} />
+          <Select reg={form.register} id={f('dtr')} name="settings.dtrMode" label={CONTROL_LINE_LABELS.dtrMode} options={DTR_MODES.map((m) => [m, DTR_MODE_LABELS[m]])} onChange={align('dtrMode')} />
+          {([['rtsLeadMs', `${CONTROL_LINE_LABELS.rtsLeadMs} (ms)`, 'Before the first start bit'], ['rtsTailMs', `${CONTROL_LINE_LABELS.rtsTailMs} (ms)`, 'After the transmit buffer empties']] as const).map(([k, label, hint]) => (
+            <FormField key={k} id={f(k)} label={label} error={err(`settings.${k}`)} hint={hint}>
+              <input id={f(k)} className="input mono" inputMode="decimal" {...form.register(`settings.${k}`, { setValueAs: (v) => (v === '' ? NaN : Number(v)) })} />
+            </FormField>
+          ))}
+          <label className="flex items-center gap-2 mb-3 sm:mt-8"><input type="checkbox" {...form.register('settings.echo')} /> Hears its own transmission (echo)</label>
+          {(err('settings.handshake') || err('settings.rs485Direction')) && <p className="field-error sm:col-span-3" role="alert">{err('settings.handshake') ?? err('settings.rs485Direction')}</p>}
         </fieldset>
       )}
       <fieldset className="grid gap-x-3 grid-cols-2 sm:grid-cols-4">
@@ -157,10 +185,12 @@ export function PortForm({ port, deviceId, onSave, onDone }: Props) {
   );
 }
 
-function Select({ reg, id, name, label, options, number }: { reg: UseFormRegister<PortInput>; id: string; name: string; label: string; options: readonly (readonly [string | number, string])[]; number?: boolean }) {
+function Select({ reg, id, name, label, options, number, onChange }: {
+  reg: UseFormRegister<PortInput>; id: string; name: string; label: string; options: readonly (readonly [string | number, string])[]; number?: boolean; onChange?(): void;
+}) {
   return (
     <FormField id={id} label={label}>
-      <select id={id} className="input" {...reg(name as never, number ? { setValueAs: (v) => Number(v) } : {})}>
+      <select id={id} className="input" {...reg(name as never, { ...(number ? { setValueAs: (v: unknown) => Number(v) } : {}), ...(onChange ? { onChange } : {}) })}>
         {options.map(([v, l]) => <option key={String(v)} value={v}>{l}</option>)}
       </select>
     </FormField>

@@ -1,7 +1,9 @@
 /** The words for a port's parts and values, shared by the port form and the conflict notice of ports. */
 import type { PortInput } from '../../lib/schemas/vault';
 import { fieldLabel } from './shared';
-import { HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS } from '../../lib/frame/port-text';
+import {
+  CONTROL_LINE_LABELS, CTS_MODE_LABELS, DTR_MODE_LABELS, HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS, RTS_MODE_LABELS,
+} from '../../lib/frame/port-text';
 
 /** The port settings' words come from the one port-text module; the frame-rule choices are the form's own. */
 export const LABELS = {
@@ -28,6 +30,12 @@ const PART_LABELS: Record<string, string> = {
   'settings.tcpHost': 'TCP host',
   'settings.tcpPort': 'TCP port',
   'settings.rs485Direction': 'Direction control',
+  'settings.rtsMode': CONTROL_LINE_LABELS.rtsMode,
+  'settings.ctsMode': CONTROL_LINE_LABELS.ctsMode,
+  'settings.dtrMode': CONTROL_LINE_LABELS.dtrMode,
+  'settings.rtsLeadMs': `${CONTROL_LINE_LABELS.rtsLeadMs} (ms)`,
+  'settings.rtsTailMs': `${CONTROL_LINE_LABELS.rtsTailMs} (ms)`,
+  'settings.echo': CONTROL_LINE_LABELS.echo,
   'settings.termination': 'Termination',
   'settings.bias': 'Bias',
   'settings.responseTimeoutMs': 'Response timeout (ms)',
@@ -50,6 +58,9 @@ const VALUE_LABELS: Record<string, Record<string, string>> = {
   'settings.handshake': LABELS.handshake,
   'settings.protocol': LABELS.protocol,
   'settings.rs485Direction': LABELS.direction,
+  'settings.rtsMode': RTS_MODE_LABELS,
+  'settings.ctsMode': CTS_MODE_LABELS,
+  'settings.dtrMode': DTR_MODE_LABELS,
   'settings.frameRules.byteSet': LABELS.byteSet,
   'settings.frameRules.letterCase': LABELS.letterCase,
 };

@@ -1,6 +1,7 @@
 /** The content of a field card, built from vault records: what a technician reads at the cabinet. */
 import {
-  HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, portSettingsBlock, portShorthand,
+  HANDSHAKE_LABELS, INTERFACE_LABELS, PARITY_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS, controlLineFacts, frameRulesText,
+  portSettingsBlock, portShorthand,
   type PortSettings, type Template, type FieldValues,
 } from '../frame';
 import { renderCommandVariants, timingPort, type CommandPreset, type CommandRendering } from '../composer/presets';
@@ -64,12 +65,19 @@ export function cardPort(p: CardPortInput, heading: string): CardPort {
       { label: 'Parity', value: PARITY_LABELS[s.parity] },
       { label: 'Stop bits', value: String(s.stopBits) },
       { label: 'Handshake', value: HANDSHAKE_LABELS[s.handshake] },
+      ...controlLineFacts(s),
     ]),
     { label: 'Node address', value: s.nodeAddress === null ? '—' : String(s.nodeAddress) },
     { label: 'Termination', value: rs485 ? (s.termination ? 'ON' : 'off') : 'n/a' },
-    ...(rs485 ? [{ label: 'Bias', value: s.bias ? 'ON' : 'off' }] : []),
+    ...(rs485 ? [{ label: 'Bias', value: s.bias ? 'ON' : 'off' }, { label: 'RS-485 direction', value: RS485_DIRECTION_LABELS[s.rs485Direction] }] : []),
     { label: 'Protocol', value: PROTOCOL_LABELS[s.protocol] },
+    { label: 'Response timeout', value: `${s.responseTimeoutMs} ms` },
+    { label: 'Inter-character timeout', value: `${s.interCharTimeoutMs} ms` },
+    { label: 'Turnaround delay', value: `${s.turnaroundDelayMs} ms` },
+    { label: 'Retries', value: String(s.retries) },
+    ...(frameRulesText(s.frameRules) ? [{ label: 'Frame rules', value: frameRulesText(s.frameRules) }] : []),
   ];
+  // The vault's copy (the same function), with the device named in front.
   const copyText = portSettingsBlock(p.name, s, p.wiring, heading);
   return { id: p.id, name: p.name, shorthand: portShorthand(s), facts, wiring: p.wiring, notes: p.notes, copyText };
 }

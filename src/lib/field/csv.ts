@@ -42,6 +42,12 @@ export const CSV_FIELDS = [
   { key: 'parity', label: 'Parity', hints: ['parity'] },
   { key: 'stopBits', label: 'Stop bits', hints: ['stop bits', 'stopbits'] },
   { key: 'handshake', label: 'Handshake', hints: ['handshake', 'flow control'] },
+  { key: 'rtsMode', label: 'RTS', hints: ['rtsmode', 'rts mode', 'rts'] },
+  { key: 'ctsMode', label: 'CTS', hints: ['ctsmode', 'cts mode', 'cts'] },
+  { key: 'dtrMode', label: 'DTR', hints: ['dtrmode', 'dtr mode', 'dtr'] },
+  { key: 'rtsLeadMs', label: 'RTS lead (ms)', hints: ['rtsleadms', 'rts lead', 'rts lead ms'] },
+  { key: 'rtsTailMs', label: 'RTS tail (ms)', hints: ['rtstailms', 'rts tail', 'rts tail ms'] },
+  { key: 'echo', label: 'Hears own transmission (echo)', hints: ['echo'] },
   { key: 'nodeAddress', label: 'Node address', hints: ['address', 'node address', 'node', 'slave id', 'unit id'] },
   { key: 'termination', label: 'Termination', hints: ['termination', 'terminator'] },
   { key: 'protocol', label: 'Protocol', hints: ['protocol'] },
@@ -63,6 +69,10 @@ export function guessMapping(headers: string[]): CsvMapping {
 const PARITY: Record<string, string> = { n: 'none', none: 'none', e: 'even', even: 'even', o: 'odd', odd: 'odd', m: 'mark', mark: 'mark', s: 'space', space: 'space' };
 const IFACE: Record<string, string> = { rs232: 'rs232', rs422: 'rs422', rs485: 'rs485-2w', rs4852w: 'rs485-2w', rs4852wire: 'rs485-2w', rs4854w: 'rs485-4w', rs4854wire: 'rs485-4w', ttl: 'ttl', usb: 'usb-vcp', usbvcp: 'usb-vcp', usbcom: 'usb-vcp', tcp: 'tcp' };
 const HANDSHAKE: Record<string, string> = { none: 'none', rtscts: 'rts-cts', hardware: 'rts-cts', xonxoff: 'xon-xoff', software: 'xon-xoff', dtrdsr: 'dtr-dsr' };
+// The stored values, and the words the settings text writes them in (port-text.ts), squashed.
+const RTS_MODE: Record<string, string> = { off: 'off', on: 'on', transmit: 'transmit', flow: 'flow', alwaysoff: 'off', alwayson: 'on', onwhilesending: 'transmit', flowcontrol: 'flow' };
+const CTS_MODE: Record<string, string> = { ignore: 'ignore', gate: 'gate', notchecked: 'ignore' };
+const DTR_MODE: Record<string, string> = { off: 'off', on: 'on', flow: 'flow', alwaysoff: 'off', alwayson: 'on', flowcontrol: 'flow' };
 const PROTOCOL: Record<string, string> = { ascii: 'ascii', modbusrtu: 'modbus-rtu', rtu: 'modbus-rtu', modbusascii: 'modbus-ascii', other: 'other' };
 const BOOL: Record<string, boolean> = { yes: true, y: true, on: true, true: true, '1': true, no: false, n: false, off: false, false: false, '0': false };
 const squash = (s: string) => s.toLowerCase().replace(/[\s_/.-]+/g, '');
@@ -106,6 +116,7 @@ export function readCsvRow(row: Record<string, string | undefined>, mapping: Csv
     else settings[k] = n;
   };
   pick('interface', IFACE); num('baud'); num('dataBits'); pick('parity', PARITY); num('stopBits'); pick('handshake', HANDSHAKE);
+  pick('rtsMode', RTS_MODE); pick('ctsMode', CTS_MODE); pick('dtrMode', DTR_MODE); num('rtsLeadMs'); num('rtsTailMs'); pick('echo', BOOL);
   num('nodeAddress'); pick('termination', BOOL); pick('protocol', PROTOCOL);
   const portName = cell('portName') || (Object.keys(settings).length ? 'Port 1' : '');
   let port: CsvRowResult['port'] = null;

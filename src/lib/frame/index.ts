@@ -36,12 +36,14 @@ export { FINDING_CODES, type Finding, type FindingCode, type Severity, isClean, 
 export { BYTE_SETS, type ByteSet, frameRulesSchema, type FrameRules, type FrameRulesInput, defaultFrameRules } from './frame-rules';
 
 export {
-  INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, RS485_DIRECTIONS, STANDARD_BAUD_RATES, type PortInterface, type Parity, type StopBits,
-  type Handshake, type Protocol, type Rs485Direction,
-  lineSettingsSchema, type LineSettings, portSettingsSchema, type PortSettings, type PortSettingsInput, defaultPortSettings,
+  INTERFACES, PARITIES, HANDSHAKES, PROTOCOLS, RS485_DIRECTIONS, RTS_MODES, CTS_MODES, DTR_MODES, MAX_RTS_DELAY_MS, STANDARD_BAUD_RATES,
+  type PortInterface, type Parity, type StopBits, type Handshake, type Protocol, type Rs485Direction, type RtsMode, type CtsMode, type DtrMode,
+  lineSettingsSchema, type LineSettings, portSettingsSchema, portSettingsObjectSchema, withControlLines, fillControlLines,
+  linesFromOldKeys, oldKeysFromLines, controlLineDisagreements, alignControlLines, type PortSettings, type PortSettingsInput, defaultPortSettings,
 } from './port-settings';
 export {
   PARITY_LETTERS, INTERFACE_LABELS, PARITY_LABELS, HANDSHAKE_LABELS, PROTOCOL_LABELS, RS485_DIRECTION_LABELS,
+  RTS_MODE_LABELS, CTS_MODE_LABELS, DTR_MODE_LABELS, CONTROL_LINE_LABELS, controlLineFacts,
   SHORTHAND_PIECES, type ShorthandPiece, type ShorthandSettings, type WiringRow,
   lineShorthand, portShorthand, portSettingsText, frameRulesText, portSettingsBlock,
 } from './port-text';

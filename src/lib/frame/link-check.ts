@@ -1,7 +1,8 @@
 /** Checks that the devices sharing one serial link agree and that an RS-485 bus is built correctly. */
 import { overallState, type Severity } from './findings';
 import type { PortInterface, PortSettings } from './port-settings';
-import { lineShorthand } from './port-text';
+import { CTS_MODE_LABELS, RTS_MODE_LABELS, lineShorthand } from './port-text';
+import { bitsPerChar, charTimeMs } from './timing';
 
 export interface LinkMember {
   id: string;
@@ -23,7 +24,7 @@ export const LINK_CODES = [
   'baud-mismatch', 'data-bits-mismatch', 'parity-mismatch', 'stop-bits-mismatch', 'handshake-mismatch', 'protocol-mismatch',
   'interface-mismatch', 'address-missing', 'address-duplicate', 'address-out-of-range', 'no-direction-control',
   'termination-missing', 'termination-in-middle', 'termination-count', 'bias-missing', 'too-many-unit-loads',
-  'cable-too-long', 'multiple-masters', 'no-master', 'too-many-members',
+  'cable-too-long', 'multiple-masters', 'no-master', 'too-many-members', 'flow-one-end', 'cts-never-raised', 'rts-tail-short',
 ] as const;
 export type LinkCode = (typeof LINK_CODES)[number];
 
@@ -52,6 +53,14 @@ function family(i: PortInterface): Family | undefined {
   if (i === 'rs485-2w') return 'diff-2w';
   return undefined; // a USB or TCP port: the line side is the converter's, not known here
 }
+/** RTS/CTS hardware flow control: RTS says "ready to receive" and sending waits for CTS. */
+const rtsCtsFlow = (s: PortSettings) => s.rtsMode === 'flow' && s.ctsMode === 'gate';
+const dtrFlow = (s: PortSettings) => s.dtrMode === 'flow';
+/** Interfaces whose control lines run in the cable from one end to the other. */
+const hasLinesInCable = (i: PortInterface) => i === 'rs232' || i === 'ttl';
+/** Whether a 2-wire RS-485 transmitter is switched off after sending: by RTS, or by the port itself. */
+export const hasDirectionControl = (s: PortSettings) => s.rtsMode === 'transmit' || s.rs485Direction === 'auto';
+
 const FAMILY_TEXT: Record<Family, string> = { rs232: 'RS-232', ttl: 'TTL serial', 'diff-4w': 'RS-422 / 4-wire RS-485', 'diff-2w': '2-wire RS-485' };
 
 export function checkLink(members: readonly LinkMember[], link: Link): LinkReport {
@@ -75,7 +84,13 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
       if (s.dataBits !== r.dataBits) add('error', 'data-bits-mismatch', fix('data bits', r.dataBits), m.id);
       if (s.parity !== r.parity) add('error', 'parity-mismatch', fix('parity', r.parity), m.id);
       if (s.stopBits !== r.stopBits) add('error', 'stop-bits-mismatch', fix('stop bits', r.stopBits), m.id);
-      if (s.handshake !== r.handshake) add('error', 'handshake-mismatch', fix('handshaking', r.handshake), m.id);
+      const flowOneEnd = rtsCtsFlow(s) !== rtsCtsFlow(r) || dtrFlow(s) !== dtrFlow(r);
+      if (flowOneEnd) {
+        const rtsDiffers = rtsCtsFlow(s) !== rtsCtsFlow(r);
+        const [on, off] = (rtsDiffers ? rtsCtsFlow(s) : dtrFlow(s)) ? [m, ref] : [ref, m];
+        const kind = rtsDiffers ? 'RTS/CTS' : 'DTR/DSR';
+        add('error', 'flow-one-end', `${on.label} uses ${kind} hardware flow control but ${off.label} does not; one end then waits for a line the other never raises. Set both ends the same.`, m.id);
+      } else if (s.handshake !== r.handshake) add('error', 'handshake-mismatch', fix('handshaking', r.handshake), m.id);
       if (s.protocol !== r.protocol) add('error', 'protocol-mismatch', fix('the protocol', r.protocol), m.id);
       const a = family(r.interface);
       const b = family(s.interface);
@@ -113,9 +128,29 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
     }
   }
 
+  if (!bus && members.length === 2) {
+    const [a, b] = members as [LinkMember, LinkMember];
+    const flowOneEnd = rtsCtsFlow(a.settings) !== rtsCtsFlow(b.settings);
+    for (const [x, y] of [[a, b], [b, a]] as const) {
+      const rts = y.settings.rtsMode;
+      if (flowOneEnd || !hasLinesInCable(x.settings.interface) || !hasLinesInCable(y.settings.interface)) continue;
+      if (x.settings.ctsMode === 'gate' && rts !== 'on' && rts !== 'flow') {
+        const why = rts === 'transmit' ? 'raises RTS only while it is sending itself' : 'never raises RTS';
+        add('error', 'cts-never-raised', `${x.label} sends only while CTS is on, but ${y.label} ${why} (RTS: ${RTS_MODE_LABELS[rts]}), so ${x.label} waits to send. Set ${x.label}'s CTS to "${CTS_MODE_LABELS.ignore}", or ${y.label}'s RTS to flow control or always on.`, x.id);
+      }
+    }
+  }
+
   for (const m of members) {
-    if (m.settings.interface === 'rs485-2w' && m.settings.rs485Direction === 'none') {
-      add('error', 'no-direction-control', `${m.label} is on 2-wire RS-485 with no direction control; set RS-485 direction to automatic or RTS so its transmitter turns off after sending.`, m.id);
+    const s = m.settings;
+    if (s.interface === 'rs485-2w' && !hasDirectionControl(s)) {
+      add('error', 'no-direction-control', `${m.label} is on 2-wire RS-485 with no direction control and no automatic direction switching; set its RTS to on while sending (or RS-485 direction to automatic, or fit a converter that switches by itself) so its transmitter turns off after sending.`, m.id);
+    }
+    if (s.rtsMode === 'transmit' && s.interface !== 'tcp') {
+      const charMs = charTimeMs(s);
+      if (s.rtsTailMs < charMs) {
+        add('warning', 'rts-tail-short', `${m.label} drops RTS ${s.rtsTailMs} ms after its transmit buffer empties, but the last character takes ${charMs.toFixed(2)} ms to leave the line (${bitsPerChar(s)} bits at ${s.baud} bit/s); a converter switched by RTS may cut off its last stop bit. Set the RTS tail to at least ${Math.ceil(charMs * 100) / 100} ms. (Assumes the tail counts from when the transmit buffer empties; if the port counts it from the end of the stop bit, this does not apply.)`, m.id);
+      }
     }
   }
 

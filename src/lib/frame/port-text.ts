@@ -5,7 +5,7 @@
  * (which builds its shorthand from `SHORTHAND_PIECES`) all write a port this way.
  */
 import type { FrameRules } from './frame-rules';
-import type { Handshake, LineSettings, Parity, PortInterface, PortSettings, Protocol, Rs485Direction } from './port-settings';
+import type { CtsMode, DtrMode, Handshake, LineSettings, Parity, PortInterface, PortSettings, Protocol, Rs485Direction, RtsMode } from './port-settings';
 
 /** Parity letters of the shorthand (common practice: N E O M S). */
 export const PARITY_LETTERS: Record<Parity, string> = { none: 'N', even: 'E', odd: 'O', mark: 'M', space: 'S' };
@@ -18,6 +18,32 @@ export const PARITY_LABELS: Record<Parity, string> = { none: 'None', even: 'Even
 export const HANDSHAKE_LABELS: Record<Handshake, string> = { none: 'None', 'rts-cts': 'RTS/CTS', 'xon-xoff': 'XON/XOFF', 'dtr-dsr': 'DTR/DSR' };
 export const PROTOCOL_LABELS: Record<Protocol, string> = { ascii: 'Delimited ASCII', 'modbus-rtu': 'Modbus RTU', 'modbus-ascii': 'Modbus ASCII', other: 'Other' };
 export const RS485_DIRECTION_LABELS: Record<Rs485Direction, string> = { none: 'None', rts: 'RTS high while transmitting', auto: 'Automatic' };
+export const RTS_MODE_LABELS: Record<RtsMode, string> = { off: 'Always off', on: 'Always on', transmit: 'On while sending', flow: 'Flow control (on while ready to receive)' };
+export const CTS_MODE_LABELS: Record<CtsMode, string> = { ignore: 'Not checked', gate: 'Sends only while CTS is on' };
+export const DTR_MODE_LABELS: Record<DtrMode, string> = { off: 'Always off', on: 'Always on', flow: 'Flow control (with DSR)' };
+
+/** The names of the control-line settings, as the text, the form and the card write them. */
+export const CONTROL_LINE_LABELS = {
+  rtsMode: 'RTS', ctsMode: 'CTS', dtrMode: 'DTR', rtsLeadMs: 'RTS lead', rtsTailMs: 'RTS tail', echo: 'Hears own transmission',
+} as const;
+
+/**
+ * The control lines in words, label and value: RTS, CTS and DTR always; the RTS lead and tail when RTS is on
+ * while sending (or they are set); whether the port hears its own transmission.
+ */
+export function controlLineFacts(s: PortSettings): { label: string; value: string }[] {
+  const L = CONTROL_LINE_LABELS;
+  const facts: { label: string; value: string }[] = [
+    { label: L.rtsMode, value: RTS_MODE_LABELS[s.rtsMode] },
+    { label: L.ctsMode, value: CTS_MODE_LABELS[s.ctsMode] },
+    { label: L.dtrMode, value: DTR_MODE_LABELS[s.dtrMode] },
+  ];
+  if (s.rtsMode === 'transmit' || s.rtsLeadMs || s.rtsTailMs) {
+    facts.push({ label: L.rtsLeadMs, value: `${s.rtsLeadMs} ms` }, { label: L.rtsTailMs, value: `${s.rtsTailMs} ms` });
+  }
+  facts.push({ label: L.echo, value: s.echo ? 'yes' : 'no' });
+  return facts;
+}
 
 /** What a port's shorthand is written from: the line settings, and the interface with its TCP address. */
 export type ShorthandSettings = LineSettings & Pick<PortSettings, 'interface'> & Partial<Pick<PortSettings, 'tcpHost' | 'tcpPort'>>;
@@ -81,6 +107,7 @@ export function portSettingsText(s: PortSettings): string {
     `Parity: ${PARITY_LABELS[s.parity]}`,
     `Stop bits: ${s.stopBits}`,
     `Handshake: ${HANDSHAKE_LABELS[s.handshake]}`,
+    ...controlLineFacts(s).map((f) => `${f.label}: ${f.value}`),
     `Protocol: ${PROTOCOL_LABELS[s.protocol]}`,
   ];
   if (s.nodeAddress !== null) lines.push(`Node address: ${s.nodeAddress}`);

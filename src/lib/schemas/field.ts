@@ -71,12 +71,18 @@ export const cardEmailSchema = z.strictObject({ deviceId: id, to: emailSchema, m
 
 // ---- export / import ----
 export const EXPORT_FORMAT = 'baudbook-export';
-export const EXPORT_VERSION = 1;
+/**
+ * The version exports are written in. 2 added the ports' control lines (docs/decisions/013); a version-1 document
+ * still imports, its control lines derived from handshake and RS-485 direction.
+ */
+export const EXPORT_VERSION = 2;
+export const EXPORT_VERSIONS_READ = [1, 2] as const;
+export const EXPORT_VERSIONS_TEXT = 'versions 1 and 2';
 const recordId = z.string().min(1).max(64);
 
 export const exportDocumentSchema = z.strictObject({
   format: z.literal(EXPORT_FORMAT, { error: `format must be "${EXPORT_FORMAT}".` }),
-  version: z.literal(EXPORT_VERSION, { error: `This server reads version ${EXPORT_VERSION} documents.` }),
+  version: z.union(EXPORT_VERSIONS_READ.map((v) => z.literal(v)), { error: `This server reads ${EXPORT_VERSIONS_TEXT} documents.` }),
   exportedAt: z.iso.datetime({ offset: true, error: 'Not a real time; exports write one like 2026-05-01T08:00:00.000Z.' }),
   source: z.strictObject({ team: text(200), scope: z.enum(['team', 'site']), siteId: recordId.nullable() }),
   sites: z.array(z.strictObject({ id: recordId, name: text(120).min(1), customer: text(120), address: text(300), notes: text(5000) })).max(5000),

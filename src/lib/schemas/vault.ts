@@ -1,6 +1,6 @@
 /** Request schemas for the settings vault, shared by the forms (islands) and the API routes. */
 import { z } from 'zod';
-import { portSettingsSchema, defaultPortSettings } from '../frame/port-settings';
+import { portSettingsObjectSchema, defaultPortSettings, withControlLines } from '../frame/port-settings';
 import { frameRulesSchema, defaultFrameRules } from '../frame/frame-rules';
 
 // Duplicated from the DB schema module so the browser bundle does not pull in drizzle.
@@ -19,10 +19,13 @@ const id = z.string().min(1, 'Choose a record.').max(64);
 /** The version the edit was based on (from the record as loaded). */
 export const versionSchema = z.number({ error: 'Send the version you edited.' }).int().positive();
 
-/** Port settings as sent by a client: the frame engine's schema, with unknown fields refused at every level. */
-export const portSettingsInputSchema = portSettingsSchema
-  .safeExtend({ frameRules: frameRulesSchema.strict().default(defaultFrameRules) })
-  .strict();
+/**
+ * Port settings as sent by a client: the frame engine's schema, with unknown fields refused at every level, and
+ * the control-line keys filled from the older ones (or the other way round) before the check.
+ */
+export const portSettingsInputSchema = withControlLines(
+  portSettingsObjectSchema.safeExtend({ frameRules: frameRulesSchema.strict().default(defaultFrameRules) }).strict(),
+);
 
 export const wiringRowSchema = z.strictObject({ pin: text(20), signal: text(40), colour: text(40) });
 

@@ -72,8 +72,11 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
     .where(and(eq(port.teamId, ctx.team.id), isNull(port.deletedAt), isNull(device.deletedAt), o.deviceId ? eq(port.deviceId, o.deviceId) : undefined, o.machineId ? eq(device.machineId, o.machineId) : undefined))
     .orderBy(o.dir === 'desc' ? desc(device.tag) : asc(device.tag), asc(port.position)).limit(MAX_ROWS);
   return {
-    columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'nodeAddress', 'termination', 'protocol', 'version'],
-    rows: rows.map(({ port: p, tag, machineName }) => [p.id, machineName, tag, p.name, portShorthand(p.settings), p.settings.interface, p.settings.baud, p.settings.dataBits, p.settings.parity, p.settings.stopBits, p.settings.handshake, p.settings.nodeAddress, p.settings.termination ? 'yes' : 'no', p.settings.protocol, p.version]),
+    columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'rtsMode', 'ctsMode', 'dtrMode', 'rtsLeadMs', 'rtsTailMs', 'echo', 'nodeAddress', 'termination', 'protocol', 'version'],
+    rows: rows.map(({ port: p, tag, machineName }) => {
+      const s = p.settings;
+      return [p.id, machineName, tag, p.name, portShorthand(s), s.interface, s.baud, s.dataBits, s.parity, s.stopBits, s.handshake, s.rtsMode, s.ctsMode, s.dtrMode, s.rtsLeadMs, s.rtsTailMs, s.echo ? 'yes' : 'no', s.nodeAddress, s.termination ? 'yes' : 'no', s.protocol, p.version];
+    }),
   };
 }
 

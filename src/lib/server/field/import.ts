@@ -7,7 +7,7 @@ import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { command, device, deviceProfile, importMap, link, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
+import { exportDocumentSchema, EXPORT_FORMAT, EXPORT_VERSIONS_READ, EXPORT_VERSIONS_TEXT, type ExportDocument } from '../../schemas/field';
 import { documentProblems } from '../../field/export-check';
 import { nameKey } from '../../schemas/vault';
 import { stageImport } from './import-write';
@@ -30,7 +30,9 @@ export function readDocument(raw: unknown): ExportDocument {
   if (!head || typeof head !== 'object' || head.format !== EXPORT_FORMAT) {
     throw new Invalid(`document: not a ${EXPORT_FORMAT} document (format must be "${EXPORT_FORMAT}")`, { fields: { 'document.format': 'Not an export of this app.' } });
   }
-  if (head.version !== EXPORT_VERSION) throw new Invalid(`document: version ${String(head.version)} is not supported; this server reads version ${EXPORT_VERSION}`);
+  if (!(EXPORT_VERSIONS_READ as readonly unknown[]).includes(head.version)) {
+    throw new Invalid(`document: version ${String(head.version)} is not supported; this server reads ${EXPORT_VERSIONS_TEXT}`);
+  }
   const parsed = exportDocumentSchema.safeParse(raw);
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!;

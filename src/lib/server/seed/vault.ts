@@ -77,7 +77,12 @@ async function fernhollow(c: SeedCtx) {
 
   // Kiln conveyor: zone temperature sensors on a bus whose far end was never terminated.
   await addDevice(c, { id: 'dev_demo_plc400', machineId: 'mach_demo_kiln', tag: 'PLC-400', name: 'Kiln conveyor controller', role: 'plc', maker: 'Vellmar Systems', model: 'VX-120', serialNumber: 'VX12-1201', location: 'Kiln panel',
-    ports: [{ id: 'port_demo_plc400', name: 'RS-485', settings: { ...modbus, baud: 19200, parity: 'none', stopBits: 2, nodeAddress: null, termination: true, bias: true }, wiring: rs485Pins }] });
+    ports: [
+      { id: 'port_demo_plc400', name: 'RS-485', settings: { ...modbus, baud: 19200, parity: 'none', stopBits: 2, nodeAddress: null, termination: true, bias: true }, wiring: rs485Pins },
+      // Set up for the infeed drive: 9600 8-N-1, sending not held back by CTS, RTS on only while sending with a lead
+      // and a tail, so a converter switched by RTS has its driver on for the whole frame.
+      { id: 'port_demo_plc400_x2', name: 'X2 RS-232', settings: { interface: 'rs232', baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, rtsMode: 'transmit', ctsMode: 'ignore', rtsLeadMs: 2, rtsTailMs: 2, protocol: 'ascii', frameRules: { terminator: '0D', byteSet: 'printable', letterCase: 'upper', addressField: 'address' } }, wiring: db9, notes: 'For the infeed drive, through an RS-232 to RS-485 converter switched by RTS.' },
+    ] });
   for (const [n, addr] of [[411, 11], [412, 12]] as const) {
     await addDevice(c, { id: `dev_demo_sns${n}`, machineId: 'mach_demo_kiln', tag: `TT-${n}`, name: `Zone ${n - 410} temperature`, role: 'sensor', maker: 'Fenwray', model: 'TX-2', serialNumber: `TX2-90${n}`, location: `Kiln zone ${n - 410}`,
       ports: [{ id: `port_demo_sns${n}`, name: 'RS-485', settings: { ...modbus, baud: 19200, parity: 'none', stopBits: 2, nodeAddress: addr }, wiring: rs485Pins }] });
