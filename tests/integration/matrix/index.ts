@@ -10,6 +10,7 @@ export const extraPublicRoutes: PublicRoute[] = [
   { method: 'POST', route: '/api/tools/timing', reason: 'public tools API, rate limited' },
   { method: 'POST', route: '/api/tools/frame', reason: 'public tools API, rate limited' },
   { method: 'POST', route: '/api/tools/sequence', reason: 'public tools API, rate limited' },
+  { method: 'POST', route: '/api/tools/st', reason: 'public tools API, rate limited' },
 ];
 
 // Command library (issue 5).

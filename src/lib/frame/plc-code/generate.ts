@@ -29,6 +29,10 @@ export interface PlcCodeOptions {
   prefix?: string;
   /** Preferred form; a frame a STRING cannot carry is always given in the byte form. */
   form?: PlcForm;
+  /** Write the caution at the top (default true; a file of several POUs writes it once). */
+  caution?: boolean;
+  /** Names the POU must not take (other POUs of the same file), compared without letter case. */
+  taken?: Iterable<string>;
 }
 
 /** One input of the generated POU. */
@@ -340,6 +344,12 @@ function fixedText(s: Segment, fixed: FieldValues | undefined): Result<Uint8Arra
   return error ? failure(0, error.message) : success(ascii(e.text));
 }
 
+/** Why `prefix` cannot start a POU name, or null (empty is fine). */
+export function prefixProblem(prefix: string): string | null {
+  if (!prefix || /^[A-Za-z][A-Za-z0-9]*(_[A-Za-z0-9]+)*_?$/.test(prefix)) return null;
+  return `The prefix "${prefix}" is not the start of an IEC 61131-3 identifier: use letters, digits and single underscores, starting with a letter`;
+}
+
 /**
  * Generates one POU that builds the steps' bytes back to back. Refuses (with a message) what it cannot
  * generate exactly: a text field without maxLength, a scale DINT arithmetic cannot follow, a fixed value
@@ -348,11 +358,10 @@ function fixedText(s: Segment, fixed: FieldValues | undefined): Result<Uint8Arra
 export function generatePlcCode(steps: readonly PlcStepInput[], options: PlcCodeOptions): Result<PlcCode> {
   if (steps.length === 0) return failure(0, 'There is nothing to generate: give at least one template');
   const prefix = options.prefix ?? '';
-  if (prefix && !/^[A-Za-z][A-Za-z0-9]*(_[A-Za-z0-9]+)*_?$/.test(prefix)) {
-    return failure(0, `The prefix "${prefix}" is not the start of an IEC 61131-3 identifier: use letters, digits and single underscores, starting with a letter`);
-  }
+  const bad = prefixProblem(prefix);
+  if (bad) return failure(0, bad);
   const base = toIdentifier(options.name, 'Cmd');
-  const pou = prefix ? (prefix.endsWith('_') ? prefix + base : `${prefix}_${base}`) : base;
+  const pou = new IdentifierPool(options.taken).take(prefix ? (prefix.endsWith('_') ? prefix + base : `${prefix}_${base}`) : base);
   const nameProblem = identifierProblem(pou);
   if (nameProblem) return failure(0, `The name does not make a usable POU name: ${nameProblem}`);
 
@@ -457,7 +466,7 @@ export function generatePlcCode(steps: readonly PlcStepInput[], options: PlcCode
   }
 
   const out: string[] = [];
-  out.push(...PLC_CAUTION.map(comment));
+  if (options.caution ?? true) out.push(...PLC_CAUTION.map(comment));
   out.push(comment(`Structured Text (IEC 61131-3) generated for "${options.name}". Numbers are turned into text by the code`));
   out.push(comment('below, not by a conversion function: vendor conversion functions differ in padding and truncation.'));
   out.push(comment('Number inputs are whole numbers of the unit named beside them, scaled with integer arithmetic'));
