@@ -14,7 +14,7 @@ import { decodeReplyLength } from '../../lib/composer/reply-length';
 import { Caution } from '../ui/Caution';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
-import { PlcCodePanel } from './PlcCodePanel';
+import { PlcCodeSection } from './PlcCodeSection';
 import { PreviewPanel } from './PreviewPanel';
 import { ReplyDecoder } from './ReplyDecoder';
 import { Section } from '../ui/Section';
@@ -109,7 +109,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
             <PreviewPanel preview={preview} template={template} plcString={fit && fit.capacity !== null ? { capacity: fit.capacity, length: fit.length, longestLength: fit.longestLength } : null} />
           </Section>
           <Section title="PLC code" id="plc-code-panel">
-            <PlcCodePanel template={template} name={draft.name} />
+            <PlcCodeSection template={template} name={draft.name} />
           </Section>
           <Section title="Timing" id="timing">
             <TimingPanel timing={timing} />
