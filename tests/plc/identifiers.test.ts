@@ -20,3 +20,14 @@ describe('IEC 61131-3 identifiers', () => {
     expect(IEC_RESERVED_WORDS).toContain('VAR_IN_OUT');
   });
 });
+
+describe('POU names', () => {
+  it('never take the name of a variable inside the code', async () => {
+    const { generatePlcCode } = await import('~/lib/frame/plc-code');
+    const { templateSchema } = await import('~/lib/frame');
+    const t = templateSchema.parse({ version: 1, segments: [{ type: 'integer', id: 'n', name: 'Count', label: 'N', min: 0, max: 9 }] });
+    const r = generatePlcCode([{ template: t }], { name: 'Out' });
+    expect(r.ok && [r.value.name, r.value.inputs[0]!.name]).toEqual(['Out_2', 'Count_2']);
+    expect(generatePlcCode([{ template: t }], { name: 'S0 1' }).ok).toBe(false);
+  });
+});

@@ -127,8 +127,9 @@ export function generatePlcCode(steps: readonly PlcStepInput[], options: PlcCode
   const bad = prefixProblem(prefix);
   if (bad) return failure(0, bad);
   const base = toIdentifier(options.name, 'Cmd');
-  const pou = new IdentifierPool(options.taken).take(prefix ? (prefix.endsWith('_') ? prefix + base : `${prefix}_${base}`) : base);
-  const nameProblem = identifierProblem(pou);
+  // locals and the checksum's position variables (Start0, S0_1, E0_2) are never the POU's name
+  const pou = new IdentifierPool([...(options.taken ?? []), ...LOCALS]).take(prefix ? (prefix.endsWith('_') ? prefix + base : `${prefix}_${base}`) : base);
+  const nameProblem = /^(Start\d+|[SE]\d+_\d+)$/i.test(pou) ? `"${pou}" is the name of a variable inside the code; choose another name or a prefix` : identifierProblem(pou);
   if (nameProblem) return failure(0, `The name does not make a usable POU name: ${nameProblem}`);
 
   // What each segment is, checked before any code is written
