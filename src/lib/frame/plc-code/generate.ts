@@ -251,7 +251,7 @@ export function generatePlcCode(steps: readonly PlcStepInput[], options: PlcCode
     out.push(`    Bytes : ARRAY [1..${capacity}] OF BYTE; ${comment('the frame, Length bytes from Bytes[1]')}`);
     out.push(`    Length : INT; ${comment('bytes in the frame; 0 when Error is not 0')}`);
   }
-  const errors = ['0: built', inputs.length ? `1-${inputs.length}: that input (in the order above) is out of its range or not allowed` : null,
+  const errors = ['0: built', inputs.length === 1 ? '1: the input is out of its range or not allowed' : inputs.length ? `1-${inputs.length}: that input (in the order above) is out of its range or not allowed` : null,
     form === 'string' ? '-1: the STRING came out shorter than built' : null, steps.some((st) => st.template.segments.some((s) => s.type === 'checksum' && s.over === 'decoded-hex')) ? '-2: the checksum covers characters that are not hex pairs' : null]
     .filter(Boolean).join('; ');
   out.push(`    Error : INT; ${comment(errors)}`);
