@@ -162,6 +162,9 @@ function Library(props: Props) {
   return (
     <div>
       {q.data.items.length === 0 && <p className="text-muted">No commands yet.</p>}
+      {owner.kind === 'device' && q.data.items.length > 0 && (
+        <p className="mb-3"><a className="btn btn-quiet btn-sm" href={`/api/devices/${owner.id}/plc-code`} download data-testid="plc-code-download">PLC code for every command (.st)</a></p>
+      )}
       <ul className="grid gap-3" data-testid="command-list">
         {q.data.items.map((i) => <Row key={i.id} item={i} basePath={basePath} canEdit={canEdit} targets={list} ports={props.ports} />)}
       </ul>

@@ -14,6 +14,7 @@ import { decodeReplyLength } from '../../lib/composer/reply-length';
 import { Caution } from '../ui/Caution';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
+import { PlcCodeSection } from './PlcCodeSection';
 import { PreviewPanel } from './PreviewPanel';
 import { ReplyDecoder } from './ReplyDecoder';
 import { Section } from '../ui/Section';
@@ -106,6 +107,9 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
         <div className="grid gap-4 min-w-0">
           <Section title="Preview" id="preview">
             <PreviewPanel preview={preview} template={template} plcString={fit && fit.capacity !== null ? { capacity: fit.capacity, length: fit.length, longestLength: fit.longestLength } : null} />
+          </Section>
+          <Section title="PLC code" id="plc-code-panel">
+            <PlcCodeSection template={template} name={draft.name} />
           </Section>
           <Section title="Timing" id="timing">
             <TimingPanel timing={timing} />

@@ -26,6 +26,11 @@ async function trashed(t: TeamFixture) {
 
 export const commandCases: RouteCase[] = [
   {
+    method: 'GET', route: '/api/devices/[id]/plc-code', allowed: ALL,
+    prepare: async (t) => ({ path: `/api/devices/${(await makeDevice(owner(t))).id}/plc-code` }),
+    otherTeam: async (_t, o) => ({ path: `/api/devices/${(await makeDevice(owner(o))).id}/plc-code` }),
+  },
+  {
     method: 'GET', route: '/api/commands', allowed: ALL,
     prepare: async (t) => ({ path: `/api/commands?deviceId=${(await makeDevice(owner(t))).id}` }),
     otherTeam: async (_t, o) => ({ path: `/api/commands?deviceId=${(await makeDevice(owner(o))).id}` }),

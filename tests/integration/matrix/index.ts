@@ -11,6 +11,7 @@ export const extraPublicRoutes: PublicRoute[] = [
   { method: 'POST', route: '/api/tools/frame', reason: 'public tools API, rate limited' },
   { method: 'POST', route: '/api/tools/sequence', reason: 'public tools API, rate limited' },
   { method: 'POST', route: '/api/tools/bus-cycle', reason: 'public tools API, rate limited' },
+  { method: 'POST', route: '/api/tools/st', reason: 'public tools API, rate limited' },
 ];
 
 // Command library (issue 5).

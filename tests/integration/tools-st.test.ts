@@ -1,0 +1,66 @@
+/**
+ * PLC code through the running server: the public tool and a device's .st file. The code returned is run in
+ * the test evaluator (tests/plc/st-eval.ts); the jog's bytes are the demo syntax worked by hand
+ * (1° × 100 = 100 steps: "1!JOG:+100" then CR).
+ */
+import { describe, expect, inject, test } from 'vitest';
+import { createTeamWithRoles } from '../helpers/client';
+import { runSt } from '../plc/st-eval';
+import { jogTemplate, makeCommand } from './command-fixtures';
+import { makeDevice } from './vault-fixtures';
+
+const post = async (body: unknown) => {
+  const res = await fetch(`${inject('baseUrl')}/api/tools/st`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+  return { status: res.status, body: (await res.json()) as any };
+};
+
+describe('POST /api/tools/st', () => {
+  test('a jog: a FUNCTION with the angle in hundredths of a degree, giving the command bytes', async () => {
+    const r = await post({ template: jogTemplate(), name: 'Jog +1°', prefix: 'DRV_' });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ ok: true, name: 'DRV_Jog_Plus_1', form: 'string', capacity: 13, findings: [] });
+    expect(r.body.inputs).toEqual([{ name: 'angle', step: 0, field: 'angle', kind: 'number', inputDecimals: 2, lo: -36000, hi: 36000 }]);
+    expect(r.body.code).toMatch(/^\(\* CAUTION: the commands this code builds move machinery/);
+    const run = runSt(r.body.code, { angle: 100 });
+    expect([run.outputs.ERROR, run.result]).toEqual([0, '1!JOG:+100\r']);
+    expect(runSt(r.body.code, { angle: 36001 }).outputs.ERROR).toBe(1);
+  });
+
+  test('fixed values (a preset) become constants', async () => {
+    const r = await post({ template: jogTemplate(), name: 'Jog', values: { angle: -1 } });
+    expect(r.status).toBe(200);
+    expect(r.body.inputs).toEqual([]);
+    expect(runSt(r.body.code, {}).result).toBe('1!JOG:-100\r');
+  });
+
+  test('422 with the reason for what cannot be generated exactly, and for a bad body', async () => {
+    const text = { version: 1, segments: [{ type: 'text', id: 't', name: 'note', label: 'Note' }] };
+    const refused = await post({ template: text });
+    expect(refused.status).toBe(422);
+    expect(refused.body.error).toMatch(/no maxLength/);
+    expect((await post({ template: jogTemplate(), prefix: '9x' })).status).toBe(422);
+    expect((await post({ template: jogTemplate(), values: { angle: 999 } })).body.error).toMatch(/maximum/);
+    const unknown = await post({ template: jogTemplate(), colour: 'red' });
+    expect(unknown.status).toBe(422);
+  });
+});
+
+describe('GET /api/devices/{id}/plc-code', () => {
+  test("one .st file with every command and preset of the device", async () => {
+    const team = await createTeamWithRoles();
+    const owner = team.members.owner;
+    const device = await makeDevice(owner);
+    await makeCommand(owner, { deviceId: device.id }, { name: 'Jog +1°', presets: [{ name: 'Back', values: { angle: -1 } }] });
+    const res = await team.members.viewer.request('GET', `/api/devices/${device.id}/plc-code?prefix=L1_`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toMatch(/^text\/plain/);
+    expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="DRV-[A-Za-z0-9-]+\.st"$/);
+    const text = res.body as string;
+    expect(text.match(/CAUTION/g)).toHaveLength(1);
+    expect(text).toContain('FUNCTION L1_Jog_Plus_1 : STRING(13)');
+    expect(text).toContain('FUNCTION L1_Jog_Plus_1_Back : STRING(13)');
+    const pou = text.slice(text.indexOf('FUNCTION L1_Jog_Plus_1_Back'), text.lastIndexOf('END_FUNCTION') + 'END_FUNCTION'.length);
+    expect(runSt(pou, {}).result).toBe('1!JOG:-100\r');
+    expect((await owner.request('GET', `/api/devices/${device.id}/plc-code?prefix=a__b`)).status).toBe(422);
+  });
+});
