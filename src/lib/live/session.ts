@@ -174,10 +174,10 @@ export class LiveLink {
     if (!writable) throw new Error('The port is closed.');
     const bytes = Uint8Array.from(request);
     const startMs = this.elapsed();
-    const result = new Promise<Exchange>((done) => {
-      this.pending = { label, request: bytes, template: replyTemplate, startMs, chunks: [], lastMs: null, lineErrors: [], timer: null, done };
-    });
-    const p = this.pending!;
+    let done: (e: Exchange) => void = () => undefined;
+    const result = new Promise<Exchange>((resolve) => { done = resolve; });
+    const p: Pending = { label, request: bytes, template: replyTemplate, startMs, chunks: [], lastMs: null, lineErrors: [], timer: null, done };
+    this.pending = p;
     this.transcript.push({ kind: 'sent', atMs: startMs, bytes, label });
     this.changed();
     const writer = writable.getWriter();
@@ -186,7 +186,7 @@ export class LiveLink {
     } finally {
       writer.releaseLock();
     }
-    if (this.pending === p && !p.chunks.length) {
+    if (this.pending === p && p.chunks.length === 0) {
       this.arm(p, this.settings.responseTimeoutMs + lineTiming(this.settings, bytes.length).frameTimeMs, 'timeout');
     }
     return result;
