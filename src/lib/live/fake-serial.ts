@@ -5,9 +5,10 @@
  * Used by "try it without hardware" and by the browser tests; it keeps what was opened and written as evidence.
  *
  * Each write is one request. The reply arrives in one chunk when its last byte would have: after the request's
- * time on the wire, the simulator's response delay and the reply's time on the wire. Bytes read with a framing
- * or parity error are delivered, then the readable stream errors with a `FramingError` / `ParityError`
- * DOMException and `readable` is replaced by a new stream, as Web Serial does. Control lines behave like a
+ * time on the wire, the simulator's response delay and the reply's time on the wire. At a character read with a
+ * framing or parity error, the bytes before it are delivered, then the readable stream errors with a
+ * `FramingError` / `ParityError` DOMException and `readable` is replaced by a new stream that carries on with
+ * the bad character and the rest, as Web Serial does (the character itself is passed on, as most drivers do). Control lines behave like a
  * null-modem cable's loops: CTS follows RTS, DSR and DCD follow DTR, RI stays off.
  */
 import type { LineSettings } from '../frame/port-settings';
@@ -70,15 +71,26 @@ class FakePort implements SerialPortLike {
     if (this.out.break || !a.received.length) return;
     const last = a.received[a.received.length - 1]!;
     const at = bytes.length * charTimeMs(opener) + a.delayMs + last.atUs / 1000;
-    this.later(at, () => {
-      if (!this.controller) return;
-      this.controller.enqueue(Uint8Array.from(a.received, (c) => c.byte));
-      const error = a.framingErrors ? 'FramingError' : a.parityErrors ? 'ParityError' : null;
-      if (!error) return;
-      // After the reader has taken the bytes: an errored stream drops what is still queued.
-      this.later(1, () => {
-        this.controller?.error(new DOMException(`${a.framingErrors + a.parityErrors} characters arrived with errors.`, error));
-        this.newReadable();
+    // Web Serial delivers what arrived before a bad character, then errors the stream; reading goes on in a new one.
+    const parts: { bytes: number[]; error: string | null }[] = [{ bytes: [], error: null }];
+    for (const c of a.received) {
+      if (c.framingError || c.parityError) {
+        parts[parts.length - 1]!.error = c.framingError ? 'FramingError' : 'ParityError';
+        parts.push({ bytes: [], error: null });
+      }
+      parts[parts.length - 1]!.bytes.push(c.byte);
+    }
+    parts.forEach((part, i) => {
+      // 2 ms apart, so the reader has taken each part (and found the new stream) before the next step.
+      this.later(at + 2 * i, () => {
+        if (!this.controller) return;
+        if (part.bytes.length) this.controller.enqueue(Uint8Array.from(part.bytes));
+        if (!part.error) return;
+        const error = part.error;
+        this.later(1, () => {
+          this.controller?.error(new DOMException('A character arrived with a framing or parity error.', error));
+          this.newReadable();
+        });
       });
     });
   }
