@@ -202,7 +202,9 @@ export class LiveLink {
     return this.port.getSignals();
   }
 
+  /** Closes the port once; later calls do nothing (the port may have been opened again by another link). */
   async close(): Promise<void> {
+    if (!this.reading) return;
     this.reading = false;
     if (this.pending) this.finish(this.pending, 'timeout');
     try {

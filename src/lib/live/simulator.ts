@@ -104,7 +104,7 @@ function swapTerminator(bytes: Uint8Array, segments: ReturnType<typeof assembleF
 /**
  * The reply template's values: a field without a default starts at 0 (or its minimum above 0), its first choice,
  * or empty text, so the reply is always whole; then the template's defaults; then the request's fields of the
- * same name (the address); then the values set.
+ * same name (the address); then the values set (an empty value leaves the one before).
  */
 export function replyFieldValues(reply: Template, fromRequest: FieldValues, set: FieldValues | undefined): FieldValues {
   const values: FieldValues = {};
@@ -115,7 +115,8 @@ export function replyFieldValues(reply: Template, fromRequest: FieldValues, set:
     else values[f.name] = f.min !== undefined && f.min > 0 ? f.min : f.max !== undefined && f.max < 0 ? f.max : 0;
   }
   for (const [k, v] of Object.entries(fromRequest)) if (reply.segments.some((f) => isField(f) && f.name === k)) values[k] = v;
-  return { ...values, ...(set ?? {}) };
+  for (const [k, v] of Object.entries(set ?? {})) if (v !== '' && v !== null && v !== undefined) values[k] = v;
+  return values;
 }
 
 function silent(command: SimulatedCommand | null, reason: string, delayMs: number): SimulatorAnswer {
