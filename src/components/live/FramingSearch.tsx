@@ -54,10 +54,10 @@ export function FramingSearch({ commands, port, settings, pause, resume }: Props
         that decodes and a good checksum. Only commands that do not move machinery and have a reply template are offered.</p>
       {queries.length === 0 ? <p className="text-sm">No command of this device qualifies: a search needs a query with a reply template that does not move machinery.</p> : (
         <form className="grid gap-2" onSubmit={(e) => { e.preventDefault(); void run(); }} aria-label="Framing search">
-          <label className="grid gap-1"><span className="label">Query to repeat</span>
-            <select className="input" value={commandId} onChange={(e) => setCommandId(e.target.value)}>
+          <div className="grid gap-1"><label className="label" htmlFor="live-search-command">Query to repeat</label>
+            <select id="live-search-command" className="input" value={commandId} onChange={(e) => setCommandId(e.target.value)}>
               {queries.map((q) => <option key={q.id} value={q.id}>{q.name}</option>)}
-            </select></label>
+            </select></div>
           <label className="flex items-center gap-2"><input type="checkbox" checked={safe} onChange={(e) => setSafe(e.target.checked)} /> This query only reads; it is safe to send it {total} times.</label>
           <div><button className="btn btn-quiet" disabled={!safe || !!running}>{running ? `Trying ${running.done + 1} of ${running.total}…` : 'Search'}</button></div>
         </form>

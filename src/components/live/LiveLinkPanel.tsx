@@ -119,11 +119,11 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
   return (
     <div className="grid gap-4" data-testid="live-panel">
       <div className="grid gap-2 sm:grid-cols-[1fr_auto] items-end">
-        <label className="grid gap-1"><span className="label">Port</span>
-          <select className="input" value={portName} disabled={open} onChange={(e) => setPortName(e.target.value)}>
+        <div className="grid gap-1"><label className="label" htmlFor="live-port">Port</label>
+          <select id="live-port" className="input" value={portName} disabled={open} onChange={(e) => setPortName(e.target.value)}>
             {ports.map((p) => <option key={p.name} value={p.name}>{p.name} · {portShorthand(p.settings)}</option>)}
           </select>
-        </label>
+        </div>
         {open && <button type="button" className="btn btn-quiet" onClick={() => void disconnect()}>Disconnect</button>}
       </div>
       {plan && !plan.ok && (

@@ -48,17 +48,17 @@ export function SendPanel({ commands, busy, send }: Props) {
         <h3>Send a command</h3>
         {commands.length === 0 ? <p className="text-sm text-muted">This device has no commands yet; type bytes below.</p> : (
           <div className="grid gap-2 sm:grid-cols-2">
-            <label className="grid gap-1"><span className="label">Command</span>
-              <select className="input" value={commandId} onChange={(e) => { setCommandId(e.target.value); setPreset(''); setConfirming(false); }}>
+            <div className="grid gap-1"><label className="label" htmlFor="live-command">Command</label>
+              <select id="live-command" className="input" value={commandId} onChange={(e) => { setCommandId(e.target.value); setPreset(''); setConfirming(false); }}>
                 {commands.map((c) => <option key={c.id} value={c.id}>{c.name}{c.movesMachinery ? ' (moves machinery)' : ''}</option>)}
               </select>
-            </label>
-            <label className="grid gap-1"><span className="label">Values</span>
-              <select className="input" value={preset} onChange={(e) => { setPreset(e.target.value); setConfirming(false); }}>
+            </div>
+            <div className="grid gap-1"><label className="label" htmlFor="live-values">Values</label>
+              <select id="live-values" className="input" value={preset} onChange={(e) => { setPreset(e.target.value); setConfirming(false); }}>
                 <option value="">As saved</option>
                 {command?.presets.map((p) => <option key={p.name} value={p.name}>Preset: {p.name}</option>)}
               </select>
-            </label>
+            </div>
           </div>
         )}
         {request && <p className="text-sm"><span className="text-muted">Sends</span> <span className="mono break-all" data-testid="live-request-preview">{[...request.bytes].map((b) => b.toString(16).toUpperCase().padStart(2, '0')).join(' ')}</span></p>}
