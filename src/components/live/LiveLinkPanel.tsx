@@ -132,7 +132,7 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
           <ul className="list-disc pl-5 text-sm">{plan.problems.map((p) => <li key={p}>{p}</li>)}</ul>
         </div>
       )}
-      {plan?.ok && plan.warnings.map((w) => <p key={w} className="notice notice-warn text-sm">{w}</p>)}
+      {!open && plan?.ok && plan.warnings.map((w) => <p key={w} className="notice notice-warn text-sm" data-testid="live-warning">{w}</p>)}
       {!open && plan?.ok && (
         <div className="grid gap-2">
           <div className="flex flex-wrap gap-2">
