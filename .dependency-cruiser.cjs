@@ -4,7 +4,7 @@
  * Islands (src/components) run in the browser: they import pure code and browser helpers, never the server.
  * Settings (src/config.ts, declared in server/config.mjs) sit below the database: any server code may read them.
  */
-const PURE = '^src/lib/(frame|composer|field|schemas)/|^src/lib/(permissions|caution)\\.ts$';
+const PURE = '^src/lib/(frame|composer|field|schemas|live)/|^src/lib/(permissions|caution)\\.ts$';
 /** @type {import('dependency-cruiser').IConfiguration} */
 module.exports = {
   forbidden: [

@@ -13,6 +13,7 @@ interface Entry {
   id: string; kind: Kind; note: string; newSerialNumber: string; appliedVersion: number | null; foundSettings: string;
   deviceVersion: number; userName: string; createdAt: string; annotations: Annotation[];
   photos: { id: string; url: string; fileName: string }[];
+  files?: { id: string; url: string; fileName: string }[];
 }
 interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number }
 
@@ -104,6 +105,7 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
       {e.kind === 'found-different' && <p>Found on site: <strong className="whitespace-pre-wrap">{e.foundSettings}</strong></p>}
       {e.note && <p className="whitespace-pre-wrap">{e.note}</p>}
       {e.photos.length > 0 && <div className="flex flex-wrap gap-2">{e.photos.map((p) => <Thumb key={p.id} url={p.url} name={p.fileName} />)}</div>}
+      {!!e.files?.length && <ul className="text-sm" aria-label="Files">{e.files.map((f) => <li key={f.id}><a href={f.url} download={f.fileName} data-testid="log-file">{f.fileName}</a></li>)}</ul>}
       {e.annotations.length > 0 && (
         <ul className="mt-1 border-l-4 border-line pl-3 grid gap-1" aria-label="Annotations">
           {e.annotations.map((a) => <li key={a.id} className="text-sm"><span className="text-muted">{when(a.createdAt)} · {a.userName}:</span> {a.note}</li>)}

@@ -54,3 +54,15 @@ export const statusReplyTemplate: Template = {
     cr,
   ],
 };
+
+/** The drive's acknowledgement of a move: `<address>=IDX:OK*<XOR-8>` CR when it starts, `NO` when it refuses. */
+export const indexAckTemplate: Template = {
+  version: 1,
+  segments: [
+    address, lit('verb', '=IDX:'),
+    { type: 'choice', id: 'result', name: 'result', label: 'Result', options: [{ value: 'accepted', label: 'Accepted', send: 'OK' }, { value: 'refused', label: 'Refused', send: 'NO' }] },
+    lit('star', '*'),
+    { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 2 }, over: 'bytes', encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' },
+    cr,
+  ],
+};

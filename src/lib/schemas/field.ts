@@ -29,7 +29,11 @@ export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
     note: text(4000).default(''),
     photoIds,
   }),
-  z.strictObject({ kind: z.literal('verified'), note: text(4000).default(''), photoIds }),
+  z.strictObject({
+    kind: z.literal('verified'), note: text(4000).default(''), photoIds,
+    /** A configuration-file attachment of the device (the live link's transcript), claimed by the entry like its photos. */
+    transcriptId: id.optional(),
+  }),
   z.strictObject({
     kind: z.literal('found-different'),
     foundSettings: text(2000).min(1, 'Describe what you found set on the device.'),

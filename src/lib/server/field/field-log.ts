@@ -19,6 +19,8 @@ type AnnotationRow = typeof fieldLogAnnotation.$inferSelect;
 export interface FieldLogEntryView extends EntryRow {
   annotations: AnnotationRow[];
   photos: AttachmentView[];
+  /** Other files of the entry: the live link's transcript of a "communication verified" entry. */
+  files: AttachmentView[];
 }
 
 export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 200): Promise<FieldLogEntryView[]> {
@@ -35,7 +37,8 @@ export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 2
   return entries.map((e) => ({
     ...e,
     annotations: notes.filter((n) => n.entryId === e.id),
-    photos: photos.filter((p) => p.entryId === e.id).map(presentAttachment),
+    photos: photos.filter((p) => p.entryId === e.id && p.kind === 'photo').map(presentAttachment),
+    files: photos.filter((p) => p.entryId === e.id && p.kind !== 'photo').map(presentAttachment),
   }));
 }
 
@@ -60,6 +63,16 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
         throw new Invalid('photoIds: upload the photos to this device first', { fields: { photoIds: 'One of the photos is not an unused photo of this device.' } });
       }
     }
+    const transcriptId = input.kind === 'verified' ? input.transcriptId : undefined;
+    if (transcriptId) {
+      const [file] = await tx.select({ id: attachment.id }).from(attachment).where(and(
+        eq(attachment.teamId, ctx.team.id), eq(attachment.id, transcriptId), eq(attachment.ownerType, 'device'),
+        eq(attachment.ownerId, deviceId), eq(attachment.kind, 'config'), isNull(attachment.entryId),
+      ));
+      if (!file) {
+        throw new Invalid('transcriptId: upload the transcript to this device first', { fields: { transcriptId: 'The transcript is not an unused configuration file of this device.' } });
+      }
+    }
     await tx.insert(fieldLogEntry).values({
       id, teamId: ctx.team.id, deviceId, kind: input.kind, note: input.note,
       newSerialNumber: input.kind === 'replacement' ? input.newSerialNumber : '',
@@ -67,7 +80,8 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
       foundSettings: input.kind === 'found-different' ? input.foundSettings : '',
       deviceVersion: rev.number, userId: ctx.user.id, userName: ctx.user.name,
     });
-    if (photoIds.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, photoIds)));
+    const claimed = transcriptId ? [...photoIds, transcriptId] : photoIds;
+    if (claimed.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, claimed)));
   });
   return (await listFieldLog(ctx, deviceId)).find((e) => e.id === id)!;
 }

@@ -5,7 +5,7 @@
 import { db } from '../../../db/client';
 import { command, port } from '../../../db/schema';
 import { portSettingsSchema } from '../../frame/port-settings';
-import { indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
+import { indexAckTemplate, indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
 import { created } from './vault-builders';
 import { DEMO_ACCOUNTS, DEMO_TEAM_ID } from './platform';
 import type { Role } from '../../permissions';
@@ -23,8 +23,8 @@ const servicePort = {
 
 const commands = [
   { id: 'cmd_demo_drv501_index', name: 'Index 45°', purpose: 'Index the turret one station (45°) with ramps and speed', template: indexMoveTemplate,
-    fieldValues: { address: 1, angle: 45, accel: 5, decel: 5, speed: 0.5 }, movesMachinery: true,
-    rawUnits: { angle: 'steps', accel: 'steps/s²', decel: 'steps/s²', speed: 'steps/s' }, notes: 'Drive set to 36,000 steps per revolution (parameter group 3).',
+    fieldValues: { address: 1, angle: 45, accel: 5, decel: 5, speed: 0.5 }, replyTemplate: indexAckTemplate, movesMachinery: true,
+    rawUnits: { angle: 'steps', accel: 'steps/s²', decel: 'steps/s²', speed: 'steps/s' }, notes: 'Drive set to 36,000 steps per revolution (parameter group 3). Acknowledges with 1=IDX:OK*67 then CR.',
     presets: [
       { name: 'Index one station', values: { angle: 45 } },
       { name: 'Jog 1° one way', values: { angle: 1, speed: 0.05 } },

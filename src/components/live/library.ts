@@ -1,0 +1,26 @@
+/** The device's command library as the live link uses it: the request bytes of a command or preset, the simulator's view. */
+import { assembleFrame } from '../../lib/frame/assemble';
+import type { FieldValues, Template } from '../../lib/frame/template';
+import { presetValues, type CommandPreset } from '../../lib/composer/presets';
+import type { SimulatedCommand } from '../../lib/live/simulator';
+
+export interface LibraryCommand {
+  id: string;
+  name: string;
+  movesMachinery: boolean;
+  template: Template;
+  fieldValues: FieldValues;
+  presets: CommandPreset[];
+  replyTemplate: Template | null;
+  portName: string;
+}
+
+/** The bytes a command sends with its saved values (`preset` null) or with a preset laid over them. */
+export function commandRequest(c: LibraryCommand, preset: string | null): { bytes: Uint8Array; label: string; ok: boolean } {
+  const p = preset === null ? null : c.presets.find((x) => x.name === preset) ?? null;
+  const frame = assembleFrame(c.template, p ? presetValues(c.fieldValues, p) : c.fieldValues);
+  return { bytes: frame.bytes, label: p ? `${c.name}: ${p.name}` : c.name, ok: frame.ok };
+}
+
+export const simulatedCommands = (list: readonly LibraryCommand[]): SimulatedCommand[] =>
+  list.map((c) => ({ id: c.id, name: c.name, template: c.template, replyTemplate: c.replyTemplate }));

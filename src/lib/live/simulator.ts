@@ -1,0 +1,153 @@
+/**
+ * A simulated device built from a command library: it recognises each request by decoding it against the
+ * library's templates and answers with the command's reply template, assembled from values you set, after a
+ * response delay. Faults on demand: no reply, a bad checksum, the wrong terminator. When the opener's framing
+ * differs from the simulator's, what comes back is what a UART at the opener's framing reads from the reply's
+ * bit stream (`receiveAs`): garbage with framing and parity errors, not silence. Pure; no timers (the fake
+ * serial port schedules what this returns).
+ */
+import { assembleFrame } from '../frame/assemble';
+import { decodeReply } from '../frame/decode-reply';
+import type { LineSettings } from '../frame/port-settings';
+import { isField, type FieldValues, type Template } from '../frame/template';
+import { charTimeMs } from '../frame/timing';
+import { type ReceivedChar, receiveAs, sameFraming } from './uart';
+
+export interface SimulatedCommand {
+  id: string;
+  name: string;
+  template: Template;
+  replyTemplate: Template | null;
+}
+
+export const SIMULATOR_FAULTS = ['none', 'no-reply', 'bad-checksum', 'wrong-terminator'] as const;
+export type SimulatorFault = (typeof SIMULATOR_FAULTS)[number];
+
+export const SIMULATOR_FAULT_LABELS: Record<SimulatorFault, string> = {
+  none: 'Answers correctly',
+  'no-reply': 'Never answers',
+  'bad-checksum': 'Answers with a bad checksum',
+  'wrong-terminator': 'Answers with the wrong terminator',
+};
+
+export interface SimulatorSettings {
+  /** The simulator's own framing (the device's settings). */
+  line: LineSettings;
+  commands: readonly SimulatedCommand[];
+  /** Reply field values per command id, laid over the reply template's defaults and the request's fields of the same name. */
+  replyValues?: Record<string, FieldValues>;
+  /** Milliseconds from the end of the request to the first byte of the reply (default 5). */
+  responseDelayMs?: number;
+  fault?: SimulatorFault;
+  /**
+   * When true (default), the simulator recognises a request whatever framing it came at, so a framing
+   * mismatch shows as garbage coming back. When false it reads the request through its own UART first, and a
+   * request garbled by a mismatch goes unanswered, as most real devices do.
+   */
+  hearsAnyFraming?: boolean;
+}
+
+export interface SimulatorAnswer {
+  /** The library command the request was recognised as, or null. */
+  command: { id: string; name: string } | null;
+  /** Why there is no reply, in words (null when there is one). */
+  silence: string | null;
+  /** The reply as the simulator sends it, at its own framing (empty when silent). */
+  sent: Uint8Array;
+  /** What the opener's UART reads from it: bytes, errors, and when each byte completes (µs from the first bit). */
+  received: ReceivedChar[];
+  /** Milliseconds from the end of the request to the reply's first bit. */
+  delayMs: number;
+  /** Milliseconds the reply lasts on the wire at the simulator's framing. */
+  replyWireMs: number;
+  framingErrors: number;
+  parityErrors: number;
+}
+
+/** Which library command `request` is: the first whose template decodes it without an error, with the request's field values. */
+export function recognise(commands: readonly SimulatedCommand[], request: Uint8Array): { command: SimulatedCommand; values: FieldValues } | null {
+  for (const command of commands) {
+    const decoded = decodeReply(command.template, request);
+    if (!decoded.ok) continue;
+    const values: FieldValues = {};
+    for (const [name, f] of Object.entries(decoded.fields)) if (f.value !== undefined) values[name] = f.value;
+    return { command, values };
+  }
+  return null;
+}
+
+const HEX_NEXT: Record<number, number> = {};
+for (const digits of ['0123456789', 'ABCDEF', 'abcdef']) {
+  for (let i = 0; i < digits.length; i++) HEX_NEXT[digits.charCodeAt(i)] = digits.charCodeAt((i + 1) % digits.length);
+}
+
+/** The reply with its first checksum changed by one (a hex or decimal digit moved on, a binary byte's lowest bit flipped). */
+function spoilChecksum(bytes: Uint8Array, template: Template, segments: ReturnType<typeof assembleFrame>['segments']): Uint8Array {
+  const span = segments.find((s) => s.type === 'checksum' && s.end > s.start);
+  if (!span) return bytes;
+  const seg = template.segments[span.index];
+  const out = bytes.slice();
+  const at = span.end - 1;
+  out[at] = seg?.type === 'checksum' && seg.encoding !== 'binary' ? (HEX_NEXT[out[at]!] ?? out[at]! ^ 1) : out[at]! ^ 1;
+  return out;
+}
+
+/** The reply with another terminator: CR ↔ LF, anything else becomes CR. */
+function swapTerminator(bytes: Uint8Array, segments: ReturnType<typeof assembleFrame>['segments']): Uint8Array {
+  const span = segments.find((s) => s.type === 'terminator');
+  if (!span) return bytes;
+  const out = bytes.slice();
+  for (let i = span.start; i < span.end; i++) out[i] = out[i] === 0x0d ? 0x0a : 0x0d;
+  return out;
+}
+
+/**
+ * The reply template's values: a field without a default starts at 0 (or its minimum above 0), its first choice,
+ * or empty text, so the reply is always whole; then the template's defaults; then the request's fields of the
+ * same name (the address); then the values set (an empty value leaves the one before).
+ */
+export function replyFieldValues(reply: Template, fromRequest: FieldValues, set: FieldValues | undefined): FieldValues {
+  const values: FieldValues = {};
+  for (const f of reply.segments.filter(isField)) {
+    if (f.default !== undefined) continue;
+    if (f.type === 'choice') values[f.name] = f.options[0]?.value ?? '';
+    else if (f.type === 'text') values[f.name] = '';
+    else values[f.name] = f.min !== undefined && f.min > 0 ? f.min : f.max !== undefined && f.max < 0 ? f.max : 0;
+  }
+  for (const [k, v] of Object.entries(fromRequest)) if (reply.segments.some((f) => isField(f) && f.name === k)) values[k] = v;
+  for (const [k, v] of Object.entries(set ?? {})) if (v !== '' && v !== null && v !== undefined) values[k] = v;
+  return values;
+}
+
+function silent(command: SimulatedCommand | null, reason: string, delayMs: number): SimulatorAnswer {
+  return {
+    command: command && { id: command.id, name: command.name }, silence: reason, sent: new Uint8Array(0), received: [],
+    delayMs, replyWireMs: 0, framingErrors: 0, parityErrors: 0,
+  };
+}
+
+/** What the simulator does with one request written at `opener`'s framing. */
+export function answer(settings: SimulatorSettings, request: Uint8Array, opener: LineSettings): SimulatorAnswer {
+  const delayMs = Math.max(0, settings.responseDelayMs ?? 5);
+  let heard = request;
+  if (settings.hearsAnyFraming === false && !sameFraming(opener, settings.line)) {
+    const r = receiveAs(request, opener, settings.line);
+    heard = r.ok ? r.value.bytes : new Uint8Array(0);
+  }
+  const match = recognise(settings.commands, heard);
+  if (!match) return silent(null, 'The request matches no command of the library.', delayMs);
+  const { command, values } = match;
+  if (!command.replyTemplate) return silent(command, `"${command.name}" has no reply template, so the simulator does not answer it.`, delayMs);
+  const fault = settings.fault ?? 'none';
+  if (fault === 'no-reply') return silent(command, 'The simulator is set never to answer.', delayMs);
+  const frame = assembleFrame(command.replyTemplate, replyFieldValues(command.replyTemplate, values, settings.replyValues?.[command.id]));
+  let sent = frame.bytes;
+  if (fault === 'bad-checksum') sent = spoilChecksum(sent, command.replyTemplate, frame.segments);
+  if (fault === 'wrong-terminator') sent = swapTerminator(sent, frame.segments);
+  const read = receiveAs(sent, settings.line, opener);
+  if (!read.ok) return silent(command, read.error.message, delayMs);
+  return {
+    command: { id: command.id, name: command.name }, silence: null, sent, received: read.value.chars, delayMs,
+    replyWireMs: sent.length * charTimeMs(settings.line), framingErrors: read.value.framingErrors, parityErrors: read.value.parityErrors,
+  };
+}
