@@ -61,6 +61,34 @@ describe('proposals in the browser', () => {
     await shot(tech.page, 'proposal-log-accepted-phone', false);
   }, 180_000);
 
+  it("shows a colleague's save before an accept beside the proposal, and accepts onto it when asked again", async () => {
+    const device = 'dev_demo_plc400';
+    const tech = await browser(PHONE);
+    await signIn(tech.page, 'technician@fernhollow.test');
+    const logged = await tech.page.evaluate(async (id) => {
+      const res = await fetch(`/api/devices/${id}/field-log`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ kind: 'replacement', newSerialNumber: 'VX12-7777', appliedVersion: 1 }) });
+      return res.status;
+    }, device);
+    expect(logged).toBe(201);
+
+    const eng = await browser(DESKTOP);
+    await signIn(eng.page, 'engineer@fernhollow.test');
+    await visit(eng.page, `/vault/devices/${device}`);
+    const colleague = await eng.page.evaluate(async (id) => {
+      const current = await (await fetch(`/api/devices/${id}`)).json();
+      const res = await fetch(`/api/devices/${id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ version: current.version, serialNumber: 'VX12-1201-B' }) });
+      return res.status;
+    }, device);
+    expect(colleague).toBe(200);
+    await eng.page.getByTestId('proposal').getByRole('button', { name: 'Accept into the record' }).click();
+    const notice = eng.page.getByTestId('conflict');
+    await notice.waitFor();
+    expect(await notice.textContent()).toMatch(/Serial number.*VX12-1201-B.*VX12-7777/);
+    await shot(eng.page, 'proposal-conflict-desktop');
+    await notice.getByRole('button', { name: 'Accept onto the record as it is now' }).click();
+    await expect.poll(() => eng.page.getByRole('heading', { level: 1 }).locator('xpath=following-sibling::p[1]').textContent()).toContain('S/N VX12-7777 (earlier VX12-1201, VX12-1201-B)');
+  }, 180_000);
+
   it('shows the demo replacement waiting for review on the device page at both widths', async () => {
     for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
       const { page } = await browser(viewport);

@@ -2,7 +2,10 @@
 import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
-import { api, ApiError } from '../../lib/client/api';
+import { api, ApiError, isStale } from '../../lib/client/api';
+import { compareVersions, type ConflictRow } from '../../lib/client/conflict';
+import { ConflictNotice } from '../ui/ConflictNotice';
+import { portPartLabel, portPartValue } from '../vault/port-parts';
 import { fieldKeys, vaultKeys } from '../../lib/client/keys';
 import { FIELD_LOG_LABELS } from '../../lib/schemas/field';
 import { proposalRows, when, type Proposal } from './proposal-parts';
@@ -30,8 +33,33 @@ export function ProposalTable({ p, against }: { p: Proposal; against: 'now' | 'a
   );
 }
 
+interface Versions { version: number; portVersion?: number }
+interface Clash { noun: string; versions: Versions; rows: ConflictRow[] }
+
+const pickKeys = (from: Record<string, unknown> | null | undefined, keys: string[]) => Object.fromEntries(keys.map((k) => [k, from?.[k]]));
+
+/** The 409's record beside the proposal: what the other person changed since the page was loaded, and what accepting changes. */
+function clashOf(p: Proposal, current: Record<string, unknown> & { version?: number }): Clash {
+  const portVersion = p.found.port && p.record.port ? p.record.port.version : undefined;
+  if (p.found.port && 'settings' in current) {
+    const keys = Object.keys(p.found.port.settings);
+    const base = pickKeys(p.record.port?.settings, keys);
+    const { rows } = compareVersions(base, { ...base, ...p.found.port.settings }, pickKeys(current.settings as Record<string, unknown>, keys));
+    return { noun: `port ${p.found.port.name}`, versions: { version: p.record.version, portVersion: current.version }, rows: rows.map((r) => ({ ...r, path: ['settings', ...r.path] })) };
+  }
+  const keys = (['serialNumber', 'firmware'] as const).filter((k) => p.found[k]);
+  const base = pickKeys(p.record, keys);
+  const mine = Object.fromEntries(keys.map((k) => [k, p.found[k]]));
+  const { rows } = compareVersions(base, mine, pickKeys(current, keys));
+  return { noun: 'device', versions: { version: current.version ?? p.record.version, portVersion }, rows };
+}
+
+const clashLabel = (path: string[]) => path[0] === 'settings' ? portPartLabel(path) : path[0] === 'serialNumber' ? 'Serial number' : 'Firmware';
+const clashValue = (path: string[], v: unknown) => v === undefined || v === '' ? '—' : path[0] === 'settings' ? portPartValue(path, v) ?? String(v) : String(v);
+
 function Decide({ p, deviceId }: { p: Proposal; deviceId: string }) {
   const qc = useQueryClient();
+  const [clash, setClash] = useState<Clash | null>(null);
   const [declining, setDeclining] = useState(false);
   const [note, setNote] = useState('');
   const done = () => {
@@ -39,23 +67,35 @@ function Decide({ p, deviceId }: { p: Proposal; deviceId: string }) {
     qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) });
   };
   const accept = useMutation({
-    mutationFn: () => api<Proposal>(`/api/proposals/${p.id}/accept`, { body: { version: p.record.version, ...(p.found.port && p.record.port ? { portVersion: p.record.port.version } : {}) } }),
+    mutationFn: (v: Versions) => api<Proposal>(`/api/proposals/${p.id}/accept`, { body: v }),
     // The device's details, ports and history on this page show the record as loaded: read them again.
-    onSuccess: () => { done(); qc.invalidateQueries({ queryKey: vaultKeys.all() }); window.location.reload(); },
-    onError: (e) => { if (e instanceof ApiError && e.status === 409) done(); },
+    onSuccess: () => { setClash(null); done(); qc.invalidateQueries({ queryKey: vaultKeys.all() }); window.location.reload(); },
+    onError: (e) => {
+      if (isStale(e)) setClash(clashOf(p, e.body.current));
+      if (e instanceof ApiError && e.status === 409) done();
+    },
   });
+  const versions: Versions = { version: p.record.version, ...(p.found.port && p.record.port ? { portVersion: p.record.port.version } : {}) };
   const decline = useMutation({
     mutationFn: () => api<Proposal>(`/api/proposals/${p.id}/decline`, { body: { note } }),
     onSuccess: done,
   });
-  const stale = accept.error instanceof ApiError && accept.error.status === 409 && !!accept.error.body.current;
+  const stale = !!clash && isStale(accept.error);
   const noteError = decline.error instanceof ApiError ? decline.error.fields.note : undefined;
   return (
     <div className="grid gap-2">
-      {stale && <p className="notice notice-warn" role="alert">Someone changed this device or its port since you opened the page; the table now shows the record as it is. Check it and accept again.</p>}
+      {stale && clash && (
+        <ConflictNotice noun={clash.noun} version={clash.versions.portVersion !== undefined && clash.noun !== 'device' ? clash.versions.portVersion : clash.versions.version} rows={clash.rows}
+          label={clashLabel} show={clashValue} busy={accept.isPending}
+          title={`Someone changed this ${clash.noun} since you opened the page; it is now at version ${clash.noun !== 'device' && clash.versions.portVersion !== undefined ? clash.versions.portVersion : clash.versions.version}.`}
+          explain={`Nothing was written. Their change is below beside what accepting writes; the table shows the record as it is now.`}
+          sides={{ theirs: 'On record now', mine: 'Found on site' }}
+          reapplyLabel="Accept onto the record as it is now" discardLabel="Not now"
+          onReapply={() => accept.mutate(clash.versions)} onDiscard={() => { setClash(null); accept.reset(); }} />
+      )}
       {accept.isError && !stale && <p className="notice notice-bad" role="alert">{accept.error.message}</p>}
       <div className="flex flex-wrap gap-2">
-        <button type="button" className="btn" disabled={accept.isPending} onClick={() => accept.mutate()}>{accept.isPending ? 'Accepting…' : 'Accept into the record'}</button>
+        <button type="button" className="btn" disabled={accept.isPending || stale} onClick={() => accept.mutate(versions)}>{accept.isPending ? 'Accepting…' : 'Accept into the record'}</button>
         {!declining && <button type="button" className="btn btn-quiet" onClick={() => setDeclining(true)}>Decline…</button>}
       </div>
       {declining && (
