@@ -31,4 +31,5 @@ CREATE TABLE `field_proposal` (
 CREATE UNIQUE INDEX `field_proposal_entry_id_unique` ON `field_proposal` (`entry_id`);--> statement-breakpoint
 CREATE INDEX `proposal_team_status_idx` ON `field_proposal` (`team_id`,`status`,`created_at`);--> statement-breakpoint
 CREATE INDEX `proposal_device_idx` ON `field_proposal` (`device_id`,`created_at`);--> statement-breakpoint
+CREATE INDEX `proposal_port_idx` ON `field_proposal` (`port_id`);--> statement-breakpoint
 ALTER TABLE `device` ADD `former_serials` text DEFAULT '[]' NOT NULL;

@@ -108,7 +108,8 @@ export const fieldProposal = sqliteTable(
     acceptedPortVersion: integer('accepted_port_version'),
     createdAt: createdAt(),
   },
-  (t) => [index('proposal_team_status_idx').on(t.teamId, t.status, t.createdAt), index('proposal_device_idx').on(t.deviceId, t.createdAt)],
+  // `port_id`: purging a port sets it to null here, which finds the rows by this index.
+  (t) => [index('proposal_team_status_idx').on(t.teamId, t.status, t.createdAt), index('proposal_device_idx').on(t.deviceId, t.createdAt), index('proposal_port_idx').on(t.portId)],
 );
 
 /** A stored file: its bytes live in the storage backend under `storageKey`. */
