@@ -42,6 +42,8 @@ export const PERMISSIONS = {
   revision: { read: ALL, restore: EDITORS },
   trash: { read: EDITORS, restore: EDITORS, purge: STAFF },
   fieldLog: { read: ALL, create: FIELD, annotate: FIELD },
+  /** What a replacement or finding on site proposes for the record: engineers and above accept or decline it. */
+  proposal: { read: ALL, decide: EDITORS },
   attachment: { read: ALL, create: FIELD, delete: EDITORS },
   share: { read: EDITORS, create: EDITORS, revoke: EDITORS },
   transfer: { export: EDITORS, import: EDITORS },

@@ -6,6 +6,9 @@ import { fieldKeys } from '../../lib/client/keys';
 import { FIELD_LOG_LABELS, FIELD_LOG_KINDS } from '../../lib/schemas/field';
 import { PhotoPicker, type Uploaded } from './PhotoPicker';
 import { Thumb } from './Thumb';
+import { FoundPortFields, foundPortBody, NO_PORT, type FoundPort } from './FoundPortFields';
+import { ProposalOutcome } from './ProposalOutcome';
+import type { Proposal } from './proposal-parts';
 
 type Kind = (typeof FIELD_LOG_KINDS)[number];
 interface Annotation { id: string; note: string; userName: string; createdAt: string }
@@ -14,30 +17,35 @@ interface Entry {
   deviceVersion: number; userName: string; createdAt: string; annotations: Annotation[];
   photos: { id: string; url: string; fileName: string }[];
   files?: { id: string; url: string; fileName: string }[];
+  proposal: Proposal | null;
 }
-interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number }
+interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number; ports?: { id: string; name: string }[] }
 
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
-function NewEntry({ deviceId, cardRevision }: { deviceId: string; cardRevision: number }) {
+function NewEntry({ deviceId, cardRevision, ports }: { deviceId: string; cardRevision: number; ports: { id: string; name: string }[] }) {
   const qc = useQueryClient();
   const [kind, setKind] = useState<Kind>('verified');
   const [serial, setSerial] = useState('');
   const [applied, setApplied] = useState(String(cardRevision));
   const [found, setFound] = useState('');
+  const [firmware, setFirmware] = useState('');
+  const [foundSerial, setFoundSerial] = useState('');
+  const [foundPort, setFoundPort] = useState<FoundPort>(NO_PORT);
   const [note, setNote] = useState('');
   const [photos, setPhotos] = useState<Uploaded[]>([]);
   const m = useMutation({
     mutationFn: () => api<Entry>(`/api/devices/${deviceId}/field-log`, {
       body: {
         kind, note, photoIds: photos.map((p) => p.id),
-        ...(kind === 'replacement' ? { newSerialNumber: serial, appliedVersion: Number(applied) } : {}),
-        ...(kind === 'found-different' ? { foundSettings: found } : {}),
+        ...(kind === 'replacement' ? { newSerialNumber: serial, appliedVersion: Number(applied), firmware } : {}),
+        ...(kind === 'found-different' ? { foundSettings: found, serialNumber: foundSerial, firmware, port: foundPortBody(foundPort) } : {}),
       },
     }),
     onSuccess: () => {
-      setSerial(''); setFound(''); setNote(''); setPhotos([]);
+      setSerial(''); setFound(''); setNote(''); setPhotos([]); setFirmware(''); setFoundSerial(''); setFoundPort(NO_PORT);
       qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) });
+      qc.invalidateQueries({ queryKey: fieldKeys.proposals(deviceId) });
     },
   });
   const fields = m.error instanceof ApiError ? m.error.fields : {};
@@ -61,6 +69,9 @@ function NewEntry({ deviceId, cardRevision }: { deviceId: string; cardRevision: 
           <label className="grid gap-1"><span className="label">Settings loaded from card revision</span>
             <input className="input text-lg" type="number" inputMode="numeric" min={1} max={cardRevision} value={applied} onChange={(e) => setApplied(e.target.value)} aria-invalid={!!fields.appliedVersion} />
             {fields.appliedVersion && <span className="field-error">{fields.appliedVersion}</span>}</label>
+          <label className="grid gap-1"><span className="label">Firmware of the unit fitted (if shown)</span>
+            <input className="input text-lg" value={firmware} onChange={(e) => setFirmware(e.target.value)} aria-invalid={!!fields.firmware} autoComplete="off" />
+            {fields.firmware && <span className="field-error">{fields.firmware}</span>}</label>
         </div>
       )}
       {kind === 'found-different' && (
@@ -68,6 +79,18 @@ function NewEntry({ deviceId, cardRevision }: { deviceId: string; cardRevision: 
           <textarea className="input text-lg" rows={3} value={found} onChange={(e) => setFound(e.target.value)} placeholder="e.g. 19200 8-E-1, address 4, termination off" aria-invalid={!!fields.foundSettings} />
           {fields.foundSettings && <span className="field-error">{fields.foundSettings}</span>}</label>
       )}
+      {kind === 'found-different' && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <label className="grid gap-1"><span className="label">Serial number on the unit, if not the record's</span>
+            <input className="input" value={foundSerial} onChange={(e) => setFoundSerial(e.target.value)} aria-invalid={!!fields.serialNumber} autoComplete="off" />
+            {fields.serialNumber && <span className="field-error">{fields.serialNumber}</span>}</label>
+          <label className="grid gap-1"><span className="label">Firmware on the unit, if not the record's</span>
+            <input className="input" value={firmware} onChange={(e) => setFirmware(e.target.value)} aria-invalid={!!fields.firmware} autoComplete="off" />
+            {fields.firmware && <span className="field-error">{fields.firmware}</span>}</label>
+        </div>
+      )}
+      {kind === 'found-different' && <FoundPortFields ports={ports} value={foundPort} onChange={setFoundPort} errors={fields} />}
+      {(kind === 'replacement' || kind === 'found-different') && <p className="text-sm text-muted">An engineer reviews what you enter here before the record changes; you see the outcome on this entry.</p>}
       <label className="grid gap-1"><span className="label">Note</span>
         <textarea className="input" rows={2} value={note} onChange={(e) => setNote(e.target.value)} /></label>
       <PhotoPicker deviceId={deviceId} photos={photos} onChange={setPhotos} />
@@ -104,6 +127,7 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
       {e.kind === 'replacement' && <p>New unit S/N <strong className="mono">{e.newSerialNumber}</strong>, settings from card revision <strong>{e.appliedVersion}</strong></p>}
       {e.kind === 'found-different' && <p>Found on site: <strong className="whitespace-pre-wrap">{e.foundSettings}</strong></p>}
       {e.note && <p className="whitespace-pre-wrap">{e.note}</p>}
+      {e.proposal && <ProposalOutcome p={e.proposal} />}
       {e.photos.length > 0 && <div className="flex flex-wrap gap-2">{e.photos.map((p) => <Thumb key={p.id} url={p.url} name={p.fileName} />)}</div>}
       {!!e.files?.length && <ul className="text-sm" aria-label="Files">{e.files.map((f) => <li key={f.id}><a href={f.url} download={f.fileName} data-testid="log-file">{f.fileName}</a></li>)}</ul>}
       {e.annotations.length > 0 && (
@@ -116,13 +140,13 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
   );
 }
 
-function Panel({ deviceId, cardRevision, canCreate, canAnnotate, limit }: Props) {
+function Panel({ deviceId, cardRevision, canCreate, canAnnotate, limit, ports = [] }: Props) {
   const q = useQuery({ queryKey: fieldKeys.log(deviceId), queryFn: () => api<{ items: Entry[] }>(`/api/devices/${deviceId}/field-log`) });
   const items = q.data?.items ?? [];
   const shown = limit ? items.slice(0, limit) : items;
   return (
     <div className="grid gap-4">
-      {canCreate && <NewEntry deviceId={deviceId} cardRevision={cardRevision} />}
+      {canCreate && <NewEntry deviceId={deviceId} cardRevision={cardRevision} ports={ports} />}
       <section className="grid gap-2" aria-label="Field log">
         <h2>Field log</h2>
         {q.isPending && <p>Loading the field log…</p>}

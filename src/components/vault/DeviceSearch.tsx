@@ -5,9 +5,9 @@ import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
 
-interface Hit { id: string; tag: string; name: string; maker: string; model: string; serialNumber: string; siteName: string; machineName: string; matched: string[] }
+interface Hit { id: string; tag: string; name: string; maker: string; model: string; serialNumber: string; formerSerials: string[]; siteName: string; machineName: string; matched: string[] }
 
-const FIELD_WORDS: Record<string, string> = { tag: 'tag', name: 'name', maker: 'maker', model: 'model', serialNumber: 'serial', siteName: 'site', machineName: 'machine' };
+const FIELD_WORDS: Record<string, string> = { tag: 'tag', name: 'name', maker: 'maker', model: 'model', serialNumber: 'serial', formerSerials: 'earlier serial', siteName: 'site', machineName: 'machine' };
 
 function Finder() {
   const [text, setText] = useState('');
@@ -34,7 +34,7 @@ function Finder() {
             {res.data.items.map((h) => (
               <li key={h.id} className="py-1.5">
                 <a href={`/vault/devices/${h.id}`} className="font-semibold">{h.tag}</a> <span>{h.name}</span>
-                <span className="block text-xs text-muted">{[h.maker, h.model, h.serialNumber].filter(Boolean).join(' · ')} — {h.siteName} › {h.machineName} · matched {h.matched.map((m) => FIELD_WORDS[m]).join(', ')}</span>
+                <span className="block text-xs text-muted">{[h.maker, h.model, h.serialNumber].filter(Boolean).join(' · ')}{h.matched.includes('formerSerials') && ` (earlier S/N ${h.formerSerials.join(', ')})`} — {h.siteName} › {h.machineName} · matched {h.matched.map((m) => FIELD_WORDS[m]).join(', ')}</span>
               </li>
             ))}
           </ul>

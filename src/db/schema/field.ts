@@ -5,12 +5,17 @@
 import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
 import { user } from './auth';
-import { device } from './vault';
+import { device, port } from './vault';
+import type { PortSettings } from '../../lib/frame/port-settings';
 
 export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
 export const ATTACHMENT_KINDS = ['manual', 'photo', 'config'] as const;
 export const ATTACHMENT_OWNERS = ['device', 'machine'] as const;
 export const SHARE_SCOPES = ['machine', 'site'] as const;
+/** Field-log kinds that propose a change to the record, and where a proposal stands. */
+export const PROPOSAL_KINDS = ['replacement', 'found-different'] as const;
+export const PROPOSAL_STATUSES = ['pending', 'accepted', 'declined'] as const;
+export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
 export type FieldLogKind = (typeof FIELD_LOG_KINDS)[number];
 export type AttachmentKind = (typeof ATTACHMENT_KINDS)[number];
 
@@ -61,6 +66,50 @@ export const fieldLogAnnotation = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index('field_annotation_entry_idx').on(t.entryId, t.createdAt)],
+);
+
+/**
+ * What a replacement or found-different entry says the record should become, for an engineer to accept or
+ * decline (docs/decisions/014-field-proposals.md). The entry stays as written; only the proposal's decision
+ * columns change, once, from pending.
+ */
+export const fieldProposal = sqliteTable(
+  'field_proposal',
+  {
+    id: text('id').primaryKey(),
+    teamId: teamId(),
+    deviceId: text('device_id')
+      .notNull()
+      .references(() => device.id, { onDelete: 'cascade' }),
+    entryId: text('entry_id')
+      .notNull()
+      .unique()
+      .references(() => fieldLogEntry.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: PROPOSAL_KINDS }).notNull(),
+    /** Serial number and firmware of the unit on site; '' = not reported (the record's stays). */
+    serialNumber: text('serial_number').notNull().default(''),
+    firmware: text('firmware').notNull().default(''),
+    /** The port whose settings were found different, and those settings (only the ones reported). */
+    portId: text('port_id').references(() => port.id, { onDelete: 'set null' }),
+    portName: text('port_name').notNull().default(''),
+    portSettings: text('port_settings', { mode: 'json' }).$type<Partial<PortSettings>>(),
+    /** The record when the entry was written: serial number, firmware, record version, the named port's settings. */
+    recordSerialNumber: text('record_serial_number').notNull().default(''),
+    recordFirmware: text('record_firmware').notNull().default(''),
+    recordVersion: integer('record_version').notNull(),
+    recordPortSettings: text('record_port_settings', { mode: 'json' }).$type<PortSettings>(),
+    status: text('status', { enum: PROPOSAL_STATUSES }).notNull().default('pending'),
+    decisionNote: text('decision_note').notNull().default(''),
+    decidedBy: text('decided_by').references(() => user.id, { onDelete: 'set null' }),
+    decidedByName: text('decided_by_name').notNull().default(''),
+    decidedAt: integer('decided_at', { mode: 'timestamp_ms' }),
+    /** Accepted: the device's and the port's versions the acceptance wrote (null when it changed nothing there). */
+    acceptedVersion: integer('accepted_version'),
+    acceptedPortVersion: integer('accepted_port_version'),
+    createdAt: createdAt(),
+  },
+  // `port_id`: purging a port sets it to null here, which finds the rows by this index.
+  (t) => [index('proposal_team_status_idx').on(t.teamId, t.status, t.createdAt), index('proposal_device_idx').on(t.deviceId, t.createdAt), index('proposal_port_idx').on(t.portId)],
 );
 
 /** A stored file: its bytes live in the storage backend under `storageKey`. */

@@ -128,6 +128,11 @@ export const device = sqliteTable(
     maker: text('maker').notNull().default(''),
     model: text('model').notNull().default(''),
     serialNumber: text('serial_number').notNull().default(''),
+    /**
+     * Serial numbers this device's record held before, oldest first (kept when the serial changes, so a unit's
+     * earlier numbers still find it in search). Not part of its revisions: restoring a revision keeps them.
+     */
+    formerSerials: text('former_serials', { mode: 'json' }).$type<string[]>().notNull().default([]),
     firmware: text('firmware').notNull().default(''),
     location: text('location').notNull().default(''),
     notes: text('notes').notNull().default(''),

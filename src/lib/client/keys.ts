@@ -33,9 +33,11 @@ export const commandKeys = {
   copyTargets: () => ['commands', 'copy-targets'] as const,
 };
 
-/** Field work: a device's field log, the files of a device or machine, the team's share links. */
+/** Field work: a device's field log and proposals, the files of a device or machine, the team's share links. */
 export const fieldKeys = {
   log: (deviceId: string) => ['field', 'log', deviceId] as const,
+  /** `/api/proposals?deviceId=` (pending ones). */
+  proposals: (deviceId: string) => ['field', 'proposals', deviceId] as const,
   attachments: (ownerType: string, ownerId: string) => ['field', 'attachments', ownerType, ownerId] as const,
   shares: () => ['field', 'shares'] as const,
 };

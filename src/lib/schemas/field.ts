@@ -1,9 +1,10 @@
 /** Request schemas for field work and sharing: field log, attachments, share links, import and export. */
 import { z } from 'zod';
+import { portSettingsObjectSchema, type PortSettings } from '../frame/port-settings';
 import { templateSchema } from '../frame/template';
 import { presetsSchema, savedSequenceSchema, valuesProblems } from './commands';
 import { emailSchema } from './platform';
-import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, wiringRowSchema } from './vault';
+import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, versionSchema, wiringRowSchema } from './vault';
 
 export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
 export const ATTACHMENT_KINDS = ['manual', 'photo', 'config'] as const;
@@ -21,11 +22,25 @@ const id = z.string().min(1, 'Choose a record.').max(64);
 
 // ---- field log ----
 const photoIds = z.array(id).max(10, 'At most 10 photos per entry.').default([]);
+
+/**
+ * Port settings as found on site: any of a port's settings (the frame engine's schema, each one optional and
+ * without its default), unknown fields refused. Frame rules are the vault's own and not found on a device.
+ */
+export type FoundPortSettings = { [K in Exclude<keyof PortSettings, 'frameRules'>]?: PortSettings[K] };
+const foundShape: z.ZodRawShape = Object.fromEntries(Object.entries(portSettingsObjectSchema.shape)
+  .filter(([key]) => key !== 'frameRules')
+  .map(([key, field]) => [key, (field instanceof z.ZodDefault ? field.removeDefault() : field).optional()]));
+export const foundPortSettingsSchema = (z.strictObject(foundShape) as unknown as z.ZodType<FoundPortSettings>)
+  .refine((s) => Object.values(s).some((v) => v !== undefined), 'Give at least one setting you found, or leave the port out.');
+
 export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('replacement'),
     newSerialNumber: text(120).min(1, 'Enter the serial number of the unit fitted.'),
     appliedVersion: z.number({ error: 'Say which revision of the settings was loaded.' }).int().positive('Revisions start at 1.'),
+    /** Firmware of the unit fitted, when read off it. */
+    firmware: text(60).default(''),
     note: text(4000).default(''),
     photoIds,
   }),
@@ -37,11 +52,31 @@ export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('found-different'),
     foundSettings: text(2000).min(1, 'Describe what you found set on the device.'),
+    /** What the unit's plate or display says, when it differs from the record. */
+    serialNumber: text(120).default(''),
+    firmware: text(60).default(''),
+    /** One port's settings as found, for an engineer to apply to that port. */
+    port: z.strictObject({ portId: id, settings: foundPortSettingsSchema }).optional(),
     note: text(4000).default(''),
     photoIds,
   }),
 ], { error: 'Choose what happened: replacement, verified or found-different.' });
 export type FieldLogCreate = z.infer<typeof fieldLogCreateSchema>;
+
+// ---- proposals ----
+export const PROPOSAL_STATUSES = ['pending', 'accepted', 'declined'] as const;
+export const PROPOSAL_STATUS_LABELS: Record<(typeof PROPOSAL_STATUSES)[number], string> = {
+  pending: 'Waiting for review',
+  accepted: 'Accepted into the record',
+  declined: 'Declined',
+};
+export const proposalListSchema = z.strictObject({
+  deviceId: id.optional(),
+  status: z.enum([...PROPOSAL_STATUSES, 'all'], { error: 'Choose pending, accepted, declined or all.' }).default('pending'),
+});
+/** Accepting: the device record version reviewed, and the named port's version when the proposal carries port settings. */
+export const proposalAcceptSchema = z.strictObject({ version: versionSchema, portVersion: versionSchema.optional() });
+export const proposalDeclineSchema = z.strictObject({ note: text(2000).min(1, 'Say why, so the technician knows what to do next.') });
 
 export const annotationCreateSchema = z.strictObject({ note: text(2000).min(1, 'Write the annotation.') });
 

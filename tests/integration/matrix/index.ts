@@ -22,3 +22,7 @@ extraCases.push(...commandCases);
 import { fieldCases, fieldPublicRoutes } from './field-cases';
 extraCases.push(...fieldCases);
 extraPublicRoutes.push(...fieldPublicRoutes);
+
+// Proposals from the field log (replacements and findings reaching the record).
+import { proposalCases } from './proposal-cases';
+extraCases.push(...proposalCases);

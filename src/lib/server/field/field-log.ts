@@ -12,6 +12,7 @@ import { cardRevision } from './cards';
 import { liveDevice } from './scope';
 import { presentAttachment, type AttachmentView } from './attachments';
 import { Invalid, notFound } from '../errors';
+import { makesProposal, notifyReviewers, proposalsOfEntries, proposeFromEntry, type ProposalView } from './proposals';
 
 type EntryRow = typeof fieldLogEntry.$inferSelect;
 type AnnotationRow = typeof fieldLogAnnotation.$inferSelect;
@@ -21,6 +22,8 @@ export interface FieldLogEntryView extends EntryRow {
   photos: AttachmentView[];
   /** Other files of the entry: the live link's transcript of a "communication verified" entry. */
   files: AttachmentView[];
+  /** What a replacement or finding proposed for the record, and the engineer's decision; null for other kinds. */
+  proposal: ProposalView | null;
 }
 
 export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 200): Promise<FieldLogEntryView[]> {
@@ -30,23 +33,28 @@ export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 2
     .orderBy(desc(fieldLogEntry.createdAt), desc(fieldLogEntry.id)).limit(limit);
   if (!entries.length) return [];
   const ids = entries.map((e) => e.id);
-  const [notes, photos] = await Promise.all([
+  const [notes, photos, proposals] = await Promise.all([
     db.select().from(fieldLogAnnotation).where(and(eq(fieldLogAnnotation.teamId, ctx.team.id), inArray(fieldLogAnnotation.entryId, ids))).orderBy(asc(fieldLogAnnotation.createdAt)),
     db.select().from(attachment).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.entryId, ids))).orderBy(asc(attachment.createdAt)),
+    proposalsOfEntries(ctx, ids),
   ]);
   return entries.map((e) => ({
     ...e,
     annotations: notes.filter((n) => n.entryId === e.id),
     photos: photos.filter((p) => p.entryId === e.id && p.kind === 'photo').map(presentAttachment),
     files: photos.filter((p) => p.entryId === e.id && p.kind !== 'photo').map(presentAttachment),
+    proposal: proposals.get(e.id) ?? null,
   }));
 }
 
-/** Writes the entry and claims its photos (uploaded beforehand to the device, not yet in any entry) in one transaction. */
+/**
+ * Writes the entry and claims its photos (uploaded beforehand to the device, not yet in any entry) in one transaction;
+ * a replacement or finding also writes its proposal there, and its reviewers are e-mailed once it is saved.
+ */
 export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate): Promise<FieldLogEntryView> {
   const id = newId('flog');
   await db.transaction(async (tx) => {
-    await liveDevice(ctx, deviceId, tx);
+    const dev = await liveDevice(ctx, deviceId, tx);
     const rev = await cardRevision(ctx, deviceId);
     if (input.kind === 'replacement' && input.appliedVersion > rev.number) {
       throw new Invalid(`appliedVersion: this card is at revision ${rev.number}`, {
@@ -82,7 +90,9 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
     });
     const claimed = transcriptId ? [...photoIds, transcriptId] : photoIds;
     if (claimed.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, claimed)));
+    await proposeFromEntry(tx, ctx, dev, id, input);
   });
+  if (makesProposal(input.kind)) await notifyReviewers(ctx, id);
   return (await listFieldLog(ctx, deviceId)).find((e) => e.id === id)!;
 }
 

@@ -6,4 +6,5 @@ export async function seedDemo(): Promise<void> {
   const ids = await seedPlatform();
   await seedVault(ids);
   await (await import('./commands')).seedCommands(ids);
+  await (await import('./field')).seedFieldWork(ids);
 }

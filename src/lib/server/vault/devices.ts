@@ -12,6 +12,7 @@ import { presentPort, type PortView } from './present';
 import { definedOnly } from '../records/diff';
 import { deviceListStatement, type DeviceListOptions } from './device-list-sql';
 import { duplicateFrom, notFound } from '../errors';
+import { formerSerialsAfter } from '../../field/serials';
 
 export interface DeviceListItem {
   id: string; tag: string; name: string; role: DeviceRow['role']; maker: string; model: string; serialNumber: string;
@@ -116,8 +117,9 @@ export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<
   const { version, ...values } = input;
   return db.transaction(async (tx) => {
     if (values.machineId) await findLive(tx, ctx, machineEntity, values.machineId);
+    const former = values.serialNumber === undefined ? null : formerSerialsAfter(await findLive(tx, ctx, deviceEntity, id), values.serialNumber);
     try {
-      await updateVersioned(tx, ctx, deviceEntity, id, version, definedOnly(values), { present: () => getDevice(ctx, id, tx) });
+      await updateVersioned(tx, ctx, deviceEntity, id, version, { ...definedOnly(values), ...(former ? { formerSerials: former } : {}) }, { present: () => getDevice(ctx, id, tx) });
     } catch (err) {
       throw uniqueTag(err);
     }

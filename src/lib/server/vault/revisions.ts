@@ -8,6 +8,8 @@ import { entityOf } from '../records/entities';
 import { findInTeam, hydrated, refuseTrashed } from '../records/engine';
 import { snapshotValues } from '../records/entity';
 import { uniqueName, uniqueTag } from './devices';
+import type { DeviceRow } from '../records/entities';
+import { formerSerialsAfter } from '../../field/serials';
 import { referencesOf, refuseMissing } from '../records/references';
 import { Invalid } from '../errors';
 
@@ -57,7 +59,10 @@ export async function restoreRevision(ctx: TeamContext, id: string, version: num
     const current = await findAny(tx, ctx, rev.entityType, rev.entityId);
     refuseTrashed(entity, current);
     await refuseMissing(tx, ctx, `Version ${rev.version} of this ${entity.noun}`, referencesOf(entity, rev.snapshot, await hydrated(tx, entity, current)));
-    const values = snapshotValues(entity, rev.snapshot);
+    const values: Record<string, unknown> = snapshotValues(entity, rev.snapshot);
+    // A device going back to an earlier serial number keeps the one it leaves among its earlier ones (searchable).
+    const former = rev.entityType === 'device' ? formerSerialsAfter(current as DeviceRow, values.serialNumber as string | undefined) : null;
+    if (former) values.formerSerials = former;
     try {
       const { row, changes } = await updateVersioned(tx, ctx, entity, rev.entityId, version, values, {
         action: 'revert',

@@ -6,10 +6,12 @@ import type { Page } from './records';
 import { ftsQuery } from './fts';
 import { Invalid } from '../errors';
 
-export const SEARCH_FIELDS = ['tag', 'name', 'maker', 'model', 'serialNumber', 'siteName', 'machineName'] as const;
+export const SEARCH_FIELDS = ['tag', 'name', 'maker', 'model', 'serialNumber', 'formerSerials', 'siteName', 'machineName'] as const;
 
 export interface SearchHit {
   id: string; tag: string; name: string; role: string; maker: string; model: string; serialNumber: string;
+  /** Serial numbers the device's record held before (a unit replaced in the field is still found by its old one). */
+  formerSerials: string[];
   machineId: string; machineName: string; siteId: string; siteName: string;
   /** Fields in which the search words were found. */
   matched: string[];
@@ -23,7 +25,7 @@ export async function searchDevices(ctx: TeamContext, q: string, page: number, p
   // job's devices have their rows before they are shown (`searchRowsOf`), so only live devices count.
   const [rows, totals] = await Promise.all([
     db.all<Record<string, string>>(sql`
-      SELECT d.id, d.tag, d.name, d.role, d.maker, d.model, d.serial_number AS serialNumber,
+      SELECT d.id, d.tag, d.name, d.role, d.maker, d.model, d.serial_number AS serialNumber, d.former_serials AS formerSerials,
              f.machine_name AS machineName, f.site_name AS siteName, d.machine_id AS machineId, m.site_id AS siteId
       FROM device_search f
       JOIN device d ON d.id = f.device_id
@@ -35,7 +37,11 @@ export async function searchDevices(ctx: TeamContext, q: string, page: number, p
       WHERE device_search MATCH ${match} AND f.team_id = ${ctx.team.id} AND d.deleted_at IS NULL`),
   ]);
   const words = match.match(/"([^"]+)"/g)!.map((w) => w.slice(1, -1));
-  const items = rows.map((r) => ({ ...(r as unknown as Omit<SearchHit, 'matched'>), matched: matchedFields(r, words) }));
+  const items = rows.map((r) => ({
+    ...(r as unknown as Omit<SearchHit, 'matched' | 'formerSerials'>),
+    formerSerials: JSON.parse(r.formerSerials ?? '[]') as string[],
+    matched: matchedFields(r, words),
+  }));
   return { items, page, pageSize, total: Number(totals[0]?.n ?? 0), sort: 'rank', dir: 'asc', q };
 }
 
@@ -49,11 +55,11 @@ function matchedFields(row: Record<string, string>, words: string[]): string[] {
 /**
  * The search rows of devices a long job writes out of sight, written in the same batch as the devices (the row
  * `device_search_ai` would write for a live device), so the job's final transaction need not write them: showing
- * a device whose trash stamp is a job's id adds no search row (migration 0015).
+ * a device whose trash stamp is a job's id adds no search row (migrations 0015 and 0019, whose columns these are).
  */
 export function searchRowsOf(deviceIds: readonly string[]): SQL {
-  return sql`INSERT INTO device_search (device_id, team_id, tag, name, maker, model, serial_number, site_name, machine_name)
-    SELECT d.id, d.team_id, d.tag, d.name, d.maker, d.model, d.serial_number, s.name, m.name
+  return sql`INSERT INTO device_search (device_id, team_id, tag, name, maker, model, serial_number, former_serials, site_name, machine_name)
+    SELECT d.id, d.team_id, d.tag, d.name, d.maker, d.model, d.serial_number, d.former_serials, s.name, m.name
     FROM device d JOIN machine m ON m.id = d.machine_id JOIN site s ON s.id = m.site_id
     WHERE d.id IN (${sql.join(deviceIds.map((id) => sql`${id}`), sql`, `)})`;
 }
