@@ -51,6 +51,10 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
   const commands = fresh('commands', doc.commands).map(({ source: c, target }) => ({
     ...c, ...stamp, id: target, deviceId: c.deviceId ? ids.devices.get(c.deviceId)! : null, profileId: c.profileId ? ids.profiles.get(c.profileId)! : null,
   }));
+  // A bus plan names member ports and commands: mapped as the members are (commands are mapped by now).
+  for (const l of links) {
+    if (l.busPlan) l.busPlan = { ...l.busPlan, polls: l.busPlan.polls.map((p) => ({ ...p, portId: ids.ports.get(p.portId)!, ...(p.commandId ? { commandId: ids.commands.get(p.commandId)! } : {}) })) };
+  }
 
   await stage.add(site, sites);
   await stage.add(machine, machines);
