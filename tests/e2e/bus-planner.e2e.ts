@@ -5,7 +5,7 @@ import { ARTIFACTS, browserPool, DESKTOP, PHONE, shot, signIn, visit } from './h
 const openInPool = browserPool();
 
 describe('poll cycle panel', () => {
-  it('finds the short response timeout on the demo bus, clears it after an edit, and fits 390 px and print', async () => {
+  it('finds the short response timeout on the demo bus, clears it after an edit, and fits 390 px and print', { timeout: 120_000 }, async () => {
     const { page } = await openInPool({ viewport: PHONE });
     await signIn(page, 'technician@fernhollow.test');
     await visit(page, '/vault/links/link_demo_churn_bus');

@@ -134,7 +134,7 @@ function Panel({ plan, link, canEdit }: { plan: BusPlan; link: PlanLink; canEdit
   const field = (label: string, fid: string, value: string, onChange: (v: string) => void, path: string, hint?: string) => (
     <div>
       <label htmlFor={fid} className="label !text-xs">{label}</label>
-      <input id={fid} className="input !py-1" inputMode="decimal" value={value} aria-invalid={!!problems[path]} onChange={(e) => onChange(e.target.value)} />
+      <input id={fid} className="input !py-1 disabled:bg-paper disabled:border-line" inputMode="decimal" value={value} aria-invalid={!!problems[path]} onChange={(e) => onChange(e.target.value)} />
       {hint && <span className="block text-xs text-muted">{hint}</span>}
       {problem(path)}
     </div>
@@ -187,25 +187,25 @@ function Panel({ plan, link, canEdit }: { plan: BusPlan; link: PlanLink; canEdit
                   {field('Response time (ms)', f('rs'), p.responseMs, (v) => set(p.key, { responseMs: v }), `polls.${i}.responseMs`)}
                   {field('Per cycle', f('pc'), p.perCycle, (v) => set(p.key, { perCycle: v }), `polls.${i}.perCycle`)}
                 </div>
-                <button type="button" className="btn btn-quiet btn-sm mt-2" onClick={() => setPolls(polls.filter((x) => x.key !== p.key))} aria-label={`Remove poll ${p.label || i + 1}`}>Remove</button>
+                {canEdit && <button type="button" className="btn btn-quiet btn-sm mt-2" onClick={() => setPolls(polls.filter((x) => x.key !== p.key))} aria-label={`Remove poll ${p.label || i + 1}`}>Remove</button>}
               </fieldset>
             </li>
           );
         })}
       </ol>
       {problem('polls')}
-      <div className="flex flex-wrap items-end gap-2 mb-4">
+      {canEdit && <div className="flex flex-wrap items-end gap-2 mb-4">
         <label className="grow"><span className="label">Add a poll of</span>
           <select className="input" value={adding} onChange={(e) => setAdding(e.target.value)}>
             {plan.members.map((m) => <option key={m.portId} value={m.portId}>{m.label}</option>)}
           </select>
         </label>
         <button type="button" className="btn btn-quiet" onClick={() => setPolls([...polls, newPoll(memberOf(adding))])}>Add poll</button>
-      </div>
+      </div>}
 
       <details className="mb-4">
         <summary className="cursor-pointer font-medium">Cable layout (drops)</summary>
-        <p className="text-sm text-muted my-2">Trunk: {plan.trunkM != null ? `${plan.trunkM} m (the link's cable length)` : 'not recorded (set the cable length in the link details)'}. A drop is the stub from the trunk to the device; 0 or empty when the trunk runs through it.</p>
+        <p className="text-sm text-muted my-2">Trunk: {trunkM != null ? `${trunkM} m (the link's cable length)` : 'not recorded (set the cable length in the link details)'}. A drop is the stub from the trunk to the device; 0 or empty when the trunk runs through it.</p>
         <div className="mb-2">
           <label htmlFor={`${id}-topo`} className="label !text-xs">Layout</label>
           <select id={`${id}-topo`} className="input !py-1 !w-auto" value={topology} onChange={(e) => put({ topology: e.target.value as '' | BusTopology })}>
