@@ -5,7 +5,7 @@ import { ARTIFACTS, browserPool, DESKTOP, PHONE, shot, signIn, visit } from './h
 const openInPool = browserPool();
 
 describe('poll cycle panel', () => {
-  it('finds the short response timeout on the demo bus, clears it after an edit, and fits 390 px and print', async () => {
+  it('finds the short response timeout on the demo bus, clears it after an edit, and fits 390 px and print', { timeout: 120_000 }, async () => {
     const { page } = await openInPool({ viewport: PHONE });
     await signIn(page, 'technician@fernhollow.test');
     await visit(page, '/vault/links/link_demo_churn_bus');
@@ -20,15 +20,26 @@ describe('poll cycle panel', () => {
 
     const rows = panel.getByTestId('poll-row');
     expect(await rows.count()).toBe(3);
-    await rows.nth(2).getByLabel('Response time (ms)').fill('30');
-    await expect.poll(() => findings.locator('[data-code="response-timeout-too-short"]').count()).toBe(0);
-    await panel.getByLabel('Target cycle (ms)').fill('100');
-    await expect.poll(() => findings.locator('[data-code="cycle-over-target"]').count()).toBe(1);
+    // A technician reads the saved plan (role matrix: link:update is engineer and above): no save button, fields read-only.
+    expect(await panel.getByRole('button', { name: 'Save the plan' }).count()).toBe(0);
+    expect(await rows.nth(2).getByLabel('Response time (ms)').isDisabled()).toBe(true);
 
-    await page.emulateMedia({ media: 'print' });
-    expect(await panel.getByTestId('bus-timeline').isVisible()).toBe(true);
-    await shot(page, 'bus-planner-print');
-    await panel.getByTestId('bus-timeline').screenshot({ path: `${ARTIFACTS}/bus-planner-timeline-print.png` });
+    // An engineer at the same width tries figures.
+    const edit = (await openInPool({ viewport: PHONE })).page;
+    await signIn(edit, 'engineer@fernhollow.test');
+    await visit(edit, '/vault/links/link_demo_churn_bus');
+    const editPanel = edit.getByTestId('poll-cycle');
+    const editFindings = editPanel.getByTestId('cycle-findings');
+    const editRows = editPanel.getByTestId('poll-row');
+    await editRows.nth(2).getByLabel('Response time (ms)').fill('30');
+    await expect.poll(() => editFindings.locator('[data-code="response-timeout-too-short"]').count()).toBe(0);
+    await editPanel.getByLabel('Target cycle (ms)').fill('100');
+    await expect.poll(() => editFindings.locator('[data-code="cycle-over-target"]').count()).toBe(1);
+
+    await edit.emulateMedia({ media: 'print' });
+    expect(await editPanel.getByTestId('bus-timeline').isVisible()).toBe(true);
+    await shot(edit, 'bus-planner-print');
+    await editPanel.getByTestId('bus-timeline').screenshot({ path: `${ARTIFACTS}/bus-planner-timeline-print.png` });
 
     const desktop = (await openInPool({ viewport: DESKTOP })).page;
     await signIn(desktop, 'engineer@fernhollow.test');
@@ -36,5 +47,30 @@ describe('poll cycle panel', () => {
     await desktop.getByTestId('poll-cycle').scrollIntoViewIfNeeded();
     await shot(desktop, 'bus-planner-desktop');
     await desktop.getByTestId('poll-cycle').screenshot({ path: `${ARTIFACTS}/bus-planner-panel-desktop.png` });
+  });
+
+  it('saves the plan and loads it again after a reload', async () => {
+    const { page } = await openInPool({ viewport: DESKTOP });
+    await signIn(page, 'engineer@fernhollow.test');
+    await visit(page, '/vault/links/link_demo_churn_bus');
+    const panel = page.getByTestId('poll-cycle');
+    expect(await panel.getByTestId('plan-state').textContent()).toContain('The saved plan of this bus');
+    expect(await panel.getByLabel('Target cycle (ms)').inputValue()).toBe('250');
+    await panel.getByLabel('Target cycle (ms)').fill('300');
+    await panel.getByText('Cable layout (drops)').click();
+    await panel.getByLabel('Drop (m)').nth(2).fill('4');
+    await panel.getByRole('button', { name: 'Save the plan' }).click();
+    await panel.getByText('Nothing to save.').waitFor();
+    await shot(page, 'bus-planner-saved');
+
+    await visit(page, '/vault/links/link_demo_churn_bus');
+    expect(await panel.getByLabel('Target cycle (ms)').inputValue()).toBe('300');
+    await panel.getByText('Cable layout (drops)').click();
+    expect(await panel.getByLabel('Drop (m)').nth(2).inputValue()).toBe('4');
+    // The saved plan still keeps PLC-200's 50 ms timeout: DRV-203's 60 ms reply is still found.
+    expect(await panel.getByTestId('cycle-findings').locator('[data-code="response-timeout-too-short"]').count()).toBe(1);
+    // The history names the change.
+    await page.getByRole('heading', { name: 'History' }).scrollIntoViewIfNeeded();
+    await page.getByRole('cell', { name: 'busPlan.targetCycleMs', exact: true }).first().waitFor({ state: 'attached' });
   });
 });

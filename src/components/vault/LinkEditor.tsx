@@ -12,7 +12,7 @@ import { EntityForm } from './EntityForm';
 import { linkFieldDefs } from './field-defs';
 import { ErrorNotice, StateBadge, useUnsavedGuard } from './shared';
 
-interface Member { portId: string; role: (typeof MEMBER_ROLES)[number]; isEnd: boolean | null; unitLoads: number | null; deviceTag: string; portName: string; deviceId: string; shorthand: string; inTrash: boolean }
+interface Member { portId: string; role: (typeof MEMBER_ROLES)[number]; isEnd: boolean | null; unitLoads: number | null; dropM: number | null; tapPorts: number | null; deviceTag: string; portName: string; deviceId: string; shorthand: string; inTrash: boolean }
 interface Finding { severity: 'error' | 'warning' | 'info'; code: string; message: string; memberLabel?: string }
 export interface LinkData {
   id: string; version: number; name: string; kind: 'point-to-point' | 'rs485-bus'; cableType: string; cableLengthM: number | null; notes: string;

@@ -11,6 +11,7 @@ import { sqliteTable, text, integer, real, index, primaryKey, uniqueIndex, type 
 import { team } from './teams';
 import { user } from './auth';
 import type { PortSettings } from '../../lib/frame/port-settings';
+import type { StoredBusPlan } from '../../lib/schemas/bus-plan';
 
 export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
 export const LINK_KINDS = ['point-to-point', 'rs485-bus'] as const;
@@ -190,6 +191,8 @@ export const link = sqliteTable(
     cableType: text('cable_type').notNull().default(''),
     cableLengthM: real('cable_length_m'),
     notes: text('notes').notNull().default(''),
+    /** What the master polls on a bus, and its timing overrides (docs/vault.md, bus planner); null when not planned. */
+    busPlan: text('bus_plan', { mode: 'json' }).$type<StoredBusPlan>(),
     ...bookkeeping(),
   },
   (t) => [index('link_machine_idx').on(t.machineId, t.deletedAt, t.name), index('link_team_idx').on(t.teamId, t.deletedAt, t.name), trashIndex('link_trash_idx', t.trashId)],
@@ -211,6 +214,10 @@ export const linkMember = sqliteTable(
     isEnd: integer('is_end', { mode: 'boolean' }),
     /** RS-485 receiver load in unit loads; null means 1. */
     unitLoads: real('unit_loads'),
+    /** Length of its drop (stub) cable from the trunk, m; null when not recorded, 0 when the trunk runs through it. */
+    dropM: real('drop_m'),
+    /** Drops sharing its tap (a multi-port tap); null when not recorded. */
+    tapPorts: integer('tap_ports'),
   },
   (t) => [primaryKey({ columns: [t.linkId, t.portId] }), index('link_member_port_idx').on(t.portId)],
 );

@@ -7,7 +7,7 @@ interface Doc {
   profiles: { id: string }[];
   devices: { id: string; machineId: string; profileId: string | null; tag: string }[];
   ports: { id: string; deviceId: string; name: string }[];
-  links: { id: string; machineId: string; name: string; members: { portId: string }[] }[];
+  links: { id: string; machineId: string; name: string; members: { portId: string }[]; busPlan?: { polls: { portId: string; commandId?: string }[] } | null }[];
   commands: { id: string; deviceId: string | null; profileId: string | null; name: string; sequence?: { steps: { commandId?: string }[] } }[];
 }
 
@@ -49,6 +49,13 @@ export function documentProblems(doc: Doc, max = 20): string[] {
     portDevice.set(p.id, p.deviceId);
   }
   const deviceMachine = new Map(doc.devices.map((d) => [d.id, d.machineId]));
+  const deviceProfile = new Map(doc.devices.map((d) => [d.id, d.profileId]));
+  const commandOwner = new Map(doc.commands.map((c) => [c.id, c]));
+  /** A command of the device, or of the device's profile. */
+  const inLibrary = (commandId: string, deviceId: string | undefined) => {
+    const c = commandOwner.get(commandId);
+    return !!c && !!deviceId && (c.deviceId === deviceId || (c.profileId !== null && c.profileId === deviceProfile.get(deviceId)));
+  };
   for (const l of doc.links) {
     if (!machines.has(l.machineId)) add(`link ${l.name}: its machine ${l.machineId} is not in the document`);
     for (const m of l.members) {
@@ -56,6 +63,11 @@ export function documentProblems(doc: Doc, max = 20): string[] {
       if (!dev) add(`link ${l.name}: member port ${m.portId} is not in the document`);
       else if (deviceMachine.get(dev) !== l.machineId) add(`link ${l.name}: member port ${m.portId} is on another machine`);
     }
+    const members = new Set(l.members.map((m) => m.portId));
+    l.busPlan?.polls.forEach((p, i) => {
+      if (!members.has(p.portId)) add(`link ${l.name}: poll ${i + 1} asks port ${p.portId}, which is not a member of the link`);
+      else if (p.commandId && !inLibrary(p.commandId, portDevice.get(p.portId))) add(`link ${l.name}: poll ${i + 1} sends command ${p.commandId}, which is not in the library of its member's device`);
+    });
   }
   for (const c of doc.commands) {
     if ((c.deviceId === null) === (c.profileId === null)) add(`command ${c.name}: give exactly one of deviceId and profileId`);

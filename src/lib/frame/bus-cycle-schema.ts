@@ -12,23 +12,31 @@ export const MAX_POLL_MS = 600_000;
 
 const bytes = (what: string, min: number) =>
   z.number({ error: `Give the ${what} as a whole number of bytes` }).int(`Give the ${what} as a whole number of bytes`).min(min, `The ${what} is at least ${min} byte${min === 1 ? '' : 's'}`).max(MAX_POLL_BYTES, `The ${what} is at most ${MAX_POLL_BYTES} bytes`);
-const millis = (what: string) => z.number({ error: `Give the ${what} in milliseconds` }).finite().min(0, `The ${what} cannot be negative`).max(MAX_POLL_MS, `The ${what} is at most ${MAX_POLL_MS} ms`);
+export const millis = (what: string) => z.number({ error: `Give the ${what} in milliseconds` }).finite().min(0, `The ${what} cannot be negative`).max(MAX_POLL_MS, `The ${what} is at most ${MAX_POLL_MS} ms`);
+
+/** What one poll sends and gets back (also the stored poll of a bus plan, src/lib/schemas/bus-plan.ts). */
+export const busPollFields = {
+  label: z.string().max(120, 'A label has at most 120 characters').optional(),
+  requestBytes: bytes('request', 1),
+  replyBytes: bytes('reply', 0),
+  responseMs: millis('response time').optional(),
+  perCycle: z.number().int('Polls per cycle is a whole number').min(1, 'A poll is sent at least once per cycle').max(1000, 'At most 1000 times per cycle').optional(),
+};
+
+/** A poll without a reply has no response time. */
+export function checkNoReplyResponse(p: { replyBytes: number; responseMs?: number }, ctx: z.RefinementCtx): void {
+  if (p.replyBytes === 0 && p.responseMs !== undefined && p.responseMs > 0) {
+    ctx.addIssue({ code: 'custom', path: ['responseMs'], message: 'A poll without a reply (replyBytes 0) has no response time; give the reply bytes or leave responseMs out' });
+  }
+}
 
 export const busPollSchema = z
   .strictObject({
-    label: z.string().max(120, 'A label has at most 120 characters').optional(),
+    ...busPollFields,
     /** Polls naming the same device go silent together in the worst case. */
     device: z.string().max(120, 'A device name has at most 120 characters').optional(),
-    requestBytes: bytes('request', 1),
-    replyBytes: bytes('reply', 0),
-    responseMs: millis('response time').optional(),
-    perCycle: z.number().int('Polls per cycle is a whole number').min(1, 'A poll is sent at least once per cycle').max(1000, 'At most 1000 times per cycle').optional(),
   })
-  .superRefine((p, ctx) => {
-    if (p.replyBytes === 0 && p.responseMs !== undefined && p.responseMs > 0) {
-      ctx.addIssue({ code: 'custom', path: ['responseMs'], message: 'A poll without a reply (replyBytes 0) has no response time; give the reply bytes or leave responseMs out' });
-    }
-  });
+  .superRefine(checkNoReplyResponse);
 
 export const busLayoutMemberSchema = z.strictObject({
   label: z.string().min(1, 'Name the device').max(120, 'A label has at most 120 characters'),

@@ -5,6 +5,7 @@ import { templateSchema } from '../frame/template';
 import { presetsSchema, savedSequenceSchema, valuesProblems } from './commands';
 import { emailSchema } from './platform';
 import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, versionSchema, wiringRowSchema } from './vault';
+import { busPlanSchema, memberDropM, memberTapPorts } from './bus-plan';
 
 export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
 export const ATTACHMENT_KINDS = ['manual', 'photo', 'config'] as const;
@@ -143,7 +144,10 @@ export const exportDocumentSchema = z.strictObject({
     cableLengthM: z.number().nonnegative().max(10000).nullable(), notes: text(5000),
     members: z.array(z.strictObject({
       portId: recordId, role: z.enum(MEMBER_ROLES), position: z.number().int().min(0), isEnd: z.boolean().nullable(), unitLoads: z.number().positive().max(32).nullable(),
+      // Exports made before the bus planner kept drops have none.
+      dropM: memberDropM.default(null), tapPorts: memberTapPorts.default(null),
     })).max(64),
+    busPlan: busPlanSchema.nullable().default(null),
   })).max(50000),
   commands: z.array(z.strictObject({
     id: recordId, deviceId: recordId.nullable(), profileId: recordId.nullable(), name: text(120).min(1), purpose: text(500),

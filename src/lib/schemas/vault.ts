@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { portSettingsObjectSchema, defaultPortSettings, withControlLines } from '../frame/port-settings';
 import { frameRulesSchema, defaultFrameRules } from '../frame/frame-rules';
+import { busPlanSchema, memberDropM, memberTapPorts } from './bus-plan';
 
 // Duplicated from the DB schema module so the browser bundle does not pull in drizzle.
 export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
@@ -103,6 +104,9 @@ export const linkMemberSchema = z.strictObject({
   role: z.enum(MEMBER_ROLES, { error: 'Choose master, slave or peer.' }),
   isEnd: z.boolean().nullable().optional(),
   unitLoads: z.number().positive('Unit loads are above 0.').max(32).nullable().optional(),
+  /** Its drop (stub) cable, m, and the ports on its tap; on an update, absent keeps what the member has. */
+  dropM: memberDropM.optional(),
+  tapPorts: memberTapPorts.optional(),
 });
 const members = z
   .array(linkMemberSchema)
@@ -115,6 +119,8 @@ const linkFields = {
   cableLengthM: z.number().nonnegative('Length cannot be negative.').max(10_000, 'At most 10 000 m.').nullable().default(null),
   notes: text(5000).default(''),
   members: members.default([]),
+  /** What the master polls (RS-485 bus planner); null: no plan. */
+  busPlan: busPlanSchema.nullable().default(null),
 };
 export const linkCreateSchema = z.strictObject({ machineId: id, ...linkFields });
 export const linkUpdateSchema = z.strictObject({ version: versionSchema, ...partial(linkFields) });

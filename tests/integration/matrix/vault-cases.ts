@@ -78,7 +78,15 @@ const trashed = async (t: TeamFixture) => {
   return `/api/trash/site/${s.id}`;
 };
 
+/** A bus with a master and one member, and a body saving its poll plan (the bus planner's save). */
+const busPlanRequest = async (t: TeamFixture) => {
+  const d = await makeDevice(owner(t));
+  const l = await makeLink(owner(t), d.machineId, [{ portId: d.ports[0].id, role: 'master' }, { portId: d.ports[1].id, role: 'slave' }]);
+  return { path: `/api/links/${l.id}`, body: { version: l.version, busPlan: { polls: [{ portId: d.ports[1].id, requestBytes: 8, replyBytes: 25, responseMs: 5, perCycle: 1 }] } } };
+};
+
 export const vaultCases: RouteCase[] = [
+  { method: 'PATCH', route: '/api/links/[id]', allowed: EDITORS, prepare: busPlanRequest, otherTeam: async (_t, o) => busPlanRequest(o) },
   ...(['site', 'machine', 'device', 'link', 'profile'] as const).flatMap(collectionCases),
   ...(Object.keys(fresh) as Kind[]).flatMap(itemCases),
   {

@@ -5,6 +5,7 @@ import { db } from '../../../db/client';
 import { command, device, deviceProfile, link, linkMember, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { EXPORT_FORMAT, EXPORT_VERSION, type ExportDocument } from '../../schemas/field';
+import type { StoredBusPlan } from '../../schemas/bus-plan';
 import { liveSite } from './scope';
 import { nextTurn } from '../jobs/turns';
 
@@ -25,6 +26,15 @@ async function allRows<T extends SQLiteTable>(t: T, where: SQL | undefined): Pro
     after = Number(rows[rows.length - 1]!.rowid);
     await nextTurn();
   }
+}
+
+/**
+ * A link's bus plan as exported: polls of members the document holds, naming only commands it holds (a poll of a
+ * member in the trash is left out, a command in the trash leaves its byte counts); null when no poll is left.
+ */
+function exportedPlan(plan: StoredBusPlan | null, members: Set<string>, commands: Set<string>): StoredBusPlan | null {
+  const polls = (plan?.polls ?? []).filter((p) => members.has(p.portId)).map(({ commandId, ...p }) => (commandId && commands.has(commandId) ? { ...p, commandId } : p));
+  return plan && polls.length ? { ...plan, polls } : null;
 }
 
 /** Records in a stable order that does not depend on ids: parents first, then names. */
@@ -68,11 +78,14 @@ export async function exportDocument(ctx: TeamContext, opts: { siteId?: string }
       maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, notes: d.notes,
     })),
     ports: P.map((p) => ({ id: p.id, deviceId: p.deviceId, name: p.name, position: p.position, settings: p.settings, wiring: p.wiring, notes: p.notes })),
-    links: L.map((l) => ({
-      id: l.id, machineId: l.machineId, name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes,
-      members: members.filter((m) => m.linkId === l.id && pIds.has(m.portId))
-        .map((m) => ({ portId: m.portId, role: m.role, position: m.position, isEnd: m.isEnd, unitLoads: m.unitLoads })),
-    })),
+    links: L.map((l) => {
+      const kept = members.filter((m) => m.linkId === l.id && pIds.has(m.portId));
+      return {
+        id: l.id, machineId: l.machineId, name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes,
+        members: kept.map((m) => ({ portId: m.portId, role: m.role, position: m.position, isEnd: m.isEnd, unitLoads: m.unitLoads, dropM: m.dropM, tapPorts: m.tapPorts })),
+        busPlan: exportedPlan(l.busPlan, new Set(kept.map((m) => m.portId)), new Set(C.map((c) => c.id))),
+      };
+    }),
     commands: C.map((c) => ({
       id: c.id, deviceId: c.deviceId, profileId: c.profileId, name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues as Record<string, string | number | null>,
       replyTemplate: c.replyTemplate ?? null, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery,

@@ -55,6 +55,10 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
   for (const c of commands) {
     if (c.sequence) c.sequence = { ...c.sequence, steps: c.sequence.steps.map((s) => (s.commandId ? { ...s, commandId: ids.commands.get(s.commandId)! } : s)) };
   }
+  // A bus plan names member ports and commands: mapped as the members are (commands are mapped by now).
+  for (const l of links) {
+    if (l.busPlan) l.busPlan = { ...l.busPlan, polls: l.busPlan.polls.map((p) => ({ ...p, portId: ids.ports.get(p.portId)!, ...(p.commandId ? { commandId: ids.commands.get(p.commandId)! } : {}) })) };
+  }
 
   await stage.add(site, sites);
   await stage.add(machine, machines);

@@ -58,7 +58,7 @@ export const linkEntity = defineEntity<typeof link, LinkRow>({
   type: 'link',
   noun: 'link',
   table: link,
-  snapshotKeys: ['name', 'kind', 'cableType', 'cableLengthM', 'notes', 'members'],
+  snapshotKeys: ['name', 'kind', 'cableType', 'cableLengthM', 'notes', 'members', 'busPlan'],
   parent: { field: 'machineId', type: 'machine' },
   describe: (r) => r.name,
   pointsAt: (state) => (Array.isArray(state.members) ? (state.members as StoredMember[]).map((m) => ({ type: 'port' as const, id: m.portId, field: 'members' })) : []),

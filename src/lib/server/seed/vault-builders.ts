@@ -5,6 +5,8 @@ import { portSettingsSchema, type PortSettingsInput } from '../../frame/port-set
 import type { DeviceRole, RecordType } from '../../../db/schema';
 import { creationRevision, revisionRow } from '../records/engine';
 import { entityOf } from '../records/entities';
+import { storedMembers } from '../vault/link-members';
+import { busPlanSchema, type StoredBusPlan } from '../../schemas/bus-plan';
 
 export interface SeedCtx {
   teamId: string;
@@ -71,20 +73,23 @@ export interface SeedMember {
   portId: string;
   role: 'master' | 'slave' | 'peer';
   isEnd?: boolean;
+  dropM?: number;
+  tapPorts?: number;
 }
 
 export async function addLink(
   c: SeedCtx,
-  l: { id: string; machineId: string; name: string; kind: 'point-to-point' | 'rs485-bus'; cableType: string; cableLengthM: number; notes?: string; members: SeedMember[] },
+  l: { id: string; machineId: string; name: string; kind: 'point-to-point' | 'rs485-bus'; cableType: string; cableLengthM: number; notes?: string; members: SeedMember[]; busPlan?: StoredBusPlan },
 ) {
   const { members, ...fields } = l;
-  await db.insert(link).values({ notes: '', ...fields, teamId: c.teamId, updatedBy: c.userId }).onConflictDoNothing();
+  const stored = storedMembers(members);
+  const busPlan = l.busPlan ? busPlanSchema.parse(l.busPlan) : null;
+  await db.insert(link).values({ notes: '', ...fields, busPlan, teamId: c.teamId, updatedBy: c.userId }).onConflictDoNothing();
   await db
     .insert(linkMember)
-    .values(members.map((m, i) => ({ linkId: l.id, portId: m.portId, teamId: c.teamId, role: m.role, position: i, isEnd: m.isEnd ?? null, unitLoads: null })))
+    .values(stored.map((m, i) => ({ ...m, linkId: l.id, teamId: c.teamId, position: i })))
     .onConflictDoNothing();
-  const stored = members.map((m) => ({ portId: m.portId, role: m.role, isEnd: m.isEnd ?? null, unitLoads: null }));
-  await created(c, 'link', l.id, { name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes ?? '', members: stored }, `Created link ${l.name}`);
+  await created(c, 'link', l.id, { name: l.name, kind: l.kind, cableType: l.cableType, cableLengthM: l.cableLengthM, notes: l.notes ?? '', members: stored, busPlan }, `Created link ${l.name}`);
 }
 
 export async function addProfile(c: SeedCtx, id: string, name: string, role: DeviceRole, maker: string, model: string, notes: string, ports: { name: string; settings: PortSettingsInput; wiring?: WiringRow[] }[]) {

@@ -57,11 +57,18 @@ async function fernhollow(c: SeedCtx) {
   await addLink(c, { id: 'link_demo_churn_bus', machineId: 'mach_demo_churn', name: 'Churn drive bus', kind: 'rs485-bus', cableType: 'Shielded twisted pair, 120 Ω', cableLengthM: 45,
     notes: 'Daisy-chained PLC → DRV-201 → DRV-202 → DRV-203.',
     members: [
-      { portId: 'port_demo_plc200_x3', role: 'master', isEnd: true },
-      { portId: 'port_demo_drv201', role: 'slave', isEnd: false },
-      { portId: 'port_demo_drv202', role: 'slave', isEnd: false },
-      { portId: 'port_demo_drv203', role: 'slave', isEnd: true },
-    ] });
+      { portId: 'port_demo_plc200_x3', role: 'master', isEnd: true, dropM: 0 },
+      { portId: 'port_demo_drv201', role: 'slave', isEnd: false, dropM: 0 },
+      { portId: 'port_demo_drv202', role: 'slave', isEnd: false, dropM: 0 },
+      { portId: 'port_demo_drv203', role: 'slave', isEnd: true, dropM: 0 },
+    ],
+    // The saved poll plan: a 10-register read of each drive (8 bytes out, 25 back); DRV-203 answers after 60 ms,
+    // beyond PLC-200's 50 ms response timeout (the plan keeps the port's timeout), which the panel reports.
+    busPlan: {
+      polls: [201, 202, 203].map((n) => ({ portId: `port_demo_drv${n}`, label: `DRV-${n} RS-485: read 10 registers`, requestBytes: 8, replyBytes: 25, responseMs: n === 203 ? 60 : 5, perCycle: 1 })),
+      targetCycleMs: 250,
+      topology: 'daisy-chain',
+    } });
   await addLink(c, { id: 'link_demo_scale', machineId: 'mach_demo_churn', name: 'Scale to PLC', kind: 'point-to-point', cableType: 'DB9 null-modem', cableLengthM: 6,
     members: [{ portId: 'port_demo_plc200_x2', role: 'master' }, { portId: 'port_demo_scl210', role: 'slave' }] });
 

@@ -12,6 +12,9 @@ export interface StoredMember {
   role: 'master' | 'slave' | 'peer';
   isEnd: boolean | null;
   unitLoads: number | null;
+  /** Drop (stub) cable, m, and ports on its tap (the bus planner); null when not recorded. */
+  dropM: number | null;
+  tapPorts: number | null;
 }
 
 export interface MemberView extends StoredMember {
@@ -30,6 +33,7 @@ export async function loadMembers(q: DbOrTx, linkIds: string[]): Promise<Map<str
   const rows = await q
     .select({
       linkId: linkMember.linkId, portId: linkMember.portId, role: linkMember.role, isEnd: linkMember.isEnd, unitLoads: linkMember.unitLoads,
+      dropM: linkMember.dropM, tapPorts: linkMember.tapPorts,
       portName: port.name, settings: port.settings, portDeleted: port.deletedAt,
       deviceId: device.id, deviceTag: device.tag, deviceName: device.name, deviceDeleted: device.deletedAt,
     })
@@ -41,7 +45,7 @@ export async function loadMembers(q: DbOrTx, linkIds: string[]): Promise<Map<str
   for (const r of rows) {
     const list = out.get(r.linkId) ?? [];
     list.push({
-      portId: r.portId, role: r.role, isEnd: r.isEnd, unitLoads: r.unitLoads, portName: r.portName, deviceId: r.deviceId,
+      portId: r.portId, role: r.role, isEnd: r.isEnd, unitLoads: r.unitLoads, dropM: r.dropM, tapPorts: r.tapPorts, portName: r.portName, deviceId: r.deviceId,
       deviceTag: r.deviceTag, deviceName: r.deviceName, settings: r.settings, inTrash: !!(r.portDeleted || r.deviceDeleted),
     });
     out.set(r.linkId, list);
@@ -49,8 +53,19 @@ export async function loadMembers(q: DbOrTx, linkIds: string[]): Promise<Map<str
   return out;
 }
 
-export function storedMembers(members: MemberView[] | StoredMember[]): StoredMember[] {
-  return members.map((m) => ({ portId: m.portId, role: m.role, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null }));
+/** Members as a link keeps them; a field left out is null (not recorded). */
+export function storedMembers(members: (Pick<StoredMember, 'portId' | 'role'> & Partial<StoredMember>)[]): StoredMember[] {
+  return members.map((m) => ({ portId: m.portId, role: m.role, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null, dropM: m.dropM ?? null, tapPorts: m.tapPorts ?? null }));
+}
+
+/** An update's members: a drop or tap size left out keeps the one the port has as a member now (the members table does not edit them). */
+export function keepDrops(members: LinkMemberInput[], now: StoredMember[]): StoredMember[] {
+  const before = new Map(now.map((m) => [m.portId, m]));
+  return storedMembers(members.map((m) => ({
+    ...m,
+    dropM: m.dropM !== undefined ? m.dropM : (before.get(m.portId)?.dropM ?? null),
+    tapPorts: m.tapPorts !== undefined ? m.tapPorts : (before.get(m.portId)?.tapPorts ?? null),
+  })));
 }
 
 /** 404-style field errors for ports that are not live ports of the caller's team. */
@@ -75,7 +90,9 @@ export async function replaceMembers(q: DbOrTx, ctx: TeamContext, linkId: string
   await q.delete(linkMember).where(eq(linkMember.linkId, linkId));
   if (members.length === 0) return;
   await q.insert(linkMember).values(
-    members.map((m, i) => ({ linkId, portId: m.portId, teamId: ctx.team.id, role: m.role, position: i, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null })),
+    members.map((m, i) => ({
+      linkId, portId: m.portId, teamId: ctx.team.id, role: m.role, position: i, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null, dropM: m.dropM ?? null, tapPorts: m.tapPorts ?? null,
+    })),
   );
 }
 

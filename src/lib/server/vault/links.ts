@@ -9,7 +9,8 @@ import type { linkCreateSchema, linkUpdateSchema } from '../../schemas/vault';
 import { portShorthand } from '../../frame/port-text';
 import { countWhere, findLive, likePattern, orderBy, recordCreated, updateVersioned, type Page } from './records';
 import { linkEntity, machineEntity, type LinkRow } from '../records/entities';
-import { assertMemberPorts, loadMembers, replaceMembers, storedMembers, type MemberView } from './link-members';
+import { assertMemberPorts, keepDrops, loadMembers, replaceMembers, storedMembers, type MemberView } from './link-members';
+import { assertBusPlan } from './bus-plan';
 import { reportFor, type VaultLinkReport } from './link-report';
 import { definedOnly } from '../records/diff';
 
@@ -69,9 +70,10 @@ export async function createLink(ctx: TeamContext, input: z.infer<typeof linkCre
   return db.transaction(async (tx) => {
     await findLive(tx, ctx, machineEntity, fields.machineId);
     await assertMemberPorts(tx, ctx, members);
+    if (fields.busPlan) await assertBusPlan(tx, ctx, fields.busPlan, members);
     const [row] = await tx.insert(link).values({ id: newId('link'), teamId: ctx.team.id, ...fields, updatedBy: ctx.user.id }).returning();
     await replaceMembers(tx, ctx, row!.id, members);
-    await recordCreated(tx, ctx, linkEntity, { ...row!, members: storedMembers(members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null }))) });
+    await recordCreated(tx, ctx, linkEntity, { ...row!, members: storedMembers(members) });
     return getLink(ctx, row!.id, tx);
   });
 }
@@ -81,7 +83,11 @@ export async function updateLink(ctx: TeamContext, id: string, input: z.infer<ty
   return db.transaction(async (tx) => {
     if (values.members) await assertMemberPorts(tx, ctx, values.members);
     const patch = definedOnly(values);
-    if (patch.members) patch.members = storedMembers(patch.members.map((m) => ({ ...m, isEnd: m.isEnd ?? null, unitLoads: m.unitLoads ?? null })));
+    if (patch.members || patch.busPlan) {
+      const now = (await loadMembers(tx, [id])).get(id) ?? [];
+      if (patch.members) patch.members = keepDrops(patch.members, now);
+      if (patch.busPlan) await assertBusPlan(tx, ctx, patch.busPlan, patch.members ?? now);
+    }
     await updateVersioned(tx, ctx, linkEntity, id, version, patch, { present: () => getLink(ctx, id, tx) });
     return getLink(ctx, id, tx);
   });
