@@ -110,6 +110,19 @@ describe('a replacement logged in the field', () => {
     expect(expectOk(await eng.get(`/api/devices/${d.id}`)).firmware).toBe('2.3.1');
   });
 
+  it('found handshaking laid over the record brings the control lines along instead of disagreeing with them', async () => {
+    const eng = team.members.engineer;
+    const d = await makeDevice(eng);
+    const service = d.ports.find((p: { name: string }) => p.name === 'Service');
+    expect(service.settings).toMatchObject({ handshake: 'none', rtsMode: 'off', ctsMode: 'ignore' });
+    const entry = await logEntry(team.members.technician, d.id, {
+      kind: 'found-different', foundSettings: 'RTS/CTS handshaking on', port: { portId: service.id, settings: { handshake: 'rts-cts' } },
+    });
+    expectOk(await eng.post(`/api/proposals/${entry.proposal.id}/accept`, { version: d.version, portVersion: service.version }));
+    // rts-cts means RTS used for flow control and sending gated by CTS (docs/decisions/013-control-lines.md).
+    expect(expectOk(await eng.get(`/api/ports/${service.id}`)).settings).toMatchObject({ handshake: 'rts-cts', rtsMode: 'flow', ctsMode: 'gate' });
+  });
+
   it('answers a stale accept with 409 and the record as it is now, writing nothing', async () => {
     const eng = team.members.engineer;
     const d = await makeDevice(eng, undefined, { serialNumber: 'S-1' });
