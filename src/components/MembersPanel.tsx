@@ -63,13 +63,13 @@ function Panel({ teamId, teamName, role, userId }: Props) {
       {error && <p className="notice notice-bad" role="alert">{error}</p>}
       <section className="card overflow-x-auto">
         <h2 className="mb-2">Members of {teamName}</h2>
-        <table className="table" data-testid="members">
+        <table className="table table-cards" data-testid="members">
           <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{manage && <th><span className="sr-only">Actions</span></th>}</tr></thead>
           <tbody>
             {members.map((m) => (
               <tr key={m.userId} data-email={m.email}>
                 <td>{m.name}{m.userId === userId && <span className="text-muted"> (you)</span>}</td>
-                <td className="break-all">{m.email}</td>
+                <td className="break-all" data-label="E-mail">{m.email}</td>
                 <td>
                   {manage && m.role !== 'owner' && m.userId !== userId ? (
                     <select aria-label={`Role of ${m.name}`} className="input !w-auto !py-1" value={m.role}

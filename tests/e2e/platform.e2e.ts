@@ -64,6 +64,7 @@ describe('platform in the browser', () => {
 
   it('shows a clear message for a wrong password, then signs in', async () => {
     const b = await browser();
+    b.allow('the server responded with a status of 401');
     await visit(b.page, '/sign-in');
     await b.page.getByLabel('E-mail').fill('engineer@fernhollow.test');
     await b.page.getByLabel('Password').fill('not-the-password');
