@@ -39,6 +39,8 @@ describe('field work in the browser', () => {
     const entry = b.page.locator('[data-testid="log-entry"][data-kind="replacement"]').first();
     await entry.getByText('QD40-99001').waitFor();
     expect(await entry.getByTestId('thumb').count()).toBe(1);
+    // Written in the viewer's locale and time zone (the test browser's de-DE, Pacific/Auckland), the zone named.
+    await expect.poll(() => entry.locator('time').first().textContent()).toMatch(/^\d{1,2}\. \S+ \d{4}, \d{2}:\d{2} GMT\+1[23]$/);
     await entry.scrollIntoViewIfNeeded();
     await shot(b.page, 'field-log-phone');
   });
