@@ -49,7 +49,14 @@ function Panel({ teamId, teamName, role, userId }: Props) {
   const q = useQuery({ queryKey: teamKeys.members(teamId), queryFn: () => api<{ members: Member[]; invitations: Invitation[] }>('/api/members') });
   const refresh = () => qc.invalidateQueries({ queryKey: teamKeys.members(teamId) });
   const onError = (err: Error) => setError(err.message);
-  const changeRole = useMutation({ mutationFn: (v: { userId: string; role: Role }) => api(`/api/members/${v.userId}`, { method: 'PATCH', body: { role: v.role } }), onSuccess: refresh, onError });
+  // A role change is asked first, in the row, and says when it is saved.
+  const [asking, setAsking] = useState<{ member: Member; role: Role } | null>(null);
+  const [saved, setSaved] = useState<{ userId: string; text: string } | null>(null);
+  const changeRole = useMutation({
+    mutationFn: (v: { member: Member; role: Role }) => api(`/api/members/${v.member.userId}`, { method: 'PATCH', body: { role: v.role } }),
+    onSuccess: (_r, v) => { setAsking(null); setError(null); setSaved({ userId: v.member.userId, text: `Saved: ${v.member.name}’s role is now ${ROLE_LABELS[v.role]}.` }); return refresh(); },
+    onError,
+  });
   const remove = useMutation({ mutationFn: (id: string) => api(`/api/members/${id}`, { method: 'DELETE' }), onSuccess: refresh, onError });
   const revoke = useMutation({ mutationFn: (id: string) => api(`/api/invitations/${id}`, { method: 'DELETE' }), onSuccess: refresh, onError });
   const transfer = useMutation({ mutationFn: (id: string) => api('/api/teams/transfer', { body: { userId: id } }), onSuccess: () => location.reload(), onError });
@@ -63,19 +70,32 @@ function Panel({ teamId, teamName, role, userId }: Props) {
       {error && <p className="notice notice-bad" role="alert">{error}</p>}
       <section className="card overflow-x-auto">
         <h2 className="mb-2">Members of {teamName}</h2>
-        <table className="table" data-testid="members">
+        <table className="table table-cards" data-testid="members">
           <thead><tr><th>Name</th><th>E-mail</th><th>Role</th>{manage && <th><span className="sr-only">Actions</span></th>}</tr></thead>
           <tbody>
             {members.map((m) => (
               <tr key={m.userId} data-email={m.email}>
                 <td>{m.name}{m.userId === userId && <span className="text-muted"> (you)</span>}</td>
-                <td className="break-all">{m.email}</td>
+                <td className="break-all" data-label="E-mail">{m.email}</td>
                 <td>
                   {manage && m.role !== 'owner' && m.userId !== userId ? (
-                    <select aria-label={`Role of ${m.name}`} className="input !w-auto !py-1" value={m.role}
-                      onChange={(e) => changeRole.mutate({ userId: m.userId, role: e.target.value as Role })}>
-                      {assignableRoles(role).map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
-                    </select>
+                    <>
+                      <select aria-label={`Role of ${m.name}`} className="input !w-auto !py-1" value={asking?.member.userId === m.userId ? asking.role : m.role}
+                        disabled={changeRole.isPending}
+                        onChange={(e) => { setSaved(null); const next = e.target.value as Role; setAsking(next === m.role ? null : { member: m, role: next }); }}>
+                        {assignableRoles(role).map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+                      </select>
+                      {asking?.member.userId === m.userId && (
+                        <div className="mt-2 grid gap-2 text-sm" data-testid="role-confirm">
+                          <p>Change {m.name} from {ROLE_LABELS[m.role]} to {ROLE_LABELS[asking.role]}? {ROLE_SUMMARIES[asking.role]}</p>
+                          <div className="flex flex-wrap gap-2">
+                            <button type="button" className="btn btn-sm" disabled={changeRole.isPending} onClick={() => changeRole.mutate(asking)}>Change role</button>
+                            <button type="button" className="btn btn-quiet btn-sm" disabled={changeRole.isPending} onClick={() => setAsking(null)}>Keep {ROLE_LABELS[m.role]}</button>
+                          </div>
+                        </div>
+                      )}
+                      {saved?.userId === m.userId && <p className="text-sm text-ok mt-1" role="status">{saved.text}</p>}
+                    </>
                   ) : (
                     <span data-testid="role">{ROLE_LABELS[m.role]}</span>
                   )}

@@ -8,6 +8,8 @@ const browser = browserPool();
 const DRIVE = '/vault/devices/dev_demo_drv501/commands';
 const notation = (page: Page, id: string) => page.getByTestId(`notation-${id}`).textContent();
 const stamp = Date.now().toString(36).slice(-5).toUpperCase();
+/** The 409 a colleague's earlier save provokes, which the browser logs as a failed resource. */
+const CONFLICT_409 = 'the server responded with a status of 409';
 
 /** A colleague's write (or the setup's), through the API with the page's session. */
 async function api(page: Page, method: string, path: string, data?: unknown) {
@@ -112,6 +114,10 @@ describe('command composer in the browser', () => {
     await page.waitForURL(/\/commands\/cmd_/);
     await page.getByText('Saved · version 1').waitFor();
     expect(await notation(page, 'iecLiteral')).toBe(`'${text}$0D'`);
+
+    // Signed in, the workbench offers this team's devices to save to, without a hydration error.
+    await visit(page, '/workbench');
+    await page.getByLabel('Device', { exact: true }).locator('option', { hasText: 'DRV-501' }).first().waitFor({ state: 'attached' });
   });
 
   it('asks before saving a command with error findings, and its history says it was saved with them', async () => {
@@ -139,6 +145,7 @@ describe('command composer in the browser', () => {
   it('shows a colleague\'s save beside mine and re-applies only my changes, at phone width', async () => {
     const a = await browser({ viewport: PHONE });
     const b = await browser({ viewport: PHONE });
+    b.allow(CONFLICT_409);
     for (const x of [a, b]) await signIn(x.page, 'engineer@fernhollow.test');
     const origin = new URL(a.page.url()).origin;
     // a command of our own, so the demo jogs the other tests read stay as they are
@@ -172,7 +179,9 @@ describe('command composer in the browser', () => {
   });
 
   it('moving a command someone saved meanwhile shows their change first; "Keep it" writes nothing, the next ask moves it', async () => {
-    const { page } = await browser({ viewport: DESKTOP });
+    const b = await browser({ viewport: DESKTOP });
+    b.allow(CONFLICT_409);
+    const { page } = b;
     page.on('dialog', (d) => d.accept());
     await signIn(page, 'engineer@fernhollow.test');
     const name = `Trash conflict ${stamp}`;
@@ -218,7 +227,9 @@ describe('command composer in the browser', () => {
   });
 
   it('restoring a revision after someone saved shows their change first; "Keep" writes nothing, the next ask restores', async () => {
-    const { page } = await browser({ viewport: DESKTOP });
+    const b = await browser({ viewport: DESKTOP });
+    b.allow(CONFLICT_409);
+    const { page } = b;
     await signIn(page, 'engineer@fernhollow.test');
     const { id } = await ownCommand(page, `Restore conflict ${stamp}`);
     const v1 = await api(page, 'GET', `/api/commands/${id}`);

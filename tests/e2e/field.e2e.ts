@@ -39,6 +39,8 @@ describe('field work in the browser', () => {
     const entry = b.page.locator('[data-testid="log-entry"][data-kind="replacement"]').first();
     await entry.getByText('QD40-99001').waitFor();
     expect(await entry.getByTestId('thumb').count()).toBe(1);
+    // Written in the viewer's locale and time zone (the test browser's de-DE, Pacific/Auckland), the zone named.
+    await expect.poll(() => entry.locator('time').first().textContent()).toMatch(/^\d{1,2}\. \S+ \d{4}, \d{2}:\d{2} GMT\+1[23]$/);
     await entry.scrollIntoViewIfNeeded();
     await shot(b.page, 'field-log-phone');
   });
@@ -84,6 +86,28 @@ describe('field work in the browser', () => {
     await shot(b.page, 'field-card-presets-phone', false);
     await b.page.goto('/field/machines/mach_demo_seamer/print?paper=a4');
     for (const name of ['Index one station', 'Jog 1° one way', 'Jog 1° the other way']) expect(await b.page.locator(`[data-testid="card-send"][data-preset="${name}"]`).count()).toBe(1);
+  });
+
+  it("a trashed device's QR link says it is in the trash, with the way to restore it; an unknown address gets the app's page", async () => {
+    const b = await browser(PHONE);
+    // Both pages answer 404 on purpose; the browser logs that as a failed resource.
+    b.allow('the server responded with a status of 404');
+    await signIn(b.page, 'engineer@fernhollow.test');
+    const origin = new URL(b.page.url()).origin;
+    const made = await b.page.request.fetch('/api/devices', { method: 'POST', data: { machineId: MACHINE, tag: `OLD-${Date.now().toString(36)}` }, headers: { origin } });
+    const device = await made.json();
+    expect((await b.page.request.fetch(`/api/devices/${device.id}`, { method: 'DELETE', data: { version: device.version }, headers: { origin } })).status()).toBe(200);
+    const res = await b.page.goto(`/field/devices/${device.id}`);
+    expect(res!.status()).toBe(404);
+    await b.page.getByRole('heading', { level: 1, name: 'This device is in the trash' }).waitFor();
+    expect(await b.page.getByTestId('in-trash').getByRole('link', { name: 'restore it from the trash' }).getAttribute('href')).toBe('/vault/trash');
+    await shot(b.page, 'field-card-trashed-phone');
+    const other = await b.page.goto('/no-such-page');
+    expect(other!.status()).toBe(404);
+    expect(other!.headers()['content-type']).toContain('text/html');
+    await b.page.getByRole('heading', { level: 1, name: 'No page at this address' }).waitFor();
+    expect(await b.page.getByRole('main').getByRole('link', { name: 'Back to your home page' }).getAttribute('href')).toBe('/');
+    await shot(b.page, 'not-found-phone');
   });
 
   it("prints a machine's cards on A4 and US Letter", async () => {

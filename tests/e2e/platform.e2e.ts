@@ -60,10 +60,26 @@ describe('platform in the browser', () => {
     await visit(owner.page, '/team');
     const row = owner.page.locator(`tr[data-email="${colleague}"]`);
     await expect.poll(() => row.getByRole('combobox').inputValue()).toBe('technician');
+
+    // Changing the role asks first, in the row; "Keep" changes nothing, "Change role" saves and says so.
+    const roleOf = async () => ((await (await owner.page.request.get('/api/members')).json()).members as { email: string; role: string }[]).find((m) => m.email === colleague)!.role;
+    await row.getByRole('combobox').selectOption('engineer');
+    const ask = row.getByTestId('role-confirm');
+    expect(await ask.textContent()).toContain('from Technician to Engineer?');
+    expect(await roleOf()).toBe('technician');
+    await ask.getByRole('button', { name: 'Keep Technician' }).click();
+    await ask.waitFor({ state: 'detached' });
+    expect(await row.getByRole('combobox').inputValue()).toBe('technician');
+    await row.getByRole('combobox').selectOption('engineer');
+    await shot(owner.page, 'team-role-confirm-desktop', false);
+    await ask.getByRole('button', { name: 'Change role' }).click();
+    await row.getByRole('status').getByText('Saved: Sam Colleague’s role is now Engineer.').waitFor();
+    expect(await roleOf()).toBe('engineer');
   });
 
   it('shows a clear message for a wrong password, then signs in', async () => {
     const b = await browser();
+    b.allow('the server responded with a status of 401');
     await visit(b.page, '/sign-in');
     await b.page.getByLabel('E-mail').fill('engineer@fernhollow.test');
     await b.page.getByLabel('Password').fill('not-the-password');

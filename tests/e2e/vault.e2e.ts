@@ -4,6 +4,8 @@ import type { Page } from 'playwright-core';
 import { browserPool, DESKTOP, hydrated, PHONE, shot, signIn, visit, type Browser } from './helpers/browser';
 
 const stamp = Date.now().toString(36).slice(-5).toUpperCase();
+/** The 409 a colleague's earlier save provokes, which the browser logs as a failed resource. */
+const CONFLICT_409 = 'the server responded with a status of 409';
 const openInPool = browserPool();
 async function browser(options?: Parameters<typeof openInPool>[0]): Promise<Browser> {
   const b = await openInPool(options);
@@ -90,6 +92,10 @@ describe('vault in the browser', () => {
     expect(await finding.textContent()).toContain(`Change on DRV-${stamp} RS-485`);
     await expect.poll(() => page.getByTestId('findings').getByTestId('link-state').getAttribute('data-state')).toBe('error');
     await shot(page, 'vault-link-desktop');
+    // The member table and its controls fit a phone without scrolling sideways (checked by shot()).
+    await page.setViewportSize(PHONE);
+    await shot(page, 'vault-link-phone');
+    await page.setViewportSize(DESKTOP);
 
     // the machine page shows the link red
     await visit(page, machineUrl!);
@@ -106,8 +112,34 @@ describe('vault in the browser', () => {
     expect(drive.id).toBeTruthy();
   });
 
-  it('offers to compare and re-apply when someone else saved first', async () => {
+  it("the device page's link box turns to a mismatch as soon as a port's setting is saved, without a reload", async () => {
     const { page } = await browser();
+    await signIn(page, 'engineer@fernhollow.test');
+    const port = (name: string) => ({ name, settings: { interface: 'rs485-2w', baud: 19200, parity: 'even', rs485Direction: 'auto', nodeAddress: 1 } });
+    const plc = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `LBX-${stamp}`, ports: [port('X1')] });
+    const drv = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `LBY-${stamp}`, ports: [{ ...port('RS-485'), settings: { ...port('').settings, nodeAddress: 2 } }] });
+    await api(page, 'POST', '/api/links', {
+      machineId: 'mach_demo_press', name: `Press bus ${stamp}`, kind: 'rs485-bus',
+      members: [{ portId: plc.ports[0].id, role: 'master', isEnd: true }, { portId: drv.ports[0].id, role: 'slave', isEnd: true }],
+    });
+    await visit(page, `/vault/devices/${plc.id}`);
+    const box = page.getByTestId('device-links').locator('li', { hasText: `Press bus ${stamp}` });
+    const before = await box.getByTestId('link-state').getAttribute('data-state');
+    expect(before).not.toBe('error');
+    const card = page.getByTestId('port').first();
+    await card.getByRole('button', { name: 'Edit port' }).click();
+    const edit = page.getByRole('form', { name: 'Edit port X1' });
+    await edit.getByLabel('Baud rate').fill('38400');
+    await edit.getByRole('button', { name: 'Save port' }).click();
+    await expect.poll(() => card.getByTestId('shorthand').textContent()).toBe('38400 8-E-1');
+    await expect.poll(() => box.getByTestId('link-state').getAttribute('data-state')).toBe('error');
+    expect(await box.textContent()).toContain('Mismatch');
+  });
+
+  it('offers to compare and re-apply when someone else saved first', async () => {
+    const b = await browser();
+    b.allow(CONFLICT_409);
+    const { page } = b;
     await signIn(page, 'engineer@fernhollow.test');
     await visit(page, '/vault/devices/dev_demo_scl210');
     const edit = page.getByRole('form', { name: 'Edit device' });
@@ -135,7 +167,9 @@ describe('vault in the browser', () => {
   });
 
   it('moving a port someone changed meanwhile shows their change first, then moves it as it is now', async () => {
-    const { page } = await browser();
+    const b = await browser();
+    b.allow(CONFLICT_409);
+    const { page } = b;
     await signIn(page, 'engineer@fernhollow.test');
     const d = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `TRM-${stamp}`, ports: [{ name: 'Aux', settings: { interface: 'rs232', baud: 9600 } }] });
     await visit(page, `/vault/devices/${d.id}`);
@@ -156,7 +190,9 @@ describe('vault in the browser', () => {
   });
 
   it('restoring a revision after someone saved shows their change first; "Keep" writes nothing, the next ask restores', async () => {
-    const { page } = await browser();
+    const b = await browser();
+    b.allow(CONFLICT_409);
+    const { page } = b;
     await signIn(page, 'engineer@fernhollow.test');
     const d = await api(page, 'POST', '/api/devices', { machineId: 'mach_demo_press', tag: `RST-${stamp}`, location: 'Cabinet 1' });
     await api(page, 'PATCH', `/api/devices/${d.id}`, { version: 1, location: 'Cabinet 2' });

@@ -94,6 +94,20 @@ describe('vault and field pages', () => {
     for (const path of [`/vault/devices/${d.id}`, `/vault/devices/${d.id}/commands`, `/field/devices/${d.id}`]) {
       expect((await mine.members.owner.get(path)).status, path).toBe(404);
     }
+    // The device page and its QR link tell a member it is in the trash; whom may restore it gets the trash's link.
+    for (const path of [`/vault/devices/${d.id}`, `/field/devices/${d.id}`]) {
+      const owner = String((await mine.members.owner.get(path)).body);
+      expect(owner, path).toMatch(/<h1[^>]*>This device is in the trash/);
+      expect(owner, path).toContain('href="/vault/trash"');
+      const viewer = String((await mine.members.viewer.get(path)).body);
+      expect(viewer, path).toMatch(/<h1[^>]*>This device is in the trash/);
+      expect(viewer, path).not.toContain('href="/vault/trash"');
+    }
+    // Another team's trashed device is simply not found.
+    expect(String((await theirs.members.owner.get(`/field/devices/${d.id}`)).body)).toMatch(/<h1[^>]*>No such /);
+    const unknown = await mine.members.viewer.get('/no-such-page');
+    expect(unknown.status).toBe(404);
+    expect(String(unknown.body)).toMatch(/<h1[^>]*>No page at this address/);
     expect((await mine.members.viewer.get(`/vault/devices/${own.device}/commands/new`)).status).toBe(403);
     expect((await mine.members.viewer.get('/vault/trash')).status).toBe(403);
   });

@@ -18,13 +18,13 @@ export function ByteCells({ cells, highlight }: { cells: ByteCell[]; highlight: 
               <button
                 type="button"
                 className={`mono w-11 rounded border text-center leading-tight py-0.5 ${c.severity ? SEV[c.severity] : 'border-line bg-white'} ${lit ? 'ring-2 ring-accent' : ''} ${active === c.offset ? 'outline outline-2 outline-ink' : ''}`}
-                aria-label={`Byte ${c.offset}: hex ${c.hex}, decimal ${c.decimal}, ${c.glyph}, from ${c.segmentLabel}`}
                 onMouseEnter={() => setActive(c.offset)}
                 onFocus={() => setActive(c.offset)}
                 onClick={() => setActive(c.offset)}
               >
                 <span className="block text-[0.7rem] text-muted">{c.hex}</span>
                 <span className="block text-sm">{c.glyph}</span>
+                <span className="sr-only">: byte {c.offset}, hex {c.hex}, decimal {c.decimal}, from {c.segmentLabel}</span>
               </button>
             </li>
           );

@@ -1,5 +1,5 @@
 /** Island for the public /workbench: the same composer with its own port settings, tools, and saving for signed-in users. */
-import { lazy, Suspense } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { defaultPortSettings } from '../../lib/frame/port-settings';
 import { starterTemplate } from '../../lib/composer/segments';
 import { QueryProvider } from '../QueryProvider';
@@ -19,6 +19,10 @@ const blank: CommandDraft = {
 const SaveToDevice = lazy(() => import('./SaveToDevice'));
 
 export default function Workbench({ signedIn, canSave, signInHref }: Props) {
+  // The device picker is a lazy chunk: rendered on the server it would suspend, and React would then throw
+  // away the server's HTML for the whole boundary (a recoverable error, and an inline script the CSP refuses).
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
   return (
     <QueryProvider>
       <div className="grid gap-4">
@@ -28,7 +32,9 @@ export default function Workbench({ signedIn, canSave, signInHref }: Props) {
             <Section title="Keep it" id="save">
               {!signedIn && <p><a href={signInHref} data-testid="sign-in-to-save">Sign in to save to a device</a>; everything else here works without an account.</p>}
               {signedIn && !canSave && <p className="text-sm text-muted">Your role in this team cannot add commands; ask an engineer to save it.</p>}
-              {signedIn && canSave && <Suspense fallback={<p className="text-sm">Loading your devices…</p>}><SaveToDevice draft={draft} valid={valid} errors={errors} /></Suspense>}
+              {signedIn && canSave && (mounted
+                ? <Suspense fallback={<p className="text-sm">Loading your devices…</p>}><SaveToDevice draft={draft} valid={valid} errors={errors} /></Suspense>
+                : <p className="text-sm">Loading your devices…</p>)}
             </Section>
           )} />
         <Tools />

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { When } from '../ui/When';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api, ApiError } from '../../lib/client/api';
@@ -21,7 +22,6 @@ interface Entry {
 }
 interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number; ports?: { id: string; name: string }[] }
 
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 function NewEntry({ deviceId, cardRevision, ports }: { deviceId: string; cardRevision: number; ports: { id: string; name: string }[] }) {
   const qc = useQueryClient();
@@ -123,7 +123,7 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
   return (
     <li className="card grid gap-1" data-testid="log-entry" data-kind={e.kind}>
       <p className="font-semibold text-lg">{FIELD_LOG_LABELS[e.kind]}</p>
-      <p className="text-sm text-muted">{when(e.createdAt)} · {e.userName} · card revision {e.deviceVersion}</p>
+      <p className="text-sm text-muted"><When iso={e.createdAt} /> · {e.userName} · card revision {e.deviceVersion}</p>
       {e.kind === 'replacement' && <p>New unit S/N <strong className="mono">{e.newSerialNumber}</strong>, settings from card revision <strong>{e.appliedVersion}</strong></p>}
       {e.kind === 'found-different' && <p>Found on site: <strong className="whitespace-pre-wrap">{e.foundSettings}</strong></p>}
       {e.note && <p className="whitespace-pre-wrap">{e.note}</p>}
@@ -132,7 +132,7 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
       {!!e.files?.length && <ul className="text-sm" aria-label="Files">{e.files.map((f) => <li key={f.id}><a href={f.url} download={f.fileName} data-testid="log-file">{f.fileName}</a></li>)}</ul>}
       {e.annotations.length > 0 && (
         <ul className="mt-1 border-l-4 border-line pl-3 grid gap-1" aria-label="Annotations">
-          {e.annotations.map((a) => <li key={a.id} className="text-sm"><span className="text-muted">{when(a.createdAt)} · {a.userName}:</span> {a.note}</li>)}
+          {e.annotations.map((a) => <li key={a.id} className="text-sm"><span className="text-muted"><When iso={a.createdAt} /> · {a.userName}:</span> {a.note}</li>)}
         </ul>
       )}
       {canAnnotate && <Annotate entry={e} deviceId={deviceId} />}

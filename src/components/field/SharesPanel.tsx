@@ -64,8 +64,8 @@ function CreateShare({ machines, sites, initial }: Props) {
       {m.isSuccess && (
         <div className="notice notice-ok grid gap-2" role="status">
           <p>Link created. Copy it now: it is shown only once.</p>
-          <input className="input mono" readOnly value={m.data.url} data-testid="new-share-url" onFocus={(e) => e.target.select()} />
-          <span className="justify-self-start"><CopyButton text={m.data.url} label="Copy link" what="share link" /></span>
+          <input className="input mono" readOnly value={m.data.url} aria-label="The new share link" data-testid="new-share-url" onFocus={(e) => e.target.select()} />
+          <span className="justify-self-start"><CopyButton text={m.data.url} label="Copy link" what="the new share link" /></span>
         </div>
       )}
     </form>

@@ -108,7 +108,7 @@ function Table({ machineId, siteId, hide = [] }: Props) {
       </div>
       <ErrorNotice error={query.error} />
       <div className="overflow-x-auto">
-        <table className="table" data-testid="device-table" aria-busy={query.isFetching}>
+        <table className="table table-cards" data-testid="device-table" aria-busy={query.isFetching}>
           <thead>
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
@@ -129,7 +129,7 @@ function Table({ machineId, siteId, hide = [] }: Props) {
           </thead>
           <tbody>
             {table.getRowModel().rows.map((r) => (
-              <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
+              <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} data-label={c.column.id === 'tag' ? undefined : String(c.column.columnDef.header)}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
             ))}
             {query.data && query.data.items.length === 0 && (
               <tr><td colSpan={columns.length} className="text-muted">No devices match.</td></tr>

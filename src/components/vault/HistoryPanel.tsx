@@ -10,7 +10,8 @@ import { vaultKeys } from '../../lib/client/keys';
 import { useConflict } from '../../lib/client/use-conflict';
 import { QueryProvider } from '../QueryProvider';
 import { ConflictNotice } from '../ui/ConflictNotice';
-import { ErrorNotice, fieldLabel, Pager, showValue } from './shared';
+import { ErrorNotice, Pager } from './shared';
+import { historyFieldLabel, historySummary, historyValue, type Names } from './history-words';
 import { revisionPartLabel, revisionPartValue, snapshotShape, type Snapshot } from './revision-parts';
 
 interface Revision {
@@ -24,7 +25,8 @@ interface Attempt { rev: Revision; version: number; seen: Revision }
 
 const ACTION: Record<string, string> = { create: 'Created', update: 'Changed', delete: 'Moved to trash', restore: 'Back from trash', revert: 'Restored', copy: 'Settings copied' };
 
-export function HistoryList({ type, id, canRestore, reload }: { type: string; id: string; canRestore: boolean; reload?: boolean }) {
+/** `names` gives the names of records the history points at by id (a link's ports, a device's machine). */
+export function HistoryList({ type, id, canRestore, reload, names = {} }: { type: string; id: string; canRestore: boolean; reload?: boolean; names?: Names }) {
   const qc = useQueryClient();
   const [page, setPage] = useState(1);
   const pageOf = (n: number) => () => api<PageOf<Revision>>(`/api/revisions?entityType=${type}&entityId=${id}&page=${n}&pageSize=10`);
@@ -76,14 +78,14 @@ export function HistoryList({ type, id, canRestore, reload }: { type: string; id
                 </button>
               )}
             </div>
-            {r.summary && <p className="text-sm">{r.summary}</p>}
+            {r.summary && <p className="text-sm">{historySummary(type, r.summary, r.changes)}</p>}
             {r.action !== 'create' && r.changes.length > 0 && (
               <div className="overflow-x-auto">
                 <table className="table text-xs mt-1">
                   <thead><tr><th>Field</th><th>From</th><th>To</th></tr></thead>
                   <tbody>
                     {r.changes.map((c) => (
-                      <tr key={c.field}><td>{fieldLabel(c.field)}</td><td className="mono break-all">{showValue(c.from)}</td><td className="mono break-all">{showValue(c.to)}</td></tr>
+                      <tr key={c.field}><td>{historyFieldLabel(type, c.field)}</td><td className="break-words">{historyValue(type, c.field, c.from, names)}</td><td className="break-words">{historyValue(type, c.field, c.to, names)}</td></tr>
                     ))}
                   </tbody>
                 </table>
@@ -97,7 +99,7 @@ export function HistoryList({ type, id, canRestore, reload }: { type: string; id
   );
 }
 
-export default function HistoryPanel(props: { type: string; id: string; canRestore: boolean; reload?: boolean }) {
+export default function HistoryPanel(props: { type: string; id: string; canRestore: boolean; reload?: boolean; names?: Names }) {
   return (
     <QueryProvider>
       <HistoryList {...props} />

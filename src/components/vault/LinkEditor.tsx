@@ -92,19 +92,19 @@ function Members({ link, candidates, canEdit }: { link: LinkData; candidates: Ca
   return (
     <div>
       <div className="overflow-x-auto">
-        <table className="table" data-testid="members">
+        <table className="table table-cards" data-testid="members">
           <thead><tr><th>Port</th><th>Settings</th><th>Role</th><th>At a cable end</th>{canEdit && <th><span className="sr-only">Remove</span></th>}</tr></thead>
           <tbody>
             {rows.map((r, i) => (
               <tr key={r.portId}>
-                <td>{label(r.portId)}</td>
-                <td className="mono text-sm whitespace-nowrap">{shorthand(r.portId)}</td>
-                <td>
+                <td className="font-semibold sm:font-normal">{label(r.portId)}</td>
+                <td className="mono text-sm whitespace-nowrap" data-label="Settings">{shorthand(r.portId)}</td>
+                <td data-label="Role">
                   <select className="input !w-auto !py-1" aria-label={`Role of ${label(r.portId)}`} disabled={!canEdit} value={r.role} onChange={(e) => set(i, { role: e.target.value as Member['role'] })}>
                     {MEMBER_ROLES.map((m) => <option key={m} value={m}>{m}</option>)}
                   </select>
                 </td>
-                <td>
+                <td data-label="At a cable end">
                   <select className="input !w-auto !py-1" aria-label={`Cable end for ${label(r.portId)}`} disabled={!canEdit} value={r.isEnd === null ? '' : r.isEnd ? 'yes' : 'no'} onChange={(e) => set(i, { isEnd: e.target.value === '' ? null : e.target.value === 'yes' })}>
                     <option value="">not recorded</option><option value="yes">yes</option><option value="no">no</option>
                   </select>
@@ -117,7 +117,7 @@ function Members({ link, candidates, canEdit }: { link: LinkData; candidates: Ca
       </div>
       {canEdit && (
         <div className="flex flex-wrap items-end gap-2 mt-3">
-          <label className="grow"><span className="label">Add a port on this machine</span>
+          <label className="grow min-w-0 max-w-full"><span className="label">Add a port on this machine</span>
             <select className="input" value={adding} onChange={(e) => setAdding(e.target.value)}>
               <option value="">Choose a port…</option>
               {free.map((c) => <option key={c.portId} value={c.portId}>{c.deviceTag} {c.portName} — {c.shorthand}</option>)}

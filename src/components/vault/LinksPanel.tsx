@@ -10,7 +10,7 @@ interface Props { machineId: string; initial: { items: LinkData[]; total: number
 
 function Links({ machineId, initial }: Props) {
   const q = useQuery({
-    queryKey: vaultKeys.list('links', { machineId }),
+    queryKey: vaultKeys.linksOfMachine(machineId),
     queryFn: () => api<{ items: LinkData[]; total: number }>(`/api/links?machineId=${machineId}&pageSize=200`),
     initialData: initial,
   });

@@ -64,7 +64,7 @@ function Ports({ device, canEdit }: Props) {
             <pre className="mono text-xs bg-paper p-2 rounded mt-1 whitespace-pre-wrap">{p.text}</pre>
           </details>
           <div className="flex flex-wrap gap-2 mt-2">
-            <CopyButton text={`${device.tag} — ${p.text}`} label="Copy as text" what={`${p.name} settings as text`} />
+            <CopyButton text={`${device.tag} — ${p.text}`} label="Copy as text" what={`${p.name} settings`} />
             {canEdit && editing !== p.id && <button type="button" className="btn btn-quiet btn-sm" onClick={() => setEditing(p.id)}>Edit port</button>}
             <button type="button" className="btn btn-quiet btn-sm" onClick={() => setHistory(history === p.id ? null : p.id)} aria-expanded={history === p.id}>History</button>
             {canEdit && (

@@ -33,15 +33,15 @@ function Trash({ canPurge }: { canPurge: boolean }) {
       {done && <p className="notice notice-ok" role="status">{done.text} {done.href && <a href={done.href}>Open it</a>}</p>}
       {q.data.items.length === 0 ? <p className="text-muted">The trash is empty.</p> : (
         <div className="overflow-x-auto">
-          <table className="table" data-testid="trash">
+          <table className="table table-cards" data-testid="trash">
             <thead><tr><th>What</th><th>Moved along</th><th>Deleted</th><th><span className="sr-only">Actions</span></th></tr></thead>
             <tbody>
               {q.data.items.map((i) => (
                 <tr key={`${i.type}:${i.id}`}>
                   <td><span className="text-xs text-muted uppercase mr-1">{i.type}</span> {i.label}</td>
-                  <td className="text-sm">{i.contents ? `${i.contents} record${i.contents === 1 ? '' : 's'} inside` : '—'}</td>
-                  <td className="text-sm">{new Date(i.deletedAt).toLocaleString()}<span className="block text-muted">by {i.deletedByName ?? 'someone since removed'}</span></td>
-                  <td className="whitespace-nowrap text-right">
+                  <td className="text-sm" data-label="Moved along">{i.contents ? `${i.contents} record${i.contents === 1 ? '' : 's'} inside` : '—'}</td>
+                  <td className="text-sm" data-label="Deleted">{new Date(i.deletedAt).toLocaleString()}<span className="block text-muted">by {i.deletedByName ?? 'someone since removed'}</span></td>
+                  <td className="whitespace-nowrap sm:text-right">
                     <button type="button" className="btn btn-quiet btn-sm" disabled={restore.isPending} onClick={() => restore.mutate(i)}>Restore</button>
                     {canPurge && (
                       <button type="button" className="btn btn-danger btn-sm ml-2" disabled={purge.isPending}

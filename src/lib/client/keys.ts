@@ -14,6 +14,12 @@ export const vaultKeys = {
   all: () => ['vault'] as const,
   /** A page of `/api/{kind}` for these query parameters (`{ items, total, … }`). */
   list: (kind: string, params: Record<string, unknown>) => ['vault', kind, 'list', params] as const,
+  /**
+   * A machine's links with their check state (`/api/links?machineId=…&pageSize=200`), read by the machine page
+   * and the device page's link box. A link's state depends on its ports and devices, so every port, device and
+   * link write invalidates `all()`, which this key is under: no view of a link state waits for a reload.
+   */
+  linksOfMachine: (machineId: string) => ['vault', 'links', 'list', { machineId }] as const,
   /** One record as `/api/{kind}s/{id}` answers it. */
   record: (kind: string, id: string) => ['vault', kind, id] as const,
   /** Every page of one record's history. */

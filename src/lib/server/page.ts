@@ -14,7 +14,7 @@ import { httpStatus } from './http';
 export type PageLoad<T> =
   | { ok: true; ctx: TeamContext; data: T; response?: undefined }
   | { ok: false; response: Response }
-  | { ok: false; response?: undefined; status: 404; message: string };
+  | { ok: false; response?: undefined; status: 404; message: string; ctx: TeamContext };
 
 export async function loadPage<T>(locals: App.Locals, url: URL, permission: Permission, load: (ctx: TeamContext) => Promise<T>): Promise<PageLoad<T>> {
   let ctx: TeamContext;
@@ -27,7 +27,7 @@ export async function loadPage<T>(locals: App.Locals, url: URL, permission: Perm
     return { ok: true, ctx, data: await load(ctx) };
   } catch (err) {
     if (!(err instanceof AppError) || httpStatus(err) === 500) throw err;
-    if (err instanceof NotFound || httpStatus(err) === 404) return { ok: false, status: 404, message: err.message };
+    if (err instanceof NotFound || httpStatus(err) === 404) return { ok: false, status: 404, message: err.message, ctx };
     return { ok: false, response: plain(err.message, httpStatus(err)) };
   }
 }

@@ -92,15 +92,3 @@ export async function updateLink(ctx: TeamContext, id: string, input: z.infer<ty
     return getLink(ctx, id, tx);
   });
 }
-
-/** Links any of whose members is one of `portIds` (for the device page). */
-export async function linksOfPorts(ctx: TeamContext, portIds: string[]): Promise<{ id: string; name: string; state: VaultLinkReport['state'] }[]> {
-  if (portIds.length === 0) return [];
-  const rows = await db
-    .selectDistinct({ link })
-    .from(linkMember)
-    .innerJoin(link, eq(link.id, linkMember.linkId))
-    .where(and(inArray(linkMember.portId, portIds), eq(link.teamId, ctx.team.id), isNull(link.deletedAt)));
-  const members = await loadMembers(db, rows.map((r) => r.link.id));
-  return rows.map((r) => ({ id: r.link.id, name: r.link.name, state: reportFor(r.link, members.get(r.link.id) ?? []).state }));
-}

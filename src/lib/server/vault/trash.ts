@@ -8,7 +8,7 @@ import { and, eq, getTableColumns, inArray, or, sql } from 'drizzle-orm';
 import { db, type DbOrTx, type Tx } from '../../../db/client';
 import { command, type EntityType, type RecordType } from '../../../db/schema';
 import type { TeamContext } from '../guard';
-import { Conflict } from '../errors';
+import { Conflict, NotFound } from '../errors';
 import { clearTrash, findInTeam, idsInTrash, purgeRevisions, recordRestored, stampTrash, trashRecord, type TrashStamp } from '../records/engine';
 import { ENTITIES, childrenOf, entityOf } from '../records/entities';
 import type { AnyEntity } from '../records/entity';
@@ -36,6 +36,16 @@ async function cascade(tx: DbOrTx, ctx: TeamContext, entity: AnyEntity, ids: str
     if (parents.length === 0) continue;
     await stampTrash(tx, ctx, child, inArray(parentCol, parents), stamp);
     if (childrenOf(child.type).length) await cascade(tx, ctx, child, await idsInTrash(tx, ctx, child, stamp.trashId), stamp);
+  }
+}
+
+/** Whether `id` is this team's record of `type` and in the trash (moved on its own or along with what holds it). */
+export async function isInTrash(ctx: TeamContext, type: EntityType, id: string): Promise<boolean> {
+  try {
+    return (await findInTeam(db, ctx, entityOf(type), id, 'any')).deletedAt != null;
+  } catch (err) {
+    if (err instanceof NotFound) return false;
+    throw err;
   }
 }
 
