@@ -80,6 +80,8 @@ describe('proposals in the browser', () => {
       return res.status;
     }, device);
     expect(colleague).toBe(200);
+    // The accept meets the colleague's save: the server's 409 is the point of the test.
+    eng.allow('the server responded with a status of 409');
     await eng.page.getByTestId('proposal').getByRole('button', { name: 'Accept into the record' }).click();
     const notice = eng.page.getByTestId('conflict');
     await notice.waitFor();
