@@ -28,7 +28,7 @@ const evidence = (b: { page: import('playwright-core').Page }) =>
   b.page.evaluate(() => (window as unknown as { __fakeSerial: { evidence: { opened: unknown[]; written: number[][] } } }).__fakeSerial.evidence);
 
 describe('live link', () => {
-  it('sends the index preset after the machinery caution, shows the acknowledgement decoded and the round trip, and saves the transcript as communication verified', async () => {
+  it('sends the index preset after the machinery caution, shows the acknowledgement decoded and the round trip, and saves the exchange log as communication verified', async () => {
     const b = await driveWithFakeSerial();
     const { live, page } = b;
     await live.getByLabel('Command', { exact: true }).selectOption({ label: 'Index 45° (moves machinery)' });
@@ -53,7 +53,7 @@ describe('live link', () => {
 
     await live.getByLabel('Note for the field log').fill('Index acknowledged through the live link');
     await live.getByRole('button', { name: 'Save to the field log as communication verified' }).click();
-    await live.getByText('Saved to the field log with the transcript attached.').waitFor();
+    await live.getByText('Saved to the field log with the exchange log attached.').waitFor();
     await visit(page, `/field/devices/${DRIVE}/log`);
     const entry = page.locator('[data-testid="log-entry"][data-kind="verified"]').first();
     await entry.getByText('Index acknowledged through the live link').waitFor();

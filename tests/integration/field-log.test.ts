@@ -42,24 +42,24 @@ describe('field log', () => {
     expect(expectOk(await tech.get(`/api/devices/${d.id}/field-log`)).items).toEqual([]);
   });
 
-  it('a "communication verified" entry claims the live link transcript (a configuration file of the device) and lists it among its files', async () => {
+  it('a "communication verified" entry claims the live link exchange log (a configuration file of the device) and lists it among its files', async () => {
     const tech = team.members.technician;
     const d = await makeDevice(team.members.engineer);
-    const transcript = new TextEncoder().encode('Live link transcript\n     0.000  TX   31 3F 53 54 41 2A 34 38 0D\n');
-    const file = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'config', name: 'live-link.txt' }, transcript, 'live-link.txt', 'text/plain');
+    const exchangeLog = new TextEncoder().encode('Live link exchange log\n     0.000  TX   31 3F 53 54 41 2A 34 38 0D\n');
+    const file = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'config', name: 'live-link.txt' }, exchangeLog, 'live-link.txt', 'text/plain');
     expect(file.status, JSON.stringify(file.body)).toBe(201);
     const photo = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'photo' }, PNG_BYTES, 'p.png');
-    // A photo is not a transcript, and a transcript belongs to a verification only.
-    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'verified', transcriptId: photo.body.id })).status).toBe(422);
-    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'found-different', foundSettings: 'x', transcriptId: file.body.id })).status).toBe(422);
-    const entry = await logEntry(tech, d.id, { kind: 'verified', note: 'Status query answered', transcriptId: file.body.id });
+    // A photo is not a exchangeLog, and a exchange log belongs to a verification only.
+    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'verified', exchangeLogId: photo.body.id })).status).toBe(422);
+    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'found-different', foundSettings: 'x', exchangeLogId: file.body.id })).status).toBe(422);
+    const entry = await logEntry(tech, d.id, { kind: 'verified', note: 'Status query answered', exchangeLogId: file.body.id });
     expect(entry.files.map((f: { id: string }) => f.id)).toEqual([file.body.id]);
     expect(entry.photos).toEqual([]);
-    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'verified', transcriptId: file.body.id })).status).toBe(422);
+    expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'verified', exchangeLogId: file.body.id })).status).toBe(422);
     const got = await download(tech, file.body.url);
     expect(got.status).toBe(200);
     expect(got.headers.get('content-disposition')).toMatch(/attachment; filename="live-link.txt"/);
-    expect(new TextDecoder().decode(got.bytes)).toBe(new TextDecoder().decode(transcript));
+    expect(new TextDecoder().decode(got.bytes)).toBe(new TextDecoder().decode(exchangeLog));
     expect((await team.members.owner.del(`/api/attachments/${file.body.id}`)).status).toBe(409);
   });
 

@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { createFakeSerial } from '../../src/lib/live/fake-serial';
 import { LiveLink, LINE_ERROR_TEXT } from '../../src/lib/live/session';
 import { replyComplete, replySilenceMs } from '../../src/lib/live/reply-end';
-import { transcriptText, transcriptFileName } from '../../src/lib/live/transcript';
+import { exchangeLogText, exchangeLogFileName } from '../../src/lib/live/exchange-log';
 import type { SimulatedCommand } from '../../src/lib/live/simulator';
 import { indexAckTemplate, indexMoveTemplate, statusQueryTemplate, statusReplyTemplate } from '../../src/lib/composer/demo';
 import { latin1Bytes, portSettingsSchema, type PortSettingsInput } from '../../src/lib/frame';
@@ -58,7 +58,7 @@ describe('a live link to the simulated device through the fake port', () => {
     // 9 + 20 characters of 10 bits at 9600: 30.208 ms on the wire; the fake delivers after that and the delay.
     expect(x.wireMs).toBeCloseTo(30.2083, 3);
     expect(x.roundTripMs!).toBeGreaterThanOrEqual(30);
-    expect(link.transcript.map((e) => e.kind)).toEqual(['sent', 'received']);
+    expect(link.exchangeLog.map((e) => e.kind)).toEqual(['sent', 'received']);
   });
 
   it('says when nothing comes back within the response timeout', async () => {
@@ -76,7 +76,7 @@ describe('a live link to the simulated device through the fake port', () => {
     serial.configure({ fault: 'none', line: { baud: 19200, dataBits: 8, parity: 'none', stopBits: 1 } });
     const garbage = await link.exchange(ascii('1?STA*48\r'), 'Status query', statusReplyTemplate);
     expect(garbage.lineErrors).toContain('FramingError');
-    expect(link.transcript.some((e) => e.kind === 'line-error' && e.error.includes(LINE_ERROR_TEXT))).toBe(true);
+    expect(link.exchangeLog.some((e) => e.kind === 'line-error' && e.error.includes(LINE_ERROR_TEXT))).toBe(true);
     serial.configure({ line: { baud: 9600, dataBits: 8, parity: 'none', stopBits: 1 } });
     const again = await link.exchange(ascii('1?STA*48\r'), 'Status query', statusReplyTemplate);
     expect(again.endedBy).toBe('terminator');
@@ -98,13 +98,13 @@ describe('a live link to the simulated device through the fake port', () => {
     expect(serial.evidence.opened).toEqual([]);
   });
 
-  it('writes the transcript as text with both directions and the framing', async () => {
+  it('writes the exchange log as text with both directions and the framing', async () => {
     const { link } = await connect();
     await link.exchange(ascii('1?STA*48\r'), 'Status query', statusReplyTemplate);
-    const out = transcriptText({ device: 'DRV-501 Seamer drive', port: 'Service RS-232', line: '9600 8-N-1', through: 'the simulated device (no hardware)', openedAt: new Date('2026-12-02T10:00:00Z'), options: link.options }, link.transcript);
+    const out = exchangeLogText({ device: 'DRV-501 Seamer drive', port: 'Service RS-232', line: '9600 8-N-1', through: 'the simulated device (no hardware)', openedAt: new Date('2026-12-02T10:00:00Z'), options: link.options }, link.exchangeLog);
     expect(out).toMatch(/Opened: 2026-12-02T10:00:00.000Z with baudRate 9600, dataBits 8, parity none, stopBits 1/);
     expect(out).toMatch(/TX {3}31 3F 53 54 41 2A 34 38 0D {2}\| {2}1\?STA\*48<CR> {2}\(Status query\)/);
     expect(out).toMatch(/RX {3}31 3D 53 54 41/);
-    expect(transcriptFileName('DRV-501 Seamer', new Date('2026-12-02T10:00:00Z'))).toBe('live-link-DRV-501-Seamer-2026-12-02-10-00-00.txt');
+    expect(exchangeLogFileName('DRV-501 Seamer', new Date('2026-12-02T10:00:00Z'))).toBe('live-link-DRV-501-Seamer-2026-12-02-10-00-00.txt');
   });
 });

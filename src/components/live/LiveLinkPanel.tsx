@@ -1,7 +1,7 @@
 /**
  * The live link panel (loaded on demand by LiveLinkOpener): pick a port, connect through Web Serial or to the
  * simulated device, send commands, presets or typed bytes, watch replies decoded, set and read control lines,
- * search the framing, and keep the transcript as evidence.
+ * search the framing, and keep the exchange log as evidence.
  */
 import { useEffect, useMemo, useReducer, useRef, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
@@ -14,7 +14,7 @@ import { createFakeSerial, type FakeSerial } from '../../lib/live/fake-serial';
 import type { SearchResult } from '../../lib/live/framing-search';
 import { openPlan, serialUnavailable, type SerialLike, type SerialPortLike } from '../../lib/live/serial';
 import { LiveLink, type Exchange } from '../../lib/live/session';
-import { transcriptText } from '../../lib/live/transcript';
+import { exchangeLogText } from '../../lib/live/exchange-log';
 import { ControlLines } from './ControlLines';
 import { ExchangeView } from './ExchangeView';
 import { FramingSearch } from './FramingSearch';
@@ -22,7 +22,7 @@ import { simulatedCommands, type LibraryCommand } from './library';
 import { SaveEvidence } from './SaveEvidence';
 import { SendPanel } from './SendPanel';
 import { SimulatorControls } from './SimulatorControls';
-import { TranscriptView } from './TranscriptView';
+import { ExchangeLogView } from './ExchangeLogView';
 import type { LiveLinkProps } from './types';
 
 type Through = 'port' | 'simulator';
@@ -110,9 +110,9 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
     }
   };
 
-  const transcript = () => (link && port ? transcriptText({
+  const exchangeLog = () => (link && port ? exchangeLogText({
     device: deviceLabel, port: port.name, line: lineShorthand(port.settings), through: THROUGH_TEXT[through], openedAt: link.openedAt, options: link.options,
-  }, link.transcript) : '');
+  }, link.exchangeLog) : '');
 
   if (!ports.length) return <p className="text-sm text-muted">This device has no ports yet; add one with its settings first.</p>;
 
@@ -179,8 +179,8 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
       )}
       {link && port && (
         <>
-          <TranscriptView entries={link.transcript} />
-          <SaveEvidence deviceId={deviceId} deviceLabel={deviceLabel} openedAt={link.openedAt} text={transcript} canLog={canLog} through={THROUGH_TEXT[through]} />
+          <ExchangeLogView entries={link.exchangeLog} />
+          <SaveEvidence deviceId={deviceId} deviceLabel={deviceLabel} openedAt={link.openedAt} text={exchangeLog} canLog={canLog} through={THROUGH_TEXT[through]} />
         </>
       )}
     </div>

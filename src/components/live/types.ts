@@ -6,6 +6,6 @@ export interface LiveLinkProps {
   /** `DRV-501 Seamer drive` */
   deviceLabel: string;
   ports: { name: string; settings: PortSettings }[];
-  /** Technicians and above: save the transcript to the field log. */
+  /** Technicians and above: save the exchange log to the field log. */
   canLog: boolean;
 }

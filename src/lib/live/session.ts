@@ -1,7 +1,7 @@
 /**
  * One open live link: the port opened with the stored settings, a read loop that survives framing and parity
  * errors (Web Serial replaces `readable` after them), exchanges of one request and its reply, control lines, and
- * the transcript of everything in both directions with millisecond timestamps. Works with a real Web Serial
+ * the exchange log of everything in both directions with millisecond timestamps. Works with a real Web Serial
  * port or the fake one; the clock is passed in so tests can use their own.
  */
 import type { PortSettings } from '../frame/port-settings';
@@ -10,7 +10,7 @@ import { lineTiming } from '../frame/timing';
 import { replyComplete, replySilenceMs, type ReplyEnd } from './reply-end';
 import { type InputSignals, type LinkOpenOptions, type OutputSignals, type SerialPortLike, isRecoverableReadError, openPlan } from './serial';
 
-export type TranscriptEntry =
+export type ExchangeLogEntry =
   | { kind: 'sent'; atMs: number; bytes: Uint8Array; label: string }
   | { kind: 'received'; atMs: number; bytes: Uint8Array }
   | { kind: 'line-error'; atMs: number; error: string }
@@ -45,7 +45,7 @@ interface Pending {
 export const LINE_ERROR_TEXT = 'Bytes arrived with framing errors: check baud and parity.';
 
 export class LiveLink {
-  readonly transcript: TranscriptEntry[] = [];
+  readonly exchangeLog: ExchangeLogEntry[] = [];
   readonly openedAt: Date;
   readonly options: LinkOpenOptions;
   readonly warnings: string[];
@@ -92,7 +92,7 @@ export class LiveLink {
   }
 
   note(text: string) {
-    this.transcript.push({ kind: 'note', atMs: this.elapsed(), text });
+    this.exchangeLog.push({ kind: 'note', atMs: this.elapsed(), text });
     this.changed();
   }
 
@@ -122,7 +122,7 @@ export class LiveLink {
 
   private received(bytes: Uint8Array) {
     const atMs = this.elapsed();
-    this.transcript.push({ kind: 'received', atMs, bytes: Uint8Array.from(bytes) });
+    this.exchangeLog.push({ kind: 'received', atMs, bytes: Uint8Array.from(bytes) });
     const p = this.pending;
     if (p) {
       p.chunks.push(...bytes);
@@ -136,7 +136,7 @@ export class LiveLink {
 
   private lineError(name: string) {
     const error = name === 'ParityError' || name === 'FramingError' ? LINE_ERROR_TEXT : name === 'BreakError' ? 'The line was held at space (a break).' : 'The receive buffer overflowed; bytes were lost.';
-    this.transcript.push({ kind: 'line-error', atMs: this.elapsed(), error: `${name}: ${error}` });
+    this.exchangeLog.push({ kind: 'line-error', atMs: this.elapsed(), error: `${name}: ${error}` });
     this.pending?.lineErrors.push(name);
     this.changed();
   }
@@ -178,7 +178,7 @@ export class LiveLink {
     const result = new Promise<Exchange>((resolve) => { done = resolve; });
     const p: Pending = { label, request: bytes, template: replyTemplate, startMs, chunks: [], lastMs: null, lineErrors: [], timer: null, done };
     this.pending = p;
-    this.transcript.push({ kind: 'sent', atMs: startMs, bytes, label });
+    this.exchangeLog.push({ kind: 'sent', atMs: startMs, bytes, label });
     this.changed();
     const writer = writable.getWriter();
     try {

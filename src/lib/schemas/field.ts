@@ -47,8 +47,8 @@ export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
   }),
   z.strictObject({
     kind: z.literal('verified'), note: text(4000).default(''), photoIds,
-    /** A configuration-file attachment of the device (the live link's transcript), claimed by the entry like its photos. */
-    transcriptId: id.optional(),
+    /** A configuration-file attachment of the device (the live link's exchangeLog), claimed by the entry like its photos. */
+    exchangeLogId: id.optional(),
   }),
   z.strictObject({
     kind: z.literal('found-different'),

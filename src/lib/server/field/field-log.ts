@@ -20,7 +20,7 @@ type AnnotationRow = typeof fieldLogAnnotation.$inferSelect;
 export interface FieldLogEntryView extends EntryRow {
   annotations: AnnotationRow[];
   photos: AttachmentView[];
-  /** Other files of the entry: the live link's transcript of a "communication verified" entry. */
+  /** Other files of the entry: the live link's exchange log of a "communication verified" entry. */
   files: AttachmentView[];
   /** What a replacement or finding proposed for the record, and the engineer's decision; null for other kinds. */
   proposal: ProposalView | null;
@@ -71,14 +71,14 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
         throw new Invalid('photoIds: upload the photos to this device first', { fields: { photoIds: 'One of the photos is not an unused photo of this device.' } });
       }
     }
-    const transcriptId = input.kind === 'verified' ? input.transcriptId : undefined;
-    if (transcriptId) {
+    const exchangeLogId = input.kind === 'verified' ? input.exchangeLogId : undefined;
+    if (exchangeLogId) {
       const [file] = await tx.select({ id: attachment.id }).from(attachment).where(and(
-        eq(attachment.teamId, ctx.team.id), eq(attachment.id, transcriptId), eq(attachment.ownerType, 'device'),
+        eq(attachment.teamId, ctx.team.id), eq(attachment.id, exchangeLogId), eq(attachment.ownerType, 'device'),
         eq(attachment.ownerId, deviceId), eq(attachment.kind, 'config'), isNull(attachment.entryId),
       ));
       if (!file) {
-        throw new Invalid('transcriptId: upload the transcript to this device first', { fields: { transcriptId: 'The transcript is not an unused configuration file of this device.' } });
+        throw new Invalid('exchangeLogId: upload the exchange log to this device first', { fields: { exchangeLogId: 'The exchange log is not an unused configuration file of this device.' } });
       }
     }
     await tx.insert(fieldLogEntry).values({
@@ -88,7 +88,7 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
       foundSettings: input.kind === 'found-different' ? input.foundSettings : '',
       deviceVersion: rev.number, userId: ctx.user.id, userName: ctx.user.name,
     });
-    const claimed = transcriptId ? [...photoIds, transcriptId] : photoIds;
+    const claimed = exchangeLogId ? [...photoIds, exchangeLogId] : photoIds;
     if (claimed.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, claimed)));
     await proposeFromEntry(tx, ctx, dev, id, input);
   });

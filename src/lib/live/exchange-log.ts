@@ -1,10 +1,10 @@
-/** The live link's transcript as a text file: both directions, millisecond timestamps, the framing it ran at. */
+/** The live link's exchange log as a text file: both directions, millisecond timestamps, the framing it ran at. */
 import { renderMnemonic } from '../frame/notations/mnemonic';
 import { renderHex } from '../frame/notations/numeric';
 import type { LinkOpenOptions } from './serial';
-import type { TranscriptEntry } from './session';
+import type { ExchangeLogEntry } from './session';
 
-export interface TranscriptHeader {
+export interface ExchangeLogHeader {
   device: string;
   port: string;
   /** `9600 8-N-1` */
@@ -18,9 +18,9 @@ export interface TranscriptHeader {
 const ms = (x: number) => x.toFixed(3).padStart(10);
 
 /** One line per entry: time since the link opened, direction, hex, then the bytes with control names. */
-export function transcriptText(h: TranscriptHeader, entries: readonly TranscriptEntry[]): string {
+export function exchangeLogText(h: ExchangeLogHeader, entries: readonly ExchangeLogEntry[]): string {
   const lines = [
-    'Live link transcript',
+    'Live link exchange log',
     `Device: ${h.device}`,
     `Port: ${h.port} at ${h.line}, flow control ${h.options.flowControl}`,
     `Through: ${h.through}`,
@@ -39,8 +39,8 @@ export function transcriptText(h: TranscriptHeader, entries: readonly Transcript
   return `${lines.join('\n')}\n`;
 }
 
-/** A file name for the transcript: the device and the time it was opened, letters, digits and dashes only. */
-export function transcriptFileName(device: string, openedAt: Date): string {
+/** A file name for the exchangeLog: the device and the time it was opened, letters, digits and dashes only. */
+export function exchangeLogFileName(device: string, openedAt: Date): string {
   const stamp = openedAt.toISOString().slice(0, 19).replace(/[:T]/g, '-');
   const name = device.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-+|-+$/g, '') || 'device';
   return `live-link-${name}-${stamp}.txt`;

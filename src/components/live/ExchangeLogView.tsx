@@ -1,17 +1,17 @@
-/** The live transcript: every chunk in both directions, line errors and notes, with milliseconds since the link opened. */
+/** The live exchangeLog: every chunk in both directions, line errors and notes, with milliseconds since the link opened. */
 import { renderHex } from '../../lib/frame/notations/numeric';
 import { renderMnemonic } from '../../lib/frame/notations/mnemonic';
-import type { TranscriptEntry } from '../../lib/live/session';
+import type { ExchangeLogEntry } from '../../lib/live/session';
 
 const DIR = { sent: 'TX', received: 'RX', 'line-error': 'ERR', note: '—' } as const;
 
-export function TranscriptView({ entries }: { entries: readonly TranscriptEntry[] }) {
+export function ExchangeLogView({ entries }: { entries: readonly ExchangeLogEntry[] }) {
   return (
     <div className="grid gap-2">
-      <h3>Transcript</h3>
+      <h3>ExchangeLog</h3>
       {entries.length === 0 ? <p className="text-sm text-muted">Nothing sent or received yet.</p> : (
         <div className="overflow-x-auto max-h-80 overflow-y-auto border border-line rounded">
-          <table className="table text-sm" data-testid="live-transcript">
+          <table className="table text-sm" data-testid="live-exchange-log">
             <thead><tr><th>ms</th><th>Dir</th><th>Bytes</th></tr></thead>
             <tbody>
               {entries.map((e, i) => (
