@@ -14,6 +14,9 @@ async function browser(options?: Parameters<typeof openInPool>[0]): Promise<Brow
 }
 
 async function create(page: Page, button: string, fields: Record<string, string>) {
+  // The page the form sits on matches the record pattern too (a site's page adds a machine), so wait for
+  // the address to change, not just to match: otherwise the next step may click on the page being left.
+  const from = page.url();
   await page.getByRole('button', { name: button }).click();
   const form = page.getByRole('form', { name: button });
   for (const [label, value] of Object.entries(fields)) {
@@ -22,7 +25,7 @@ async function create(page: Page, button: string, fields: Record<string, string>
     else await field.fill(value);
   }
   await form.getByRole('button', { name: 'Create' }).click();
-  await page.waitForURL(/\/vault\/(sites|machines|devices|links|profiles)\/[^/]+$/);
+  await page.waitForURL((url) => url.href !== from && /\/vault\/(sites|machines|devices|links|profiles)\/[^/]+$/.test(url.pathname));
   await hydrated(page);
 }
 

@@ -49,7 +49,7 @@ describe('field log', () => {
     const file = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'config', name: 'live-link.txt' }, exchangeLog, 'live-link.txt', 'text/plain');
     expect(file.status, JSON.stringify(file.body)).toBe(201);
     const photo = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'photo' }, PNG_BYTES, 'p.png');
-    // A photo is not a exchangeLog, and a exchange log belongs to a verification only.
+    // A photo is not an exchange log, and an exchange log belongs to a verification only.
     expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'verified', exchangeLogId: photo.body.id })).status).toBe(422);
     expect((await tech.post(`/api/devices/${d.id}/field-log`, { kind: 'found-different', foundSettings: 'x', exchangeLogId: file.body.id })).status).toBe(422);
     const entry = await logEntry(tech, d.id, { kind: 'verified', note: 'Status query answered', exchangeLogId: file.body.id });
