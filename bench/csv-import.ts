@@ -42,7 +42,9 @@ try {
   const port = await freePort();
   const app = `http://127.0.0.1:${port}`;
   let log = '';
-  const server = spawn(process.execPath, ['server/serve.mjs'], { env: { ...env, HOST: '127.0.0.1', PORT: String(port), BASE_URL: app, SEED_DEMO: '0' }, stdio: ['ignore', 'pipe', 'pipe'] });
+  // BENCH_PROFILE=dir writes the server's CPU profile there (node --cpu-prof), to see where the import's time goes.
+  const profile = process.env.BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
+  const server = spawn(process.execPath, [...profile, 'server/serve.mjs'], { env: { ...env, HOST: '127.0.0.1', PORT: String(port), BASE_URL: app, SEED_DEMO: '0' }, stdio: ['ignore', 'pipe', 'pipe'] });
   children.push(server);
   server.stdout!.on('data', (d) => (log += d));
   server.stderr!.on('data', (d) => (log += d));
@@ -124,6 +126,6 @@ try {
   if (!(total <= TARGET_MS && ok)) process.exitCode = 1;
 } finally {
   for (const c of children) c.kill('SIGTERM');
-  await new Promise((r) => setTimeout(r, 300));
+  await new Promise((r) => setTimeout(r, process.env.BENCH_PROFILE ? 2500 : 300));
   rmSync(dir, { recursive: true, force: true });
 }

@@ -120,6 +120,19 @@ describe('search scoped by team in the index', () => {
   });
 });
 
+describe('search order and words', () => {
+  it('puts devices whose tag holds every typed word first, then the rest, each by tag; only the last word may be cut short', async () => {
+    // Expected order from docs/api.md ("Search"): tag matches first, then tag order.
+    const inTag = expectOk(await eng.post('/api/devices', { machineId: device.machineId, tag: `ZQ-${u}`, name: 'Feeder' }), 201);
+    const inMaker = expectOk(await eng.post('/api/devices', { machineId: device.machineId, tag: `AQ-${u}`, maker: 'Zq Works' }), 201);
+    const res = expectOk(await eng.get(`/api/devices/search?q=${encodeURIComponent(`zq ${u}`)}`));
+    expect(ids(res)).toEqual([inTag.id, inMaker.id]);
+    // Earlier words are whole words; the last is the start of a word.
+    expect(ids(expectOk(await eng.get(`/api/devices/search?q=${encodeURIComponent(`works ${u.slice(0, 3)}`)}`)))).toContain(inMaker.id);
+    expect(ids(expectOk(await eng.get(`/api/devices/search?q=${encodeURIComponent(`wor ${u}`)}`)))).toEqual([]);
+  });
+});
+
 describe('search of commands and port notes (/api/search)', () => {
   it('finds a command by its name and by the text it sends, and no longer once it is in the trash', async () => {
     // The literal bytes 31 21 53 54 4F 50 spell "1!STOP" in ASCII (our demo syntax; ASCII table, from memory).

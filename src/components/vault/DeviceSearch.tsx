@@ -35,7 +35,7 @@ function Finder() {
         return (
           <div className="mt-2" aria-live="polite">
             <p className="text-sm text-muted">
-              {devices.total === 0 && records.items.length === 0 ? 'Nothing found.' : `${count}${devices.total > devices.items.length ? `, best ${devices.items.length} shown` : ''}${devices.totalCapped ? ' (add a word to narrow it)' : ''}.`}
+              {devices.total === 0 && records.items.length === 0 ? 'Nothing found.' : `${count}${devices.total > devices.items.length ? `, first ${devices.items.length} shown` : ''}${devices.totalCapped ? ' (add a word to narrow it)' : ''}.`}
             </p>
             <ul className="divide-y divide-line" data-testid="search-results">
               {devices.items.map((h) => (

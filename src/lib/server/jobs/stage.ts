@@ -13,6 +13,7 @@
 import { eq, getTableColumns, getTableName, is, sql, SQL, type Column } from 'drizzle-orm';
 import type { SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { db, type Tx } from '../../../db/client';
+import { CONNECTION_CACHE_KIB } from '../../../db/connection-settings';
 import { device, job, jobRow, revision } from '../../../db/schema';
 import { Conflict } from '../errors';
 import { ENTITIES, entityOf } from '../records/entities';
@@ -188,9 +189,9 @@ export class Stage {
     }
   }
 
-  /** Last in the final transaction, whatever happened: the connection goes back to the pool with SQLite's default page cache. */
+  /** Last in the final transaction, whatever happened: the connection goes back to the pool with the app's page cache. */
   async restoreCache(tx: Tx): Promise<void> {
-    await tx.run(sql.raw('PRAGMA cache_size = -2000')).catch(() => undefined);
+    await tx.run(sql.raw(`PRAGMA cache_size = -${CONNECTION_CACHE_KIB}`)).catch(() => undefined);
   }
 
   /** After the commit: the rows that follow it (the job's history), then whatever is left in the stage. */

@@ -1,13 +1,16 @@
 /** FTS5 query text for the search indexes; no database access, so the benchmark's baseline can share it. */
 
 /**
- * An FTS5 query from what the user typed: every run of letters/digits must match the start of
- * a word in some field (`DRV-20` finds `DRV-201`). Null when nothing searchable was typed.
+ * An FTS5 query from what the user typed, as a search box reads it while typing: every run of letters/digits must
+ * match a whole word in some field, and the last one the start of a word (`DRV-20` finds `DRV-201`; `plant 7 li`
+ * finds "Line 7 of plant 7"). Only the last word is a prefix because FTS5 gathers every word a prefix stands for
+ * before it can skip through them (a cost that grows with the team); whole words are read only as far as needed.
+ * Null when nothing searchable was typed.
  */
 export function ftsQuery(text: string): string | null {
   const tokens = text.toLowerCase().match(/[\p{L}\p{N}]+/gu)?.slice(0, 8) ?? [];
   if (tokens.length === 0) return null;
-  return tokens.map((t) => `"${t}"*`).join(' ');
+  return tokens.map((t, i) => (i === tokens.length - 1 ? `"${t}"*` : `"${t}"`)).join(' ');
 }
 
 /**
