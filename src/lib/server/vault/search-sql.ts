@@ -7,7 +7,7 @@ import { sql, type SQL } from 'drizzle-orm';
 import { RECORD_SEARCH_COLUMNS, teamFtsQuery } from './fts';
 
 /** Matches read per search; above it the answer says `totalCapped: true` and orders the first SEARCH_CAP found. */
-export const SEARCH_CAP = 500;
+export const SEARCH_CAP = 200;
 
 /**
  * One page of a device search as rows; every row also carries `found` (matches read, up to SEARCH_CAP + 1) and
