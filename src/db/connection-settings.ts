@@ -11,8 +11,12 @@ import Database from 'libsql';
  *   checkpoint (docs/decisions/008-long-jobs-in-batches.md).
  * - `wal_autocheckpoint = 0`: a commit never copies the log into the database file on the committing (main)
  *   thread; the checkpointer (src/db/checkpointer.ts) does it from a worker thread.
+ * - `cache_size`: a page cache of CONNECTION_CACHE_KIB (SQLite's default is 2 MB). A page of a large team's list
+ *   or search touches rows spread over the tables; with the small cache each is read from the operating system
+ *   again (docs/performance.md). It is an upper bound, filled only as pages are read.
  */
-export const CONNECTION_PRAGMAS = ['PRAGMA synchronous = NORMAL', 'PRAGMA wal_autocheckpoint = 0'] as const;
+export const CONNECTION_CACHE_KIB = 32 * 1024;
+export const CONNECTION_PRAGMAS = ['PRAGMA synchronous = NORMAL', 'PRAGMA wal_autocheckpoint = 0', `PRAGMA cache_size = -${CONNECTION_CACHE_KIB}`] as const;
 
 const configured = new WeakSet<object>();
 let installed = false;

@@ -46,7 +46,7 @@ describe('proposals in the browser', () => {
 
     for (const serial of [NEW_SERIAL, OLD_SERIAL]) {
       await visit(eng.page, '/vault');
-      await eng.page.getByLabel('Find a device anywhere in the team').fill(serial);
+      await eng.page.getByLabel('Find a device, command or port note anywhere in the team').fill(serial);
       await eng.page.getByTestId('search-results').getByRole('link', { name: 'DRV-202' }).waitFor();
     }
     await shot(eng.page, 'proposal-search-old-serial-desktop');

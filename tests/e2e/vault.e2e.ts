@@ -243,9 +243,13 @@ describe('vault in the browser', () => {
       const { page } = await browser({ viewport });
       await signIn(page, 'technician@fernhollow.test');
       await visit(page, '/vault');
-      await page.getByLabel('Find a device anywhere in the team').fill('DRV-203');
+      await page.getByLabel('Find a device, command or port note anywhere in the team').fill('DRV-203');
       await page.getByTestId('search-results').getByRole('link', { name: 'DRV-203' }).waitFor();
       await shot(page, `vault-index-${name}`);
+      // Commands are found too (the demo's turret index command, by a word of its purpose).
+      await page.getByLabel('Find a device, command or port note anywhere in the team').fill('turret');
+      await page.getByTestId('record-results').getByRole('link', { name: 'Index 45°' }).waitFor();
+      await shot(page, `vault-index-commands-${name}`);
       await visit(page, '/vault/machines/mach_demo_churn');
       const bus = page.getByTestId('links').locator('li', { hasText: 'Churn drive bus' });
       expect(await bus.getByTestId('link-state').getAttribute('data-state')).toBe('error');

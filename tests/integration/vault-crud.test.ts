@@ -222,13 +222,14 @@ describe('lists', () => {
     expect(first.updatedAt).toBe(made[0].updatedAt); // the same ISO text as the device's own answer
     expect(first.ports.map((p: { name: string; shorthand: string }) => `${p.name} ${p.shorthand}`)).toEqual(['P1 9600 8-E-1', 'P3 38400 8-N-1']);
 
-    // Byte order with id breaking ties, as SQLite's BINARY collation compares ASCII text.
+    // Byte order with id breaking ties in the same direction (docs/api.md: the list is read off an index, forwards or
+    // backwards), as SQLite's BINARY collation compares ASCII text.
     const cmp = (a: string | number, b: string | number) => (a < b ? -1 : a > b ? 1 : 0);
     const keyOf = (d: Record<string, string>, sort: string) => (sort === 'updatedAt' ? new Date(d.updatedAt).getTime() : d[sort]!);
     for (const sort of ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'machineName', 'siteName', 'updatedAt']) {
       for (const dir of ['asc', 'desc'] as const) {
         const expected = [...all.items]
-          .sort((a, b) => (dir === 'asc' ? 1 : -1) * cmp(keyOf(a, sort), keyOf(b, sort)) || cmp(a.id, b.id))
+          .sort((a, b) => (dir === 'asc' ? 1 : -1) * (cmp(keyOf(a, sort), keyOf(b, sort)) || cmp(a.id, b.id)))
           .map((d: { id: string }) => d.id);
         const got = expectOk(await eng.get(`/api/devices?q=${word}&sort=${sort}&dir=${dir}&pageSize=200`));
         expect(got.items.map((d: { id: string }) => d.id), `${sort} ${dir}`).toEqual(expected);

@@ -6,13 +6,14 @@ import { api } from '../../lib/client/api';
 import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
 import { DEVICE_ROLES, DEVICE_ROLE_LABELS } from '../../lib/schemas/vault';
-import { ErrorNotice, Pager } from './shared';
+import { CursorPager, ErrorNotice } from './shared';
 
 interface Row {
   id: string; tag: string; name: string; role: (typeof DEVICE_ROLES)[number]; maker: string; model: string; serialNumber: string;
   machineName: string; siteName: string; updatedAt: string; ports: { id: string; name: string; shorthand: string }[];
 }
-interface PageOf<T> { items: T[]; total: number; page: number; pageSize: number }
+/** A page of the device list: `total` stops at the cap (`totalCapped`), `next` is the cursor of the page after it. */
+interface PageOf<T> { items: T[]; total: number; totalCapped: boolean; next: string | null; pageSize: number }
 
 const col = createColumnHelper<Row>();
 const columns = [
@@ -49,19 +50,23 @@ function Table({ machineId, siteId, hide = [] }: Props) {
   const [visibility, setVisibility] = useState<VisibilityState>(() => Object.fromEntries(['serialNumber', 'updatedAt', ...hide].map((h) => [h, false])));
   const [filter, setFilter] = useState('');
   const [role, setRole] = useState('');
-  const [page, setPage] = useState(1);
+  // Pages are read by cursor: cursors[i] is the `next` of page i (page 1 has none), kept for going back.
+  const [cursors, setCursors] = useState<string[]>([]);
+  const page = cursors.length + 1;
   const [pageSize, setPageSize] = useState(25);
   const q = useDebounced(filter.trim());
-  useEffect(() => setPage(1), [q, role, pageSize, sorting]);
+  useEffect(() => setCursors([]), [q, role, pageSize, sorting]);
 
   const params = useMemo(() => {
-    const p = new URLSearchParams({ page: String(page), pageSize: String(pageSize), sort: sorting[0]?.id ?? 'tag', dir: sorting[0]?.desc ? 'desc' : 'asc' });
+    const p = new URLSearchParams({ pageSize: String(pageSize), sort: sorting[0]?.id ?? 'tag', dir: sorting[0]?.desc ? 'desc' : 'asc' });
+    const after = cursors[cursors.length - 1];
+    if (after) p.set('after', after);
     if (machineId) p.set('machineId', machineId);
     if (siteId) p.set('siteId', siteId);
     if (role) p.set('role', role);
     if (/[\p{L}\p{N}]/u.test(q)) p.set('q', q);
     return p.toString();
-  }, [page, pageSize, sorting, machineId, siteId, role, q]);
+  }, [cursors, pageSize, sorting, machineId, siteId, role, q]);
   const query = useQuery({ queryKey: vaultKeys.list('devices', { params }), queryFn: () => api<PageOf<Row>>(`/api/devices?${params}`), placeholderData: keepPreviousData });
 
   const table = useReactTable({
@@ -137,7 +142,13 @@ function Table({ machineId, siteId, hide = [] }: Props) {
           </tbody>
         </table>
       </div>
-      {query.data && <Pager page={page} pageSize={pageSize} total={query.data.total} onPage={setPage} />}
+      {query.data && (
+        <CursorPager
+          page={page} pageSize={pageSize} total={query.data.total} capped={query.data.totalCapped}
+          onPrevious={() => setCursors((c) => c.slice(0, -1))}
+          onNext={query.data.next ? () => setCursors((c) => [...c, query.data!.next!]) : undefined}
+        />
+      )}
     </div>
   );
 }

@@ -57,6 +57,24 @@ export function Pager({ page, pageSize, total, onPage }: { page: number; pageSiz
   );
 }
 
+/**
+ * Previous and next for a list read by cursor, whose total is counted up to a cap: past it the total reads "more
+ * than", and the number of pages is not known.
+ */
+export function CursorPager({ page, pageSize, total, capped, onPrevious, onNext }: {
+  page: number; pageSize: number; total: number; capped: boolean; onPrevious: () => void; onNext?: () => void;
+}) {
+  const all = capped ? `more than ${total.toLocaleString('en')} in all` : `${total.toLocaleString('en')} in all`;
+  const pages = capped ? '' : ` of ${Math.max(1, Math.ceil(total / pageSize))}`;
+  return (
+    <nav aria-label="Pages" className="flex flex-wrap items-center gap-2 text-sm mt-3">
+      <button type="button" className="btn btn-quiet btn-sm" disabled={page <= 1} onClick={onPrevious}>Previous</button>
+      <span>Page {page}{pages} · {all}</span>
+      <button type="button" className="btn btn-quiet btn-sm" disabled={!onNext} onClick={onNext}>Next</button>
+    </nav>
+  );
+}
+
 export { showValue } from '../../lib/client/conflict';
 
 export function fieldLabel(field: string): string {

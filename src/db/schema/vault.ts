@@ -147,6 +147,14 @@ export const device = sqliteTable(
     index('device_team_tag_idx').on(t.teamId, t.tag, t.id, t.deletedAt),
     index('device_team_updated_idx').on(t.teamId, t.updatedAt, t.id, t.deletedAt),
     index('device_machine_idx').on(t.machineId, t.tag, t.id, t.deletedAt),
+    // The other list orders on the device's own columns, read off an index too (a page costs the same in a team of
+    // any size). Without `deleted_at`: showing or trashing a device leaves these entries alone; the list looks it up
+    // in the row for the page's rows only.
+    index('device_team_name_idx').on(t.teamId, t.name, t.id),
+    index('device_team_role_idx').on(t.teamId, t.role, t.id),
+    index('device_team_maker_idx').on(t.teamId, t.maker, t.id),
+    index('device_team_model_idx').on(t.teamId, t.model, t.id),
+    index('device_team_serial_idx').on(t.teamId, t.serialNumber, t.id),
     // Two live devices of one machine never share a tag, letter case of A–Z aside (as port names on a device).
     uniqueIndex('device_machine_tag_nocase_uq').on(t.machineId, sql`${t.tag} COLLATE NOCASE`).where(sql`deleted_at IS NULL`),
     trashIndex('device_trash_idx', t.trashId),

@@ -25,7 +25,7 @@ export const vaultKeys = {
   /** Every page of one record's history. */
   historyOf: (type: string, id: string) => ['vault', 'history', type, id] as const,
   history: (type: string, id: string, page: number) => ['vault', 'history', type, id, page] as const,
-  /** `/api/devices/search` hits; the page size is part of the request. */
+  /** `/api/search` hits (devices, commands, port notes); the limit is part of the request. */
   search: (q: string, pageSize: number) => ['vault', 'search', q, pageSize] as const,
   trash: (page: number) => ['vault', 'trash', page] as const,
 };

@@ -100,6 +100,7 @@ export const vaultCases: RouteCase[] = [
     otherTeam: async (_t, o) => ({ path: '/api/ports', body: { deviceId: (await makeDevice(owner(o))).id, name: 'Aux' } }),
   },
   { method: 'GET', route: '/api/devices/search', allowed: ALL, prepare: async () => ({ path: '/api/devices/search?q=drv' }) },
+  { method: 'GET', route: '/api/search', allowed: ALL, prepare: async () => ({ path: '/api/search?q=drv' }) },
   {
     method: 'POST', route: '/api/devices/copy', allowed: FIELD,
     prepare: async (t) => {

@@ -9,6 +9,7 @@ import { deviceListParams, linkListParams, machineListParams, portExportParams, 
 import { listSites } from '../vault/sites';
 import { listMachines } from '../vault/machines';
 import { listDevices } from '../vault/devices';
+import { parseDeviceCursor } from '../vault/device-list-sql';
 import { listLinks } from '../vault/links';
 import { listProfiles } from '../vault/profiles';
 import { portShorthand } from '../../frame/port-text';
@@ -49,7 +50,15 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
   }
   if (table === 'devices') {
     const o = deviceListParams(u);
-    const items = await allPages((page) => listDevices(ctx, { ...o, page }));
+    const items: Awaited<ReturnType<typeof listDevices>>['items'] = [];
+    // Page after page by the list's cursor (an offset would read every earlier row again on each page).
+    for (let after = o.after; ;) {
+      if (items.length) await nextTurn();
+      const p = await listDevices(ctx, { ...o, page: 1, after });
+      items.push(...p.items);
+      if (!p.next || p.items.length === 0 || items.length >= MAX_ROWS) break;
+      after = parseDeviceCursor(p.next)!;
+    }
     return {
       columns: ['id', 'site', 'machine', 'tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'firmware', 'location', 'ports', 'version', 'updatedAt'],
       rows: items.map((d) => [d.id, d.siteName, d.machineName, d.tag, d.name, d.role, d.maker, d.model, d.serialNumber, d.firmware, d.location, d.ports.map((p) => `${p.name}: ${p.shorthand}`).join('; '), d.version, d.updatedAt]),

@@ -1,6 +1,7 @@
 /**
- * A 10,000-device team for benchmarks and scale checks: 20 sites × 10 machines × 50 devices, each
- * device with one or two ports. Batched inserts in one transaction; skipped if the team exists.
+ * A large team for benchmarks and scale checks: by default 10,000 devices (20 sites × 10 machines × 50 devices),
+ * each device with one or two ports; `devices` asks for another count (sites of 500 devices, the last one partly
+ * filled). Batched inserts in one transaction; skipped if the team exists.
  */
 import { eq } from 'drizzle-orm';
 import { db } from '../../../db/client';
@@ -23,10 +24,12 @@ function chunk<T>(rows: T[], size: number): T[][] {
   return out;
 }
 
-export async function seedLarge(opts: { sites?: number; machinesPerSite?: number; devicesPerMachine?: number } = {}) {
-  const sites = opts.sites ?? 20;
+export async function seedLarge(opts: { sites?: number; machinesPerSite?: number; devicesPerMachine?: number; devices?: number } = {}) {
   const perSite = opts.machinesPerSite ?? 10;
   const perMachine = opts.devicesPerMachine ?? 50;
+  if (opts.devices !== undefined && !(Number.isInteger(opts.devices) && opts.devices > 0)) throw new Error('devices: a whole number above 0');
+  const sites = opts.devices !== undefined ? Math.ceil(opts.devices / (perSite * perMachine)) : (opts.sites ?? 20);
+  const limit = opts.devices ?? sites * perSite * perMachine;
   const [existing] = await db.select({ id: team.id }).from(team).where(eq(team.id, LARGE_TEAM_ID));
   if (existing) return { teamId: LARGE_TEAM_ID, email: LARGE_EMAIL, password: LARGE_PASSWORD, created: false, devices: 0 };
 
@@ -44,7 +47,7 @@ export async function seedLarge(opts: { sites?: number; machinesPerSite?: number
     for (let m = 0; m < perSite; m++) {
       const machineId = `mach_large_${s}_${m}`;
       machineRows.push({ id: machineId, teamId: LARGE_TEAM_ID, siteId, name: `Line ${m + 1} of plant ${s + 1}`, code: `L${m + 1}`, updatedBy: userId });
-      for (let d = 0; d < perMachine; d++, n++) {
+      for (let d = 0; d < perMachine && n < limit; d++, n++) {
         const role = DEVICE_ROLES[n % DEVICE_ROLES.length]!;
         const id = `dev_large_${n}`;
         deviceRows.push({

@@ -4,14 +4,33 @@
  */
 import { sql, type SQL } from 'drizzle-orm';
 import type { DEVICE_ROLES } from '../../schemas/vault';
-import { ftsQuery } from './fts';
+import { teamFtsQuery } from './fts';
 import { PARITY_LETTERS, SHORTHAND_PIECES, type ShorthandPiece } from '../../frame/port-text';
 
 export const DEVICE_SORTS = ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'machineName', 'siteName', 'updatedAt'] as const;
 
 export type DeviceListOptions = {
   page: number; pageSize: number; sort: string; dir: 'asc' | 'desc'; machineId?: string; siteId?: string; role?: (typeof DEVICE_ROLES)[number]; q?: string;
+  /** Keyset cursor: the `next` of the previous page (its last row's sort key and id); `page` is then ignored. */
+  after?: DeviceCursor;
 };
+
+/** The last row of a page: its sort key (text, or milliseconds for `updatedAt`) and its id. */
+export type DeviceCursor = [string | number, string];
+
+/** Totals are counted up to this many rows; above it the list says `totalCapped: true` (docs/api.md). */
+export const TOTAL_CAP = 1000;
+
+/** A cursor as the client sends it back (`after=`, the JSON text of a page's `next`); null when it is not one. */
+export function parseDeviceCursor(text: string): DeviceCursor | null {
+  try {
+    const v = JSON.parse(text) as unknown;
+    if (Array.isArray(v) && v.length === 2 && (typeof v[0] === 'string' || (typeof v[0] === 'number' && Number.isFinite(v[0]))) && typeof v[1] === 'string') return [v[0], v[1]];
+  } catch {
+    // not JSON
+  }
+  return null;
+}
 
 /** Each list order as SQL; `id` breaks ties. Orders on machine or site names join those tables into the page query. */
 const SORT_SQL: Record<(typeof DEVICE_SORTS)[number], { key: SQL; joins: 'none' | 'machine' | 'site' }> = {
@@ -57,27 +76,36 @@ const piecesSql = (pieces: readonly ShorthandPiece[]) => sql.join(pieces.map(pie
  */
 export const PORT_SHORTHAND_SQL = sql`CASE WHEN ${setting('interface')} = 'tcp' THEN ${piecesSql(SHORTHAND_PIECES.tcp)} ELSE ${piecesSql(SHORTHAND_PIECES.serial)} END`;
 
-/** The statement behind `listDevicesJson` (one row, one column: `page`); the vault benchmark's baseline runs it too. */
+/**
+ * The statement behind `listDevicesJson` (one row, one column: `page`); the vault benchmark's baseline runs it too.
+ * Its cost does not grow with the team: the page is read off an index that serves the order (`device_team_*_idx`,
+ * ties broken by `id` in the same direction), from the cursor on (`after`) or from an offset (`page`, kept for old
+ * links; its cost grows with the page number); the total is counted up to TOTAL_CAP rows.
+ */
 export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQL {
-  const match = opts.q ? ftsQuery(opts.q) : null;
-  const conditions = [
+  const match = opts.q ? teamFtsQuery(teamId, opts.q) : null;
+  const order = SORT_SQL[opts.sort as (typeof DEVICE_SORTS)[number]] ?? SORT_SQL.tag;
+  const desc = opts.dir === 'desc';
+  const dir = sql.raw(desc ? 'DESC' : 'ASC');
+  const filters = [
     sql`device.team_id = ${teamId} AND device.deleted_at IS NULL`,
     opts.machineId ? sql`device.machine_id = ${opts.machineId}` : undefined,
     opts.siteId ? sql`machine.site_id = ${opts.siteId}` : undefined,
     opts.role ? sql`device.role = ${opts.role}` : undefined,
-    match ? sql`device.id IN (SELECT device_id FROM device_search WHERE device_search MATCH ${match} AND team_id = ${teamId})` : undefined,
+    match ? sql`device.id IN (SELECT device_id FROM device_search WHERE device_search MATCH ${match})` : undefined,
   ].filter((c): c is SQL => c !== undefined);
-  const where = sql.join(conditions, sql` AND `);
-  const order = SORT_SQL[opts.sort as (typeof DEVICE_SORTS)[number]] ?? SORT_SQL.tag;
-  const dir = sql.raw(opts.dir === 'desc' ? 'DESC' : 'ASC');
+  const where = sql.join(filters, sql` AND `);
+  const after = opts.after ? sql`AND (${order.key}, device.id) ${sql.raw(desc ? '<' : '>')} (${opts.after[0]}, ${opts.after[1]})` : sql``;
+  const offset = opts.after ? 0 : (opts.page - 1) * opts.pageSize;
   const needsMachine = order.joins !== 'none' || !!opts.siteId;
   const joins = sql.join([needsMachine ? JOIN_MACHINE : undefined, order.joins === 'site' ? JOIN_SITE : undefined].filter((j): j is SQL => !!j), sql` `);
   const countJoins = opts.siteId ? JOIN_MACHINE : sql``;
   return sql`
-    WITH page AS (
-      SELECT device.id AS id, ${order.key} AS k FROM device ${joins} WHERE ${where}
-      ORDER BY k ${dir}, device.id LIMIT ${opts.pageSize} OFFSET ${(opts.page - 1) * opts.pageSize}
-    )
+    WITH rows AS MATERIALIZED (
+      SELECT device.id AS id, ${order.key} AS k FROM device ${joins} WHERE ${where} ${after}
+      ORDER BY k ${dir}, device.id ${dir} LIMIT ${opts.pageSize + 1} OFFSET ${offset}
+    ), page AS MATERIALIZED (SELECT id, k FROM rows ORDER BY k ${dir}, id ${dir} LIMIT ${opts.pageSize}),
+    counted AS MATERIALIZED (SELECT count(*) AS n FROM (SELECT 1 FROM device ${countJoins} WHERE ${where} LIMIT ${TOTAL_CAP + 1}))
     SELECT json_object(
       'items', (SELECT json_group_array(json_object(
          'id', device.id, 'tag', device.tag, 'name', device.name, 'role', device.role, 'maker', device.maker,
@@ -87,10 +115,12 @@ export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQ
          'ports', (SELECT json_group_array(json_object('id', port.id, 'name', port.name, 'shorthand', ${PORT_SHORTHAND_SQL},
                      'interface', port.settings ->> '$.interface') ORDER BY port.position, port.id)
                    FROM port WHERE port.device_id = device.id AND port.deleted_at IS NULL)
-       ) ORDER BY page.k ${dir}, page.id)
+       ) ORDER BY page.k ${dir}, page.id ${dir})
        FROM page JOIN device ON device.id = page.id ${JOIN_MACHINE} ${JOIN_SITE}),
-      'page', ${opts.page}, 'pageSize', ${opts.pageSize},
-      'total', (SELECT count(*) FROM device ${countJoins} WHERE ${where}),
+      'page', ${opts.after ? null : opts.page}, 'pageSize', ${opts.pageSize},
+      'total', min((SELECT n FROM counted), ${TOTAL_CAP}), 'totalCapped', json((SELECT CASE WHEN n > ${TOTAL_CAP} THEN 'true' ELSE 'false' END FROM counted)),
+      'next', CASE WHEN (SELECT count(*) FROM rows) > ${opts.pageSize}
+        THEN (SELECT json_array(k, id) || '' FROM page ORDER BY k ${dir}, id ${dir} LIMIT 1 OFFSET ${opts.pageSize - 1}) END,
       'sort', ${opts.sort}, 'dir', ${opts.dir}
     ) AS page`;
 }

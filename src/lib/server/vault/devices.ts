@@ -39,9 +39,12 @@ export async function listDevicesJson(ctx: TeamContext, opts: DeviceListOptions)
   return row!.page;
 }
 
+/** What the device list says beside `Page`: whether `total` stopped at the cap, and the cursor of the next page. */
+export interface DeviceListExtras { totalCapped: boolean; next: string | null }
+
 /** The same page as objects, for pages and exports that read it on the server. */
-export async function listDevices(ctx: TeamContext, opts: DeviceListOptions): Promise<Page<DeviceListItem>> {
-  const page = JSON.parse(await listDevicesJson(ctx, opts)) as Page<Omit<DeviceListItem, 'updatedAt'> & { updatedAt: string }>;
+export async function listDevices(ctx: TeamContext, opts: DeviceListOptions): Promise<Page<DeviceListItem> & DeviceListExtras> {
+  const page = JSON.parse(await listDevicesJson(ctx, opts)) as Page<Omit<DeviceListItem, 'updatedAt'> & { updatedAt: string }> & DeviceListExtras;
   return { ...page, items: page.items.map((d) => ({ ...d, updatedAt: new Date(d.updatedAt) })) };
 }
 
