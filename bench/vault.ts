@@ -13,6 +13,7 @@ import { createHash } from 'node:crypto';
 import { createServer } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { freePort } from '../tests/helpers/server';
 import { createClient, type InArgs } from '@libsql/client';
 import { SQLiteAsyncDialect } from 'drizzle-orm/sqlite-core';
 // @ts-expect-error autocannon ships no type declarations (and none are installed)
@@ -93,14 +94,6 @@ async function waitFor(url: string, child: ChildProcess, log: () => string) {
     if (Date.now() > deadline) throw new Error(`not ready:\n${log()}`);
     await new Promise((r) => setTimeout(r, 100));
   }
-}
-
-async function freePort(): Promise<number> {
-  const s = createServer();
-  await new Promise<void>((r) => s.listen(0, '127.0.0.1', r));
-  const port = (s.address() as { port: number }).port;
-  await new Promise((r) => s.close(r));
-  return port;
 }
 
 interface Run { scale: number; endpoint: string; server: string; connections: number; rps: number; p50: number; p99: number; failed: number }
