@@ -101,18 +101,6 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
       if (s.stopBits !== r.stopBits) add('error', 'stop-bits-mismatch', fix('stop bits', r.stopBits), m.id);
       return fix;
     };
-    // Across a converter only the character format and the protocol must agree end to end: the interface, the
-    // control lines and the addresses are each side's own, checked on the link that side is on.
-    const here = new Set(members.map((m) => m.id));
-    for (const m of members) {
-      for (const b of m.bridge?.beyond ?? []) {
-        if (here.has(b.id)) continue;
-        here.add(b.id);
-        const far = { ...b, label: `${b.label} (through ${m.bridge!.via})` };
-        const fix = compareLine(far);
-        if (b.settings.protocol !== r.protocol) add('error', 'protocol-mismatch', fix('the protocol', r.protocol), b.id);
-      }
-    }
     for (const m of members) {
       if (m === ref) continue;
       const s = m.settings;
@@ -129,6 +117,18 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
       const b = family(s.interface);
       if (!bus && a && b && a !== b) {
         add('error', 'interface-mismatch', `${m.label} is ${FAMILY_TEXT[b]} but ${ref.label} is ${FAMILY_TEXT[a]}; put a ${FAMILY_TEXT[a]} to ${FAMILY_TEXT[b]} converter between them.`, m.id);
+      }
+    }
+    // Across a converter only the character format and the protocol must agree end to end: the interface, the
+    // control lines and the addresses are each side's own, checked on the link that side is on.
+    const here = new Set(members.map((m) => m.id));
+    for (const m of members) {
+      for (const b of m.bridge?.beyond ?? []) {
+        if (here.has(b.id)) continue;
+        here.add(b.id);
+        const far = { ...b, label: `${b.label} (through ${m.bridge!.via})` };
+        const fix = compareLine(far);
+        if (b.settings.protocol !== r.protocol) add('error', 'protocol-mismatch', fix('the protocol', r.protocol), b.id);
       }
     }
   }
