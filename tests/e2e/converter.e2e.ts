@@ -53,9 +53,9 @@ describe('converters in the browser', () => {
     }
     const panel = page.getByTestId('bridge-panel');
     await panel.getByLabel('One side').selectOption({ label: 'RS-232 (RS-232)' });
-    await panel.getByLabel('Carried across to').selectOption({ label: 'RS-485 (2-wire RS-485)' });
+    await panel.getByLabel('Carried across to').selectOption({ label: 'RS-485 (RS-485 2-wire)' });
     await panel.getByRole('button', { name: 'Pair these ports' }).click();
-    await expect.poll(() => panel.getByTestId('bridges').textContent()).toContain('RS-232 (RS-232) ⇄ RS-485 (2-wire RS-485)');
+    await expect.poll(() => panel.getByTestId('bridges').textContent()).toContain('RS-232 (RS-232) ⇄ RS-485 (RS-485 2-wire)');
 
     // Links on either side of it (through the API), then the device page's link box: both agree.
     const cv = await api(page, 'GET', `/api/devices/${cvId}`);
@@ -118,7 +118,7 @@ describe('converters in the browser', () => {
     expect(await chain.getByTestId('link-state').evaluateAll((els) => els.map((e) => e.getAttribute('data-state')))).toEqual(['ok', 'ok']);
     await visit(page, '/field/devices/dev_demo_plc400');
     const route = page.getByRole('region', { name: 'Port X2 RS-232' }).getByTestId('card-route');
-    expect(await route.textContent()).toBe('Wired to CV-430 RS-232, through CV-430 to DRV-440 RS-485 (PLC to infeed converter)');
+    expect((await route.textContent())?.trim()).toBe('Wired to CV-430 RS-232, through CV-430 to DRV-440 RS-485 (PLC to infeed converter)');
     await shot(page, 'converter-card-phone');
   }, 120_000);
 });
