@@ -11,8 +11,9 @@ import { linkFormSchema, MEMBER_ROLES } from '../../lib/schemas/vault';
 import { EntityForm } from './EntityForm';
 import { linkFieldDefs } from './field-defs';
 import { ErrorNotice, StateBadge, useUnsavedGuard } from './shared';
+import type { ChainMember } from '../../lib/field/chains';
 
-interface Member { portId: string; role: (typeof MEMBER_ROLES)[number]; isEnd: boolean | null; unitLoads: number | null; dropM: number | null; tapPorts: number | null; deviceTag: string; portName: string; deviceId: string; shorthand: string; inTrash: boolean }
+interface Member { portId: string; role: (typeof MEMBER_ROLES)[number]; isEnd: boolean | null; unitLoads: number | null; dropM: number | null; tapPorts: number | null; deviceTag: string; portName: string; deviceId: string; shorthand: string; inTrash: boolean; bridge?: ChainMember['bridge'] }
 interface Finding { severity: 'error' | 'warning' | 'info'; code: string; message: string; memberLabel?: string }
 export interface LinkData {
   id: string; version: number; name: string; kind: 'point-to-point' | 'rs485-bus'; cableType: string; cableLengthM: number | null; notes: string;

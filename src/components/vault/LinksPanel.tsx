@@ -5,6 +5,28 @@ import { vaultKeys } from '../../lib/client/keys';
 import { QueryProvider } from '../QueryProvider';
 import type { LinkData } from './LinkEditor';
 import { ErrorNotice, StateBadge } from './shared';
+import { converterChains, type ConverterChain } from '../../lib/field/chains';
+
+/** A converter's two sides in a row: the ports on one side → the converter (port ⇄ port) → the ports on the other. */
+function Chain({ c }: { c: ConverterChain }) {
+  const [a, b] = c.sides;
+  const side = (s: typeof a) => (
+    <span className="inline-flex flex-wrap items-center gap-1 min-w-0">
+      {s.link && <StateBadge state={s.link.state} />}
+      <span className="break-words min-w-0">{s.ends.length ? s.ends.join(', ') : 'nothing linked yet'}</span>
+      {s.link && <a href={`/vault/links/${s.link.id}`} className="text-sm">({s.link.name})</a>}
+    </span>
+  );
+  return (
+    <li className="border border-line rounded p-2 bg-white flex flex-wrap items-center gap-2" data-testid="chain" data-converter={c.converter}>
+      {side(a)}
+      <span aria-hidden="true">→</span>
+      <span className="rounded border border-accent px-1.5 py-0.5 text-sm"><span className="font-semibold mono">{c.converter}</span> {a.portName} ⇄ {b.portName}</span>
+      <span aria-hidden="true">→</span>
+      {side(b)}
+    </li>
+  );
+}
 
 interface Props { machineId: string; initial: { items: LinkData[]; total: number } }
 
@@ -16,7 +38,17 @@ function Links({ machineId, initial }: Props) {
   });
   if (q.isError) return <ErrorNotice error={q.error} />;
   if (q.data.items.length === 0) return <p className="text-muted">No links recorded on this machine yet.</p>;
+  const chains = converterChains(q.data.items);
   return (
+    <>
+    {chains.length > 0 && (
+      <div className="mb-3">
+        <h3 className="font-semibold mb-1">Through converters</h3>
+        <ul className="grid gap-2" data-testid="chains" aria-label="Links joined by a converter">
+          {chains.map((c, i) => <Chain key={i} c={c} />)}
+        </ul>
+      </div>
+    )}
     <ul className="grid gap-2" data-testid="links">
       {q.data.items.map((l) => {
         const first = l.report.findings[0];
@@ -33,6 +65,7 @@ function Links({ machineId, initial }: Props) {
         );
       })}
     </ul>
+    </>
   );
 }
 

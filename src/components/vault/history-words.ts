@@ -18,7 +18,7 @@ const plain = (labels: Record<string, string>) => Object.fromEntries(Object.entr
 const FIELD_LABELS: Record<string, Record<string, string>> = {
   site: plain(byName(siteFieldDefs)),
   machine: { ...plain(byName(machineFieldDefs)), plcStringCapacity: 'PLC STRING length (characters)', siteId: 'Site' },
-  device: { ...plain(byName(deviceFieldDefs)), machineId: 'Machine', profileId: 'Profile' },
+  device: { ...plain(byName(deviceFieldDefs)), machineId: 'Machine', profileId: 'Profile', bridges: 'Bridged ports' },
   link: { ...plain(byName(linkFieldDefs)), cableLengthM: 'Cable length (m)', members: 'Members' },
   profile: { ...plain(byName(profileFieldDefs)), ports: 'Default ports' },
 };
@@ -44,6 +44,10 @@ export function historyValue(type: string, field: string, value: unknown, names:
   if (type === 'link' && field === 'kind') return kindOptions.find((k) => k.value === value)?.label ?? showValue(value);
   if (type === 'link' && field === 'members' && Array.isArray(value)) {
     return value.length === 0 ? 'none' : (value as MemberValue[]).map((m) => memberWords(m, names)).join('; ');
+  }
+  if (type === 'device' && field === 'bridges' && Array.isArray(value)) {
+    const port = (id: unknown) => (typeof id === 'string' && names[id]) || 'a port no longer on this device';
+    return value.length === 0 ? 'none' : (value as unknown[][]).map((pair) => `${port(pair[0])} ⇄ ${port(pair[1])}`).join('; ');
   }
   if (type === 'profile' && field === 'ports' && Array.isArray(value)) {
     return value.length === 0 ? 'none' : (value as { name?: string }[]).map((p) => p.name ?? 'unnamed port').join(', ');

@@ -13,7 +13,7 @@ import { user } from './auth';
 import type { PortSettings } from '../../lib/frame/port-settings';
 import type { StoredBusPlan } from '../../lib/schemas/bus-plan';
 
-export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
+export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'converter', 'other'] as const;
 export const LINK_KINDS = ['point-to-point', 'rs485-bus'] as const;
 export const MEMBER_ROLES = ['master', 'slave', 'peer'] as const;
 /** The vault's records (trash, vault history, `/api/vault/…/:type/…`). */
@@ -23,6 +23,9 @@ export const RECORD_TYPES = [...ENTITY_TYPES, 'command'] as const;
 export type DeviceRole = (typeof DEVICE_ROLES)[number];
 export type EntityType = (typeof ENTITY_TYPES)[number];
 export type RecordType = (typeof RECORD_TYPES)[number];
+
+/** Two port ids of one converter whose signals it carries across. */
+export type BridgePair = [string, string];
 
 /** One row of a connector's pin-out. */
 export interface WiringRow {
@@ -137,6 +140,12 @@ export const device = sqliteTable(
     firmware: text('firmware').notNull().default(''),
     location: text('location').notNull().default(''),
     notes: text('notes').notNull().default(''),
+    /**
+     * A converter's bridged ports: pairs of its own port ids whose signals it carries across (an RS-232 side and
+     * its RS-485 side, a device server's network side and its serial port). Only role `converter` has any; the link
+     * check follows a bridge from one link into the next (docs/vault.md, Converters).
+     */
+    bridges: text('bridges', { mode: 'json' }).$type<BridgePair[]>().notNull().default([]),
     ...bookkeeping(),
   },
   (t) => [

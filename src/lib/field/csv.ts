@@ -51,6 +51,7 @@ export const CSV_FIELDS = [
   { key: 'nodeAddress', label: 'Node address', hints: ['address', 'node address', 'node', 'slave id', 'unit id'] },
   { key: 'termination', label: 'Termination', hints: ['termination', 'terminator'] },
   { key: 'protocol', label: 'Protocol', hints: ['protocol'] },
+  { key: 'bridgedTo', label: 'Bridged to (a converter\'s other port)', hints: ['bridgedto', 'bridged to', 'bridge'] },
 ] as const;
 export type CsvField = (typeof CSV_FIELDS)[number]['key'];
 export type CsvMapping = Partial<Record<CsvField, string>>;
@@ -79,7 +80,8 @@ const squash = (s: string) => s.toLowerCase().replace(/[\s_/.-]+/g, '');
 
 export interface CsvRowResult {
   device: { tag: string; name: string; role: (typeof DEVICE_ROLES)[number]; maker: string; model: string; serialNumber: string; firmware: string; location: string };
-  port: { name: string; settings: ReturnType<typeof portSettingsInputSchema.parse> } | null;
+  /** `bridgedTo`: the name of the device's port on the other side of the converter, or ''. */
+  port: { name: string; settings: ReturnType<typeof portSettingsInputSchema.parse>; bridgedTo: string } | null;
 }
 export type CsvRowError = { column: string; message: string };
 
@@ -123,13 +125,14 @@ export function readCsvRow(row: Record<string, string | undefined>, mapping: Csv
   if (portName && !errors.length) {
     const parsed = portSettingsInputSchema.safeParse(settings);
     if (!parsed.success) for (const i of parsed.error.issues) fail((i.path[0] as CsvField) ?? '_', i.message);
-    else port = { name: portName.slice(0, 60), settings: parsed.data };
+    else port = { name: portName.slice(0, 60), settings: parsed.data, bridgedTo: cell('bridgedTo').slice(0, 60) };
   }
   const text = (k: CsvField, max: number) => {
     const v = cell(k);
     if (v.length > max) fail(k, `At most ${max} characters.`);
     return v;
   };
+  if (cell('bridgedTo') && role !== 'converter') fail('bridgedTo', `Only a converter bridges its ports; set the role to converter or leave "${CSV_FIELDS.find((f) => f.key === 'bridgedTo')!.label}" empty.`);
   const device = { tag, name: text('name', 120), role: role ?? 'other', maker: text('maker', 120), model: text('model', 120), serialNumber: text('serialNumber', 120), firmware: text('firmware', 60), location: text('location', 200) };
   return errors.length ? { ok: false, errors } : { ok: true, value: { device, port } };
 }

@@ -5,7 +5,7 @@ interface Doc {
   sites: { id: string }[];
   machines: { id: string; siteId: string }[];
   profiles: { id: string }[];
-  devices: { id: string; machineId: string; profileId: string | null; tag: string }[];
+  devices: { id: string; machineId: string; profileId: string | null; tag: string; role?: string; bridges?: [string, string][] }[];
   ports: { id: string; deviceId: string; name: string }[];
   links: { id: string; machineId: string; name: string; members: { portId: string }[]; busPlan?: { polls: { portId: string; commandId?: string }[] } | null }[];
   commands: { id: string; deviceId: string | null; profileId: string | null; name: string; sequence?: { steps: { commandId?: string }[] } }[];
@@ -47,6 +47,11 @@ export function documentProblems(doc: Doc, max = 20): string[] {
     if (names.has(key)) add(`port ${p.name}: two ports of device ${p.deviceId} have this name`);
     names.add(key);
     portDevice.set(p.id, p.deviceId);
+  }
+  for (const d of doc.devices) {
+    const bridges = d.bridges ?? [];
+    if (bridges.length && d.role !== 'converter') add(`device ${d.tag}: only a converter bridges its ports, and its role is ${d.role}`);
+    for (const id of bridges.flat()) if (portDevice.get(id) !== d.id) add(`device ${d.tag}: bridged port ${id} is not one of its ports in the document`);
   }
   const deviceMachine = new Map(doc.devices.map((d) => [d.id, d.machineId]));
   const deviceProfile = new Map(doc.devices.map((d) => [d.id, d.profileId]));
@@ -104,7 +109,8 @@ export function withoutIds(doc: Doc & Record<string, unknown>): Record<string, u
     if (Array.isArray(v)) return v.map(strip);
     if (v && typeof v === 'object') {
       return Object.fromEntries(Object.entries(v).map(([k, x]) =>
-        [k, (REF_KEYS as readonly string[]).includes(k) && typeof x === 'string' ? (ordinal.get(x) ?? `?${x}`) : strip(x)]));
+        [k, (REF_KEYS as readonly string[]).includes(k) && typeof x === 'string' ? (ordinal.get(x) ?? `?${x}`)
+          : k === 'bridges' && Array.isArray(x) ? x.map((pair: string[]) => pair.map((id) => ordinal.get(id) ?? `?${id}`)) : strip(x)]));
     }
     return v;
   };

@@ -53,7 +53,7 @@ export {
   type LineTiming, type TimingReport, type PolledDevice, type BitCell, type BitKind, type BitSequence,
 } from './timing';
 
-export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';
+export { LINK_CODES, MAX_UNIT_LOADS, LENGTH_RATE_LIMIT, type Link, type LinkMember, type LinkBridge, type LinkFinding, type LinkCode, type LinkReport, checkLink } from './link-check';
 export { type DecodedReply, type DecodedField, type ChecksumVerdict, decodeReply } from './decode-reply';
 export { type LongestFrame, type UnlimitedField, longestFrame } from './longest';
 export {

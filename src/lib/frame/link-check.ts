@@ -13,6 +13,22 @@ export interface LinkMember {
   unitLoads?: number;
   /** Physically at one end of the cable. */
   isEnd?: boolean;
+  /** This port is one side of a converter that carries its signals to another port (see `LinkBridge`). */
+  bridge?: LinkBridge;
+}
+
+/**
+ * What lies beyond a converter's port: the converter, its bridged port on the other side, and the ports linked to
+ * that one (its link's other members). The check compares their line settings with this link's across the
+ * converter, and takes the RTS of the sender beyond as the converter's direction control.
+ */
+export interface LinkBridge {
+  /** The converter as shown, e.g. "CV-430". */
+  via: string;
+  /** The converter's port on the other side. */
+  other: LinkMember;
+  /** The ports linked to `other`, without `other` itself. */
+  beyond: LinkMember[];
 }
 
 export interface Link {
@@ -76,14 +92,19 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
   const ref = masters[0] ?? members[0];
   if (ref) {
     const r = ref.settings;
-    for (const m of members) {
-      if (m === ref) continue;
+    const compareLine = (m: LinkMember) => {
       const s = m.settings;
       const fix = (what: string, want: string | number) => `${m.label}: set ${what} to ${want} to match ${ref.label} (${lineShorthand(r)}).`;
       if (s.baud !== r.baud) add('error', 'baud-mismatch', fix('the baud rate', r.baud), m.id);
       if (s.dataBits !== r.dataBits) add('error', 'data-bits-mismatch', fix('data bits', r.dataBits), m.id);
       if (s.parity !== r.parity) add('error', 'parity-mismatch', fix('parity', r.parity), m.id);
       if (s.stopBits !== r.stopBits) add('error', 'stop-bits-mismatch', fix('stop bits', r.stopBits), m.id);
+      return fix;
+    };
+    for (const m of members) {
+      if (m === ref) continue;
+      const s = m.settings;
+      const fix = compareLine(m);
       const flowOneEnd = rtsCtsFlow(s) !== rtsCtsFlow(r) || dtrFlow(s) !== dtrFlow(r);
       if (flowOneEnd) {
         const rtsDiffers = rtsCtsFlow(s) !== rtsCtsFlow(r);
@@ -96,6 +117,18 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
       const b = family(s.interface);
       if (!bus && a && b && a !== b) {
         add('error', 'interface-mismatch', `${m.label} is ${FAMILY_TEXT[b]} but ${ref.label} is ${FAMILY_TEXT[a]}; put a ${FAMILY_TEXT[a]} to ${FAMILY_TEXT[b]} converter between them.`, m.id);
+      }
+    }
+    // Across a converter only the character format and the protocol must agree end to end: the interface, the
+    // control lines and the addresses are each side's own, checked on the link that side is on.
+    const here = new Set(members.map((m) => m.id));
+    for (const m of members) {
+      for (const b of m.bridge?.beyond ?? []) {
+        if (here.has(b.id)) continue;
+        here.add(b.id);
+        const far = { ...b, label: `${b.label} (through ${m.bridge!.via})` };
+        const fix = compareLine(far);
+        if (b.settings.protocol !== r.protocol) add('error', 'protocol-mismatch', fix('the protocol', r.protocol), b.id);
       }
     }
   }
@@ -112,7 +145,8 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
 
   const seen = new Map<number, LinkMember>();
   for (const m of members) {
-    if (m.role === 'master') continue;
+    // A converter's port answers to no address of its own: the devices beyond it do, on their own link.
+    if (m.role === 'master' || m.bridge) continue;
     const addr = m.settings.nodeAddress;
     const modbus = m.settings.protocol === 'modbus-rtu' || m.settings.protocol === 'modbus-ascii';
     if (addr === null) {
@@ -146,7 +180,14 @@ export function checkLink(members: readonly LinkMember[], link: Link): LinkRepor
     if (s.interface === 'rs485-2w' && !hasDirectionControl(s)) {
       add('error', 'no-direction-control', `${m.label} is on 2-wire RS-485 with no direction control and no automatic direction switching; set its RTS to on while sending (or RS-485 direction to automatic, or fit a converter that switches by itself) so its transmitter turns off after sending.`, m.id);
     }
-    if (s.rtsMode === 'transmit' && s.interface !== 'tcp') {
+    const senders = m.bridge?.beyond.filter((b) => hasLinesInCable(b.settings.interface)) ?? [];
+    if (s.interface === 'rs485-2w' && s.rtsMode === 'transmit' && senders.length > 0 && !senders.some((b) => b.settings.rtsMode === 'transmit')) {
+      // A converter switched by RTS takes the line from the device on its other side; nothing else raises it.
+      const names = senders.map((b) => b.label).join(', ');
+      add('error', 'no-direction-control', `${m.label} switches its transmitter by RTS from the other side of ${m.bridge!.via}, but ${names} does not raise RTS while sending (RTS: ${senders.map((b) => RTS_MODE_LABELS[b.settings.rtsMode]).join(', ')}), so the converter never sends or never lets go of the bus. Set ${names}'s RTS to "${RTS_MODE_LABELS.transmit}", or set ${m.bridge!.via} to switch direction automatically.`, m.id);
+    }
+    // A converter's port does not drop RTS itself: the tail that matters is the sender's, checked on its own link.
+    if (s.rtsMode === 'transmit' && s.interface !== 'tcp' && !m.bridge) {
       const charMs = charTimeMs(s);
       if (s.rtsTailMs < charMs) {
         add('warning', 'rts-tail-short', `${m.label} drops RTS ${s.rtsTailMs} ms after its transmit buffer empties, but the last character takes ${charMs.toFixed(2)} ms to leave the line (${bitsPerChar(s)} bits at ${s.baud} bit/s); a converter switched by RTS may cut off its last stop bit. Set the RTS tail to at least ${Math.ceil(charMs * 100) / 100} ms. (Assumes the tail counts from when the transmit buffer empties; if the port counts it from the end of the stop bit, this does not apply.)`, m.id);

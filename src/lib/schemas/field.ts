@@ -4,7 +4,7 @@ import { portSettingsObjectSchema, type PortSettings } from '../frame/port-setti
 import { templateSchema } from '../frame/template';
 import { presetsSchema, savedSequenceSchema, valuesProblems } from './commands';
 import { emailSchema } from './platform';
-import { DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, versionSchema, wiringRowSchema } from './vault';
+import { bridgesSchema, DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, versionSchema, wiringRowSchema } from './vault';
 import { busPlanSchema, memberDropM, memberTapPorts } from './bus-plan';
 
 export const FIELD_LOG_KINDS = ['replacement', 'verified', 'found-different'] as const;
@@ -134,6 +134,8 @@ export const exportDocumentSchema = z.strictObject({
   devices: z.array(z.strictObject({
     id: recordId, machineId: recordId, profileId: recordId.nullable(), tag: text(40).min(1), name: text(120), role: z.enum(DEVICE_ROLES),
     maker: text(120), model: text(120), serialNumber: text(120), firmware: text(60), location: text(200), notes: text(5000),
+    // A converter's bridged ports (ids of its ports in this document); exports made before converters have none.
+    bridges: bridgesSchema.default([]),
   })).max(100000),
   ports: z.array(z.strictObject({
     id: recordId, deviceId: recordId, name: text(60).min(1), position: z.number().int().min(0), settings: portSettingsInputSchema,

@@ -5,13 +5,13 @@ import { frameRulesSchema, defaultFrameRules } from '../frame/frame-rules';
 import { busPlanSchema, memberDropM, memberTapPorts } from './bus-plan';
 
 // Duplicated from the DB schema module so the browser bundle does not pull in drizzle.
-export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'other'] as const;
+export const DEVICE_ROLES = ['plc', 'drive', 'scale', 'reader', 'printer', 'sensor', 'hmi', 'converter', 'other'] as const;
 export const LINK_KINDS = ['point-to-point', 'rs485-bus'] as const;
 export const MEMBER_ROLES = ['master', 'slave', 'peer'] as const;
 export const ENTITY_TYPES = ['site', 'machine', 'device', 'port', 'link', 'profile'] as const;
 
 export const DEVICE_ROLE_LABELS: Record<(typeof DEVICE_ROLES)[number], string> = {
-  plc: 'PLC', drive: 'Drive', scale: 'Scale', reader: 'Reader', printer: 'Printer', sensor: 'Sensor', hmi: 'HMI', other: 'Other',
+  plc: 'PLC', drive: 'Drive', scale: 'Scale', reader: 'Reader', printer: 'Printer', sensor: 'Sensor', hmi: 'HMI', converter: 'Converter', other: 'Other',
 };
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
@@ -96,7 +96,23 @@ export const deviceCreateSchema = z.strictObject({
   role: z.enum(DEVICE_ROLES, { error: 'Choose a role.' }).optional(),
   ports: portList(16, 'device').optional(),
 });
-export const deviceUpdateSchema = z.strictObject({ version: versionSchema, machineId: id.optional(), ...partial(deviceFields) });
+/**
+ * A converter's bridged ports: pairs of two of its own port ids, each port in one pair at most (whether the ports
+ * are the device's and the device a converter, the service checks).
+ */
+export const bridgesSchema = z
+  .array(z.tuple([id, id], { error: 'A bridge is a pair of two port ids.' }), { error: 'Send the bridges as a list of port-id pairs.' })
+  .max(8, 'At most 8 bridges on one converter.')
+  .superRefine((pairs, ctx) => {
+    const seen = new Set<string>();
+    pairs.forEach(([a, b], i) => {
+      if (a === b) ctx.addIssue({ code: 'custom', path: [i], message: 'A bridge joins two different ports; pick the port on the other side.' });
+      else if (seen.has(a) || seen.has(b)) ctx.addIssue({ code: 'custom', path: [i], message: 'A port can be in one bridge only; remove it from the other pair first.' });
+      seen.add(a);
+      seen.add(b);
+    });
+  });
+export const deviceUpdateSchema = z.strictObject({ version: versionSchema, machineId: id.optional(), ...partial(deviceFields), bridges: bridgesSchema.optional() });
 
 // ---- links ----
 export const linkMemberSchema = z.strictObject({

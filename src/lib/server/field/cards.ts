@@ -1,7 +1,9 @@
 /** Field cards: a device's ports, wiring and key commands with the card's revision, for one device, a machine or a site. */
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { db } from '../../../db/client';
-import { command, device, machine, port } from '../../../db/schema';
+import { command, device, link, linkMember, machine, port } from '../../../db/schema';
+import { loadMembers } from '../vault/link-members';
+import { portRoutes, type ChainLink } from '../../field/chains';
 import type { TeamContext } from '../guard';
 import { cardCommand, cardPort, type CardCommand, type CardPort } from '../../field/card';
 import { liveDevice, liveMachine, liveSite } from './scope';
@@ -13,7 +15,8 @@ type DeviceRow = typeof device.$inferSelect;
 
 export interface DeviceCard {
   device: Pick<DeviceRow, 'id' | 'tag' | 'name' | 'role' | 'maker' | 'model' | 'serialNumber' | 'firmware' | 'location' | 'version' | 'machineId'>;
-  ports: (CardPort & { version: number })[];
+  /** `wiredTo`: what the port is wired to on each of its links, through which converter (`portRoutes`). */
+  ports: (CardPort & { version: number; wiredTo: string[] })[];
   commands: CardCommand[];
   /** Changes recorded to the device and its ports (the number printed on the card), and when the last one was. */
   revision: { number: number; date: Date | null };
@@ -42,13 +45,14 @@ async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: Devic
   if (!devices.length) return [];
   const ids = devices.map((d) => d.id);
   const profileIds = devices.map((d) => d.profileId).filter((p): p is string => !!p);
-  const [ports, cmds, revs] = await Promise.all([
+  const [ports, cmds, revs, links] = await Promise.all([
     db.select().from(port).where(and(inArray(port.deviceId, ids), isNull(port.deletedAt))).orderBy(asc(port.position), asc(port.name)),
     db.select().from(command).where(and(
       eq(command.teamId, ctx.team.id), isNull(command.deletedAt),
       profileIds.length ? sql`(${inArray(command.deviceId, ids)} OR ${inArray(command.profileId, profileIds)})` : inArray(command.deviceId, ids),
     )).orderBy(asc(command.name)),
     revisions(ctx.team.id, ids),
+    linksOfDevices(ids),
   ]);
   // The commands sequences use as steps, also those in the trash (the card names the gap).
   const steps = await stepCommands(db, ctx, cmds.flatMap((c) => referencedIds(c.sequence)));
@@ -59,11 +63,24 @@ async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: Devic
     const mine = ports.filter((p) => p.deviceId === d.id);
     return {
       device: { id: d.id, tag: d.tag, name: d.name, role: d.role, maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, version: d.version, machineId: d.machineId },
-      ports: mine.map((p) => ({ ...cardPort(p, heading(d)), version: p.version })),
+      ports: mine.map((p) => ({ ...cardPort(p, heading(d)), version: p.version, wiredTo: portRoutes(p.id, links) })),
       commands: [...own, ...inherited].map((c) => cardCommand(c, mine, (id) => steps.get(id))),
       revision: revs.get(d.id) ?? { number: 0, date: null },
     };
   });
+}
+
+/** The live links the devices' live ports are on, with their members (and what lies across a converter). */
+async function linksOfDevices(deviceIds: string[]): Promise<ChainLink[]> {
+  const rows = await db.selectDistinct({ id: link.id, name: link.name }).from(linkMember)
+    .innerJoin(link, eq(link.id, linkMember.linkId))
+    .innerJoin(port, eq(port.id, linkMember.portId))
+    .where(and(inArray(port.deviceId, deviceIds), isNull(link.deletedAt), isNull(port.deletedAt)))
+    .orderBy(asc(link.name));
+  if (!rows.length) return [];
+  const members = await loadMembers(db, rows.map((r) => r.id));
+  // The route names live ports only; the state is not shown on a card.
+  return rows.map((r) => ({ ...r, report: { state: 'ok' as const }, members: (members.get(r.id) ?? []).filter((m) => !m.inTrash) }));
 }
 
 const label = (d: DeviceRow) => (d.name ? `${d.tag} ${d.name}` : d.tag);

@@ -76,15 +76,17 @@ async function tableRows(ctx: TeamContext, table: CsvTable, url: URL): Promise<R
   }
   // Ports have no list endpoint of their own: every live port of the team, or of one device or machine.
   const o = portExportParams(u);
-  const rows = await db.select({ port, tag: device.tag, machineName: machine.name }).from(port)
+  const rows = await db.select({ port, tag: device.tag, machineName: machine.name, bridges: device.bridges }).from(port)
     .innerJoin(device, eq(device.id, port.deviceId)).innerJoin(machine, eq(machine.id, device.machineId))
     .where(and(eq(port.teamId, ctx.team.id), isNull(port.deletedAt), isNull(device.deletedAt), o.deviceId ? eq(port.deviceId, o.deviceId) : undefined, o.machineId ? eq(device.machineId, o.machineId) : undefined))
     .orderBy(o.dir === 'desc' ? desc(device.tag) : asc(device.tag), asc(port.position)).limit(MAX_ROWS);
   return {
-    columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'rtsMode', 'ctsMode', 'dtrMode', 'rtsLeadMs', 'rtsTailMs', 'echo', 'nodeAddress', 'termination', 'protocol', 'version'],
-    rows: rows.map(({ port: p, tag, machineName }) => {
+    columns: ['id', 'machine', 'deviceTag', 'portName', 'shorthand', 'interface', 'baud', 'dataBits', 'parity', 'stopBits', 'handshake', 'rtsMode', 'ctsMode', 'dtrMode', 'rtsLeadMs', 'rtsTailMs', 'echo', 'nodeAddress', 'termination', 'protocol', 'bridgedTo', 'version'],
+    rows: rows.map(({ port: p, tag, machineName, bridges }) => {
       const s = p.settings;
-      return [p.id, machineName, tag, p.name, portShorthand(s), s.interface, s.baud, s.dataBits, s.parity, s.stopBits, s.handshake, s.rtsMode, s.ctsMode, s.dtrMode, s.rtsLeadMs, s.rtsTailMs, s.echo ? 'yes' : 'no', s.nodeAddress, s.termination ? 'yes' : 'no', s.protocol, p.version];
+      const pair = bridges.find((b) => b.includes(p.id));
+      const other = pair ? rows.find((r) => r.port.id === (pair[0] === p.id ? pair[1] : pair[0])) : undefined;
+      return [p.id, machineName, tag, p.name, portShorthand(s), s.interface, s.baud, s.dataBits, s.parity, s.stopBits, s.handshake, s.rtsMode, s.ctsMode, s.dtrMode, s.rtsLeadMs, s.rtsTailMs, s.echo ? 'yes' : 'no', s.nodeAddress, s.termination ? 'yes' : 'no', s.protocol, other?.port.name ?? '', p.version];
     }),
   };
 }

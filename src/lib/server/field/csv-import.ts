@@ -28,7 +28,7 @@ export interface CsvPreview {
   sample: { tag: string; name: string; ports: string[] }[];
 }
 
-interface Planned { device: CsvRowResult['device']; ports: NonNullable<CsvRowResult['port']>[] }
+interface Planned { device: CsvRowResult['device']; ports: (NonNullable<CsvRowResult['port']> & { row: number })[] }
 
 /** Rows checked between turns for other requests. */
 const CHECK_SLICE = 250;
@@ -61,12 +61,45 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress
         return errors.push({ row, column: mapping.portName ?? '', message: `Device ${d.device.tag} already has a port named ${r.value.port.name} in this file.` });
       }
       if (d.ports.length >= 16) return errors.push({ row, column: mapping.portName ?? '', message: 'At most 16 ports per device.' });
-      d.ports.push(r.value.port);
+      d.ports.push({ ...r.value.port, row });
     }
     devices.set(key, d);
     if ((i + 1) % CHECK_SLICE === 0) void progress?.(i + 1, parsed.data.length * 2);
   });
+  for (const d of devices.values()) for (const [row, message] of bridgeProblems(d)) errors.push({ row, column: mapping.bridgedTo ?? '', message });
   return { machine: m, rows: parsed.data.length, devices: [...devices.values()], errors };
+}
+
+/** A converter's "Bridged to" cells: each names another of its ports in the file, and no port is in two bridges. */
+function bridgeProblems(d: Planned): [row: number, message: string][] {
+  const out: [number, string][] = [];
+  const partner = new Map<string, string>();
+  for (const p of d.ports) {
+    if (!p.bridgedTo) continue;
+    const other = d.ports.find((x) => nameKey(x.name) === nameKey(p.bridgedTo));
+    if (!other || other === p) {
+      out.push([p.row, `Device ${d.device.tag}: port ${p.name} is bridged to "${p.bridgedTo}", which is not another of its ports in this file.`]);
+      continue;
+    }
+    for (const [a, b] of [[p.name, other.name], [other.name, p.name]] as const) {
+      const was = partner.get(nameKey(a));
+      if (was !== undefined && was !== nameKey(b)) out.push([p.row, `Device ${d.device.tag}: port ${a} is in two bridges; a port is bridged to one other port only.`]);
+      partner.set(nameKey(a), nameKey(b));
+    }
+  }
+  return out;
+}
+
+/** The bridges of a planned device, as pairs of its new port ids (each pair once). */
+function bridgesOf(d: Planned, ids: string[]): [string, string][] {
+  const out: [string, string][] = [];
+  d.ports.forEach((p, i) => {
+    const j = p.bridgedTo ? d.ports.findIndex((x) => nameKey(x.name) === nameKey(p.bridgedTo)) : -1;
+    if (j < 0 || j === i) return;
+    const pair: [string, string] = i < j ? [ids[i]!, ids[j]!] : [ids[j]!, ids[i]!];
+    if (!out.some((x) => x[0] === pair[0] && x[1] === pair[1])) out.push(pair);
+  });
+  return out;
 }
 
 /** Lower-cased tags of the machine's live devices. */
@@ -107,8 +140,9 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
       stage.target(revision);
       for (let lo = 0; lo < p.devices.length; lo += STAGE_DEVICES) {
         const slice = p.devices.slice(lo, lo + STAGE_DEVICES);
-        const devices = slice.map((d) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '' }));
-        const ports = slice.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: newId('port'), deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
+        const portIds = slice.map((d) => d.ports.map(() => newId('port')));
+        const devices = slice.map((d, i) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds[i]!) }));
+        const ports = slice.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: portIds[i]![position]!, deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
         stage.report(p.rows + Math.round((p.rows * (lo + slice.length)) / p.devices.length), p.rows * 2);
         await stage.add(device, devices);
         await stage.add(port, ports);

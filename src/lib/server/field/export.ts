@@ -121,6 +121,7 @@ export async function exportStream(ctx: TeamContext, opts: { siteId?: string } =
     yield* section('devices', mapped(rowsInOrder(device, D.map((d) => d.id)), (d) => ({
       id: d.id, machineId: d.machineId, profileId: d.profileId && fIdx.has(d.profileId) ? d.profileId : null, tag: d.tag, name: d.name, role: d.role,
       maker: d.maker, model: d.model, serialNumber: d.serialNumber, firmware: d.firmware, location: d.location, notes: d.notes,
+      bridges: d.bridges.filter((pair) => pair.every((id) => pIds.has(id))),
     })));
     yield* section('ports', mapped(rowsInOrder(port, P.map((p) => p.id)), (p) => ({ id: p.id, deviceId: p.deviceId, name: p.name, position: p.position, settings: p.settings, wiring: p.wiring, notes: p.notes })));
     yield* section('links', L.map((l) => {

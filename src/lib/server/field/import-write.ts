@@ -44,6 +44,8 @@ export async function stageImport(stage: Stage, ctx: TeamContext, doc: ExportDoc
     ...d, ...stamp, id: target, machineId: ids.machines.get(d.machineId)!, profileId: d.profileId ? ids.profiles.get(d.profileId)! : null,
   }));
   const ports = fresh('ports', doc.ports).map(({ source: p, target }) => ({ ...p, ...stamp, id: target, deviceId: ids.devices.get(p.deviceId)! }));
+  // A converter's bridges name its ports, which have their new ids by now.
+  for (const d of devices) d.bridges = d.bridges.map(([a, b]) => [ids.ports.get(a)!, ids.ports.get(b)!]);
   const links = fresh('links', doc.links).map(({ source: l, target }) => ({
     ...l, ...stamp, id: target, machineId: ids.machines.get(l.machineId)!,
     members: l.members.map((m) => ({ ...m, portId: ids.ports.get(m.portId)! })),

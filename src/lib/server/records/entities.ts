@@ -39,7 +39,7 @@ export const deviceEntity = defineEntity({
   type: 'device',
   noun: 'device',
   table: device,
-  snapshotKeys: ['machineId', 'profileId', ...DEVICE_FIELDS],
+  snapshotKeys: ['machineId', 'profileId', ...DEVICE_FIELDS, 'bridges'],
   parent: { field: 'machineId', type: 'machine' },
   references: [{ field: 'profileId', type: 'profile' }],
   describe: (r) => (r.name ? `${r.tag} ${r.name}` : r.tag),

@@ -16,7 +16,7 @@ export const LARGE_PASSWORD = 'baudbook-large-team';
 
 const MAKERS = ['Quillmoor', 'Tallowby', 'Vellmar Systems', 'Orrinstall', 'Fenwray', 'Kestmoor', 'Brindlecott', 'Harlowe Motion'];
 const BAUDS = [9600, 19200, 38400, 115200];
-const PREFIX: Record<string, string> = { plc: 'PLC', drive: 'DRV', scale: 'SCL', reader: 'RDR', printer: 'PRN', sensor: 'TT', hmi: 'HMI', other: 'DEV' };
+const PREFIX: Record<string, string> = { plc: 'PLC', drive: 'DRV', scale: 'SCL', reader: 'RDR', printer: 'PRN', sensor: 'TT', hmi: 'HMI', converter: 'CV', other: 'DEV' };
 
 function chunk<T>(rows: T[], size: number): T[][] {
   const out: T[][] = [];

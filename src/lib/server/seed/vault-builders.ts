@@ -54,11 +54,13 @@ export interface SeedDevice {
   notes?: string;
   profileId?: string;
   ports: SeedPort[];
+  /** A converter's bridged ports, by the seed's port ids. */
+  bridges?: [string, string][];
 }
 
 export async function addDevice(c: SeedCtx, d: SeedDevice) {
   const { ports, ...fields } = d;
-  const row = { serialNumber: '', firmware: '', location: '', notes: '', profileId: null, ...fields };
+  const row = { serialNumber: '', firmware: '', location: '', notes: '', profileId: null, bridges: [] as [string, string][], ...fields };
   await db.insert(device).values({ ...row, teamId: c.teamId, updatedBy: c.userId }).onConflictDoNothing();
   const { id: _id, ...snap } = row;
   await created(c, 'device', d.id, snap, `Created device ${d.tag}`);

@@ -2,7 +2,8 @@
  * The invented demo vault: Fernhollow Integration's customers (a creamery, a tile works, a cannery),
  * with one RS-485 drive bus that has deliberate faults (DRV-203 left at 19200 on a 9600 bus, and answering after
  * 60 ms where the PLC waits only 50 ms) and one sensor bus missing a terminator, for the link check and the poll
- * cycle panel to find. Fixed ids: safe to run on every start.
+ * cycle panel to find; and a PLC's RS-232 port reaching an infeed drive through an RS-232 to RS-485 converter
+ * (CV-430) whose link check agrees end to end. Fixed ids: safe to run on every start.
  */
 import type { Role } from '../../permissions';
 import { DEMO_ACCOUNTS, DEMO_CUSTOMER_TEAM_ID, DEMO_TEAM_ID } from './platform';
@@ -96,6 +97,20 @@ async function fernhollow(c: SeedCtx) {
   }
   await addLink(c, { id: 'link_demo_kiln_bus', machineId: 'mach_demo_kiln', name: 'Zone sensor bus', kind: 'rs485-bus', cableType: 'Shielded twisted pair', cableLengthM: 80,
     members: [{ portId: 'port_demo_plc400', role: 'master', isEnd: true }, { portId: 'port_demo_sns411', role: 'slave', isEnd: false }, { portId: 'port_demo_sns412', role: 'slave', isEnd: true }] });
+  // The infeed drive, reached from the PLC's RS-232 port through a converter whose RS-485 driver is switched by
+  // the PLC's RTS: two links, joined by the converter's bridge, that the link check follows end to end.
+  await addDevice(c, { id: 'dev_demo_cv430', machineId: 'mach_demo_kiln', tag: 'CV-430', name: 'Infeed line converter', role: 'converter', maker: 'Hollinvar', model: 'HV-485R', serialNumber: 'HV485-20417', location: 'Kiln panel, rail B',
+    ports: [
+      { id: 'port_demo_cv430_232', name: 'RS-232', settings: { interface: 'rs232', baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, protocol: 'ascii' }, wiring: db9 },
+      { id: 'port_demo_cv430_485', name: 'RS-485', settings: { interface: 'rs485-2w', baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, rtsMode: 'transmit', protocol: 'ascii', termination: true, bias: true }, wiring: rs485Pins, notes: 'Driver switched by RTS from the RS-232 side; termination and bias switches on.' },
+    ],
+    bridges: [['port_demo_cv430_232', 'port_demo_cv430_485']] });
+  await addDevice(c, { id: 'dev_demo_drv440', machineId: 'mach_demo_kiln', tag: 'DRV-440', name: 'Infeed conveyor drive', role: 'drive', maker: 'Quillmoor', model: 'QD-12', serialNumber: 'QD12-30440', location: 'Kiln infeed',
+    ports: [{ id: 'port_demo_drv440', name: 'RS-485', settings: { interface: 'rs485-2w', baud: 9600, dataBits: 8, parity: 'none', stopBits: 1, rs485Direction: 'auto', nodeAddress: 1, protocol: 'ascii', termination: true }, wiring: rs485Pins }] });
+  await addLink(c, { id: 'link_demo_kiln_cv', machineId: 'mach_demo_kiln', name: 'PLC to infeed converter', kind: 'point-to-point', cableType: 'DB9 straight', cableLengthM: 2,
+    members: [{ portId: 'port_demo_plc400_x2', role: 'master' }, { portId: 'port_demo_cv430_232', role: 'slave' }] });
+  await addLink(c, { id: 'link_demo_kiln_infeed', machineId: 'mach_demo_kiln', name: 'Infeed drive bus', kind: 'rs485-bus', cableType: 'Shielded twisted pair', cableLengthM: 25,
+    members: [{ portId: 'port_demo_cv430_485', role: 'master', isEnd: true }, { portId: 'port_demo_drv440', role: 'slave', isEnd: true }] });
 
   // Seamer line 1: one drive on its own point-to-point RS-485 link, all agreeing.
   await addDevice(c, { id: 'dev_demo_plc500', machineId: 'mach_demo_seamer', tag: 'PLC-500', name: 'Seamer controller', role: 'plc', maker: 'Vellmar Systems', model: 'VX-220', serialNumber: 'VX22-0051007', location: 'Seamer cabinet',

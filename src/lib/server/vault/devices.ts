@@ -11,7 +11,8 @@ import { deviceEntity, machineEntity, portEntity, profileEntity, type DeviceRow,
 import { presentPort, type PortView } from './present';
 import { definedOnly } from '../records/diff';
 import { deviceListStatement, type DeviceListOptions } from './device-list-sql';
-import { duplicateFrom, notFound } from '../errors';
+import { duplicateFrom, Invalid, notFound } from '../errors';
+import type { BridgePair } from '../../../db/schema';
 import { formerSerialsAfter } from '../../field/serials';
 
 export interface DeviceListItem {
@@ -120,7 +121,9 @@ export async function updateDevice(ctx: TeamContext, id: string, input: z.infer<
   const { version, ...values } = input;
   return db.transaction(async (tx) => {
     if (values.machineId) await findLive(tx, ctx, machineEntity, values.machineId);
-    const former = values.serialNumber === undefined ? null : formerSerialsAfter(await findLive(tx, ctx, deviceEntity, id), values.serialNumber);
+    const now = await findLive(tx, ctx, deviceEntity, id);
+    const former = values.serialNumber === undefined ? null : formerSerialsAfter(now, values.serialNumber);
+    await assertBridges(tx, id, values.role ?? now.role, values.bridges ?? now.bridges, values.bridges !== undefined);
     try {
       await updateVersioned(tx, ctx, deviceEntity, id, version, { ...definedOnly(values), ...(former ? { formerSerials: former } : {}) }, { present: () => getDevice(ctx, id, tx) });
     } catch (err) {
@@ -144,4 +147,26 @@ export function uniqueTag(err: unknown, field = 'tag'): unknown {
  */
 export function uniqueName(err: unknown, field: string): unknown {
   return duplicateFrom(err, field, `${field}: another port on this device already has this name (letter case aside)`, 'Another port on this device already has this name (letter case aside).');
+}
+
+/**
+ * A device's bridges after an update: only a converter has any, and each pair joins two of its live ports.
+ * `sent`: the update sets the bridges (a role change alone checks only the role). Answers 422, writing nothing.
+ */
+async function assertBridges(q: DbOrTx, deviceId: string, role: DeviceRow['role'], bridges: BridgePair[], sent: boolean): Promise<void> {
+  if (bridges.length === 0) return;
+  if (role !== 'converter') {
+    const message = sent
+      ? 'Only a converter bridges its ports; set the role to Converter first (or send no bridges).'
+      : 'This device bridges its ports; remove its bridges before changing its role from Converter.';
+    throw new Invalid(message, { fields: { [sent ? 'bridges' : 'role']: message } });
+  }
+  if (!sent) return;
+  const own = new Set((await livePorts(q, deviceId)).map((p) => p.id));
+  const fields: Record<string, string> = {};
+  bridges.forEach((pair, i) => pair.forEach((portId, j) => {
+    if (!own.has(portId)) fields[`bridges.${i}.${j}`] = 'No live port with that id on this device; bridge two of its own ports.';
+  }));
+  const keys = Object.keys(fields);
+  if (keys.length) throw new Invalid(`${keys[0]}: ${fields[keys[0]!]}`, { fields });
 }

@@ -2,7 +2,7 @@
  * Adapter from vault links to the frame engine's `checkLink`: builds its members from stored
  * ports, and adds two findings the engine has no code for (too few members, members in the trash).
  */
-import { checkLink, type LinkCode, type LinkFinding } from '../../frame/link-check';
+import { checkLink, type LinkCode, type LinkFinding, type LinkMember } from '../../frame/link-check';
 import { overallState } from '../../frame/findings';
 import type { MemberView } from './link-members';
 
@@ -25,18 +25,25 @@ export function memberLabel(m: Pick<MemberView, 'deviceTag' | 'portName'>): stri
 
 export function reportFor(link: { kind: 'point-to-point' | 'rs485-bus'; cableLengthM: number | null }, members: MemberView[]): VaultLinkReport {
   const live = members.filter((m) => !m.inTrash);
+  const labels = new Map(live.map((m) => [m.portId, memberLabel(m)]));
+  const asMember = (m: MemberView): LinkMember => ({
+    id: m.portId,
+    label: memberLabel(m),
+    role: m.role,
+    settings: m.settings,
+    ...(m.unitLoads != null ? { unitLoads: m.unitLoads } : {}),
+    ...(m.isEnd != null ? { isEnd: m.isEnd } : {}),
+  });
   const report = checkLink(
-    live.map((m) => ({
-      id: m.portId,
-      label: memberLabel(m),
-      role: m.role,
-      settings: m.settings,
-      ...(m.unitLoads != null ? { unitLoads: m.unitLoads } : {}),
-      ...(m.isEnd != null ? { isEnd: m.isEnd } : {}),
-    })),
+    live.map((m) => {
+      if (!m.bridge) return asMember(m);
+      const b = m.bridge;
+      for (const x of b.beyond) if (!labels.has(x.portId)) labels.set(x.portId, `${memberLabel(x)} (through ${b.deviceTag})`);
+      const other = { id: b.other.portId, label: `${b.deviceTag} ${b.other.portName}`, role: m.role, settings: b.other.settings };
+      return { ...asMember(m), bridge: { via: b.deviceTag, other, beyond: b.beyond.map(asMember) } };
+    }),
     { kind: link.kind, ...(link.cableLengthM != null ? { cableLengthM: link.cableLengthM } : {}) },
   );
-  const labels = new Map(live.map((m) => [m.portId, memberLabel(m)]));
   const findings: VaultFinding[] = report.findings.map((f) => {
     const label = f.memberId ? labels.get(f.memberId) : undefined;
     return label ? { ...f, memberLabel: label } : { ...f };

@@ -1,0 +1,1 @@
+ALTER TABLE `device` ADD `bridges` text DEFAULT '[]' NOT NULL;
