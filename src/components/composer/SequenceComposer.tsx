@@ -19,9 +19,10 @@ import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
 import { sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
 import { SequencePreview } from './SequencePreview';
-import { SequenceReplies } from './SequenceReplies';
+import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
 import { SequenceSaveBar, type SavedSequenceCommand } from './SequenceSaveBar';
-import { SequenceSteps, type KeyedStep } from './SequenceSteps';
+import { SequenceSteps as SequenceStepsNow, type KeyedStep } from './SequenceSteps';
+import { Later } from './Later';
 import type { LibraryCommand } from './sequence-types';
 import { draftOf, type CommandDraft, type NamedPort } from './types';
 
@@ -37,6 +38,9 @@ export interface SequenceComposerProps {
 
 const EMPTY: Template = { version: 1, segments: [] };
 const History = lazy(() => import('./History'));
+// Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
+const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
+const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
 type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
@@ -146,8 +150,10 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
           <Section title="Steps" id="steps">
             {lib.error && <p className="notice notice-bad text-sm" role="alert">{lib.error.message}</p>}
             {problems.map((p) => <p key={p} className="notice notice-bad text-sm mb-2" role="alert">{p}</p>)}
-            <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
-              rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
+            <Later loading="Loading the steps…">
+              <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
+                rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
+            </Later>
           </Section>
         </div>
         <div className="grid gap-4 min-w-0">
@@ -157,7 +163,7 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
         </div>
       </div>
       <Section title="Replies" id="reply">
-        <SequenceReplies replies={replies} names={names} />
+        <Later loading="Loading the reply reader…"><SequenceReplies replies={replies} names={names} /></Later>
       </Section>
       {!readOnly && (
         <Section title="Save" id="save">
