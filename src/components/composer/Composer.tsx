@@ -26,11 +26,11 @@ import { Later } from './Later';
 import type { CommandDraft, NamedPort } from './types';
 
 // Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
-const SegmentEditor = import.meta.env.SSR ? SegmentEditorNow : lazy(() => import('./SegmentEditor').then((m) => ({ default: m.SegmentEditor })));
-const ValuesForm = import.meta.env.SSR ? ValuesFormNow : lazy(() => import('./ValuesForm').then((m) => ({ default: m.ValuesForm })));
-const PresetsPanel = import.meta.env.SSR ? PresetsPanelNow : lazy(() => import('./PresetsPanel').then((m) => ({ default: m.PresetsPanel })));
-const WirePanel = import.meta.env.SSR ? WirePanelNow : lazy(() => import('./WirePicture').then((m) => ({ default: m.WirePanel })));
-const ReplyDecoder = import.meta.env.SSR ? ReplyDecoderNow : lazy(() => import('./ReplyDecoder').then((m) => ({ default: m.ReplyDecoder })));
+const SegmentEditor = import.meta.env.SSR ? SegmentEditorNow : /* @__PURE__ */ lazy(() => import('./SegmentEditor').then((m) => ({ default: m.SegmentEditor })));
+const ValuesForm = import.meta.env.SSR ? ValuesFormNow : /* @__PURE__ */ lazy(() => import('./ValuesForm').then((m) => ({ default: m.ValuesForm })));
+const PresetsPanel = import.meta.env.SSR ? PresetsPanelNow : /* @__PURE__ */ lazy(() => import('./PresetsPanel').then((m) => ({ default: m.PresetsPanel })));
+const WirePanel = import.meta.env.SSR ? WirePanelNow : /* @__PURE__ */ lazy(() => import('./WirePicture').then((m) => ({ default: m.WirePanel })));
+const ReplyDecoder = import.meta.env.SSR ? ReplyDecoderNow : /* @__PURE__ */ lazy(() => import('./ReplyDecoder').then((m) => ({ default: m.ReplyDecoder })));
 
 export interface ComposerCoreProps {
   initial: CommandDraft;

@@ -1,10 +1,12 @@
 /**
  * A part of an island that the server renders at once and the browser hydrates when its code arrives, after the
  * rest of the island is interactive (composer JavaScript budget, issue 16). Each such part is declared as
- *   const Part = import.meta.env.SSR ? PartNow : lazy(() => import('./Part'));
- * so the server never suspends (a suspended server render would stream an inline script the CSP refuses), and
- * the browser keeps the server's HTML in place until the chunk is there. `data-later` reads "loading" until the
- * part has hydrated, then "ready" (the browser tests wait for it before they type).
+ *   const Part = import.meta.env.SSR ? PartNow : lazy(() => import('./Part'))
+ * with the lazy call marked as pure (a module whose top level calls `lazy` unmarked has a side effect, and that
+ * keeps its static import, and so its code, in the browser's first load). The server never suspends (a suspended
+ * server render would stream an inline script the CSP refuses); the browser keeps the server's HTML in place
+ * until the chunk is there. `data-later` reads "loading" until the part has hydrated, then "ready" (the browser
+ * tests wait for it before they type).
  */
 import { Suspense, useEffect, useRef, type ReactNode } from 'react';
 

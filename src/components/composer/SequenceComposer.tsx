@@ -37,10 +37,10 @@ export interface SequenceComposerProps {
 }
 
 const EMPTY: Template = { version: 1, segments: [] };
-const History = lazy(() => import('./History'));
+const History = /* @__PURE__ */ lazy(() => import('./History'));
 // Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
-const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
-const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
+const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : /* @__PURE__ */ lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
+const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : /* @__PURE__ */ lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
 type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));

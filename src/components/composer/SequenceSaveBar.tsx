@@ -12,7 +12,7 @@ import type { Template } from '../../lib/frame/template';
 import { changedSequenceFields, sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
 import { SaveWithFindings, type ErrorFinding } from './SaveWithFindings';
 
-const SequenceConflict = lazy(() => import('./SequenceConflict'));
+const SequenceConflict = /* @__PURE__ */ lazy(() => import('./SequenceConflict'));
 
 const EMPTY: Template = { version: 1, segments: [] };
 
