@@ -9,15 +9,17 @@
  * interactive is collected (module scripts, inline module imports, island component-url and renderer-url,
  * modulepreload links, then the static imports of each served file, transitively; what a page imports
  * dynamically, on demand, is not), each file gzipped, and the total per page printed beside the baseline's
- * with the ratio and PASS/FAIL against the budget. A page without islands must load no React at all.
+ * with the ratio and PASS/FAIL against the budget. A page without islands must load no React at all. Then, in
+ * Debian's Chromium, keystroke to preview on the saved index command, on both builds: it must not get slower.
  * BENCH_JSON=file writes the figures for scripts/perf-table.mjs.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, realpathSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { build } from 'esbuild';
+import { chromium } from 'playwright-core';
 import { startServer, type RunningServer } from '../tests/helpers/server';
 
 /** Issue 16: the composer pages and the workbench, everything loaded before interactive, gzip. */
@@ -131,9 +133,57 @@ function baselineRoot(): { root: string; ref: string; cleanup: () => void } {
   return { root, ref: ref.slice(0, 12), cleanup };
 }
 
+/** Keystrokes timed per build: each changes the value and so the preview. */
+const KEYSTROKES = 40;
+const CHROMIUM = '/usr/bin/chromium';
+
+/**
+ * Keystroke to preview in Chromium on the saved index command: from the keydown (captured first) to the change of
+ * the PLC literal, measured inside the page, as the composer's browser test measures it. Milliseconds, sorted.
+ */
+async function keystrokes(server: RunningServer, cookie: string): Promise<number[]> {
+  const dir = mkdtempSync(join(tmpdir(), 'baudbook-bench-chromium-'));
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: CHROMIUM, headless: true, baseURL: server.baseUrl,
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  try {
+    await context.addCookies(cookie.split('; ').map((c) => { const i = c.indexOf('='); return { name: c.slice(0, i), value: c.slice(i + 1), url: server.baseUrl }; }));
+    const page = context.pages()[0] ?? (await context.newPage());
+    await page.goto(COMPOSER);
+    await page.waitForFunction(() => !document.querySelector('astro-island[ssr]') && !document.querySelector('[data-later="loading"]'));
+    const input = page.getByLabel('Index angle (°)');
+    await input.waitFor();
+    await page.evaluate(() => {
+      const w = window as unknown as { __t0: number; __open: boolean; __times: number[] };
+      w.__times = [];
+      w.__open = false;
+      document.addEventListener('keydown', () => { w.__t0 = performance.now(); w.__open = true; }, { capture: true });
+      const target = document.querySelector('[data-testid="notation-iecLiteral"]')!;
+      // The first change after each keydown: the preview showing the new value.
+      new MutationObserver(() => { if (w.__open) { w.__open = false; w.__times.push(performance.now() - w.__t0); } })
+        .observe(target, { subtree: true, characterData: true, childList: true });
+    });
+    await input.focus();
+    await page.keyboard.press('End');
+    for (let i = 0; i < KEYSTROKES; i++) {
+      const before = await page.evaluate(() => (window as unknown as { __times: number[] }).__times.length);
+      await page.keyboard.press(i % 2 === 0 ? 'Backspace' : '5');
+      await page.waitForFunction((n) => (window as unknown as { __times: number[] }).__times.length > n, before, { timeout: 10_000 });
+    }
+    const times = await page.evaluate(() => (window as unknown as { __times: number[] }).__times);
+    return times.slice(0, KEYSTROKES).sort((a, b) => a - b);
+  } finally {
+    await context.close();
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+const pct = (xs: number[], p: number) => xs[Math.min(xs.length - 1, Math.floor((p / 100) * xs.length))]!;
+
 interface PageSize { kb: number; react: boolean; islands: boolean; files: number }
 
-async function measure(server: RunningServer, label: string): Promise<Map<string, PageSize>> {
+async function measure(server: RunningServer, label: string): Promise<{ sizes: Map<string, PageSize>; cookie: string }> {
   await fetch(`${server.baseUrl}/`); // runs migrations and the demo seed
   const cookie = await signIn(server.baseUrl);
   const out = new Map<string, PageSize>();
@@ -151,13 +201,14 @@ async function measure(server: RunningServer, label: string): Promise<Map<string
     }
     out.set(page.path, { kb: total / 1024, react: [...files.values()].some((f) => f.text.includes(REACT_MARK)), islands: html.includes('<astro-island'), files: files.size });
   }
-  return out;
+  return { sizes: out, cookie };
 }
 
-async function measureBuild(root: string | undefined, label: string): Promise<Map<string, PageSize>> {
+async function measureBuild(root: string | undefined, label: string): Promise<{ sizes: Map<string, PageSize>; keys: number[] | null }> {
   const server = await startServer({ SEED_DEMO: '1' }, root);
   try {
-    return await measure(server, label);
+    const { sizes, cookie } = await measure(server, label);
+    return { sizes, keys: existsSync(CHROMIUM) ? await keystrokes(server, cookie) : null };
   } finally {
     await server.stop();
   }
@@ -166,13 +217,15 @@ async function measureBuild(root: string | undefined, label: string): Promise<Ma
 let failed = false;
 await resolverCost();
 const baseline = baselineRoot();
-let before: Map<string, PageSize>;
+let baseRun: Awaited<ReturnType<typeof measureBuild>>;
 try {
-  before = await measureBuild(baseline.root, 'baseline');
+  baseRun = await measureBuild(baseline.root, 'baseline');
 } finally {
   baseline.cleanup();
 }
-const now = await measureBuild(undefined, 'now');
+const nowRun = await measureBuild(undefined, 'now');
+const before = baseRun.sizes;
+const now = nowRun.sizes;
 const figures: { figure: string; target: string; measured: string; baseline: string; ratio: string; pass: boolean | null }[] = [];
 console.log(`\nJavaScript loaded before interactive, gzip: this build against the baseline ${baseline.ref} (same run)`);
 for (const page of PAGES) {
@@ -195,6 +248,18 @@ for (const page of PAGES) {
   const verdict = pass === null ? 'INFO' : pass ? 'PASS' : 'FAIL';
   console.log(`${verdict} ${page.path}: ${b.kb.toFixed(1)} KB (baseline ${a.kb.toFixed(1)} KB, ratio ${ratio}; target ${target})${page.islands ? '' : b.react ? ', loads React' : ', loads no React'}`);
   figures.push({ figure: `JavaScript of ${page.path} (gzip, before interactive)`, target, measured: `${b.kb.toFixed(1)} KB`, baseline: `${a.kb.toFixed(1)} KB`, ratio, pass });
+}
+if (baseRun.keys && nowRun.keys) {
+  // Not slower: the median within a quarter of the baseline's (and 2 ms, a frame's share of timer and paint noise).
+  const [a, b] = [baseRun.keys, nowRun.keys];
+  const ratio = (pct(b, 50) / pct(a, 50)).toFixed(2);
+  const pass = pct(b, 50) <= pct(a, 50) * 1.25 + 2;
+  if (!pass) failed = true;
+  const show = (xs: number[]) => `p50 ${pct(xs, 50).toFixed(1)} ms, p90 ${pct(xs, 90).toFixed(1)} ms`;
+  console.log(`${pass ? 'PASS' : 'FAIL'} keystroke to preview in Chromium, ${KEYSTROKES} keys on ${COMPOSER}: ${show(b)} (baseline ${show(a)}, ratio ${ratio}; target not slower: p50 ≤ 1.25× baseline + 2 ms)`);
+  figures.push({ figure: 'keystroke to preview in Chromium (composer page)', target: 'not slower than the baseline (p50 ≤ 1.25× + 2 ms)', measured: show(b), baseline: show(a), ratio, pass });
+} else {
+  console.log(`keystroke to preview: skipped (${CHROMIUM} missing)`);
 }
 if (process.env.BENCH_JSON) writeFileSync(process.env.BENCH_JSON, JSON.stringify({ date: new Date().toISOString(), figures }, null, 2));
 process.exit(failed ? 1 : 0);
