@@ -17,7 +17,10 @@ export default defineConfig({
   // Middleware mode: the built entry only exports a handler; server/serve.mjs owns the socket, the client
   // address and static files, so nothing can start the app without them.
   adapter: node({ mode: 'middleware' }),
-  integrations: [react()],
+  // Islands render with renderToString: a streamed render outlines any Suspense boundary past the first
+  // 12.8 kB of HTML into a hidden template completed by an inline script, which the hash-only CSP refuses; the
+  // composer's parts that load after the page is interactive each sit in one (src/components/composer/Later.tsx).
+  integrations: [react({ experimentalDisableStreaming: true })],
   server: { host: config.host ?? '127.0.0.1', port: config.port },
   security: {
     // Our middleware enforces the Origin rule (JSON answers, Sec-Fetch-Site, the public tools API exempt);

@@ -8,7 +8,7 @@ const env = { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' };
 // docs/performance.md at the end.
 rmSync('bench/.out', { recursive: true, force: true });
 mkdirSync('bench/.out', { recursive: true });
-const out = { 'vault endpoints': 'bench/.out/1-vault.json', 'bench/csv-import.ts': 'bench/.out/2-csv-import.json' };
+const out = { 'vault endpoints': 'bench/.out/1-vault.json', 'bench/csv-import.ts': 'bench/.out/2-csv-import.json', 'bench/composer.ts': 'bench/.out/3-composer.json' };
 const steps = [
   ['frame engine', 'node_modules/.bin/vitest', ['run', '--config', 'bench/vitest.config.ts']],
 ];

@@ -115,6 +115,58 @@ describe('saved sequences in the browser', () => {
     await shot(phone.page, 'sequence-four-move-phone');
   }, 120_000);
 
+  it('shows a colleague\'s save of a sequence beside mine and re-applies only my changes', async () => {
+    const b = await browser({ viewport: PHONE });
+    // The first save meets the colleague's version: the 409 is the point of the test.
+    b.allow('the server responded with a status of 409');
+    const page = b.page;
+    await signIn(page, 'engineer@fernhollow.test');
+    const origin = new URL(page.url()).origin;
+    const run = Date.now().toString(36);
+    const post = async (data: object) => {
+      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
+      expect(res.status(), await res.text()).toBe(201);
+      return (await res.json()) as { id: string };
+    };
+    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
+    const steps = [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }];
+    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', delayMs: 0, steps } });
+
+    await visit(page, `${DRIVE}/${seq.id}`);
+    await page.getByText('Saved · version 1').waitFor();
+    // Meanwhile a colleague renames it and sends its steps separately, 5 ms apart.
+    const theirs = await page.request.fetch(`/api/commands/${seq.id}`, { method: 'PATCH', headers: { origin }, data: { version: 1, name: `Two-step ${run} (theirs)`, sequence: { mode: 'separate', delayMs: 5, steps } } });
+    expect(theirs.status(), await theirs.text()).toBe(200);
+
+    await page.getByLabel('Notes').fill('my notes');
+    await page.locator('[data-step="2"]').getByLabel('Distance (°)').fill('90');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    const conflict = page.getByTestId('conflict');
+    await conflict.waitFor();
+    const row = (name: string) => conflict.locator('li', { has: page.getByText(name, { exact: true }) });
+    expect(await row('Sequence name').textContent()).toContain('their change');
+    expect(await row('How it is sent').locator('[data-side="theirs"]').textContent()).toBe('As separate sends');
+    expect(await row('Pause between sends').textContent()).toContain('their change');
+    expect(await row('Notes').textContent()).toContain('your change');
+    expect(await row('Steps').textContent()).toContain('your change');
+    expect(await row('Steps').locator('[data-side="mine"]').textContent()).toBe(`1. Velocity ${run} · 2. Inline step (address 1, angle 90)`);
+    expect(await conflict.textContent()).not.toMatch(/reload/i);
+    await shot(page, 'sequence-conflict-phone');
+
+    await conflict.getByRole('button', { name: 'Apply my changes on version 2' }).click();
+    await page.getByText('Saved · version 3').waitFor();
+    const saved = await (await page.request.get(`/api/commands/${seq.id}`)).json();
+    // Theirs where only they changed (name, send mode, pause), mine where only I did (notes, the steps).
+    expect(saved).toMatchObject({ name: `Two-step ${run} (theirs)`, notes: 'my notes', version: 3 });
+    expect(saved.sequence).toMatchObject({ mode: 'separate', delayMs: 5 });
+    expect(saved.sequence.steps.map((s: { commandId?: string; values: Record<string, unknown> }) => [s.commandId ?? 'inline', String(s.values.angle ?? '')])).toEqual([[speed.id, ''], ['inline', '90']]);
+    // The composer now shows version 3 as saved: their name and mode, my notes.
+    expect(await page.getByLabel('Command name').inputValue()).toBe(`Two-step ${run} (theirs)`);
+    expect(await page.getByLabel('As separate sends, one per step').isChecked()).toBe(true);
+    expect(await page.getByLabel('Notes').inputValue()).toBe('my notes');
+    expect(await conflict.count()).toBe(0);
+  });
+
   it('asks before trashing a command a sequence uses, shows the gap, and mends when it is restored', async () => {
     const b = await browser({ viewport: DESKTOP });
     const page = b.page;

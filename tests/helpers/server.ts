@@ -29,21 +29,26 @@ export const startedServers = new Map<string, { databaseUrl: string; outbox: boo
 
 /** Built app; DIST_DIR lets parallel work trees build elsewhere (default dist). Served by server/serve.mjs. */
 const distDir = process.env.DIST_DIR ?? 'dist';
-const entry = join(distDir, 'server/entry.mjs');
 
 /** The local outbox's key on test servers (a real server prints a random one at start). */
 export const TEST_OUTBOX_KEY = 'test-outbox-key-0123456789';
 
-export async function startServer(extraEnv: Record<string, string> = {}): Promise<RunningServer> {
-  if (!existsSync(entry)) {
-    throw new Error(`${entry} is missing: run \`npm run build\` first (npm test does this).`);
+/**
+ * `root`: another checkout whose own server/serve.mjs and dist/ to run, in its folder (a benchmark's baseline
+ * build of an earlier commit); default this one, with DIST_DIR.
+ */
+export async function startServer(extraEnv: Record<string, string> = {}, root?: string): Promise<RunningServer> {
+  const dist = root ? join(root, 'dist') : distDir;
+  if (!existsSync(join(dist, 'server/entry.mjs'))) {
+    throw new Error(`${join(dist, 'server/entry.mjs')} is missing: run \`npm run build\` first (npm test does this).`);
   }
   const dir = mkdtempSync(join(tmpdir(), 'baudbook-test-'));
   const port = extraEnv.PORT ? Number(extraEnv.PORT) : await freePort();
   const databaseUrl = extraEnv.DATABASE_URL ?? `file:${join(dir, 'test.db')}`;
   /** Where the tests reach the server (BASE_URL in extraEnv may name a public https address instead). */
   const baseUrl = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(process.execPath, ['server/serve.mjs', distDir], {
+  const child: ChildProcess = spawn(process.execPath, [root ? join(root, 'server/serve.mjs') : 'server/serve.mjs', dist], {
+    ...(root ? { cwd: root } : {}),
     env: {
       ...process.env,
       HOST: '127.0.0.1',

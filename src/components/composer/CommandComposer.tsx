@@ -21,7 +21,7 @@ export interface CommandComposerProps {
   plcStringCapacity?: number | null;
 }
 
-const History = lazy(() => import('./History'));
+const History = /* @__PURE__ */ lazy(() => import('./History'));
 
 function CopyHere({ commandId, deviceId, basePath }: { commandId: string; deviceId: string; basePath: string }) {
   const m = useMutation({

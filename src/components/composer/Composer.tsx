@@ -2,28 +2,35 @@
  * The command composer island: segment editor, field values, live preview, timing, wire picture and
  * reply decoder over the frame engine. Used on device and profile pages and on the public workbench.
  */
-import { useMemo, useState, type ReactNode } from 'react';
+import { lazy, useMemo, useState, type ReactNode } from 'react';
 import { previewFrame } from '../../lib/frame/preview';
 import { plcStringFit } from '../../lib/frame/plc-string';
 import { defaultPortSettings, type PortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
 import { restartForPort, starterTemplate } from '../../lib/composer/segments';
 import { timingSummary } from '../../lib/composer/timing';
-import { wireLayout } from '../../lib/composer/wire';
 import { decodeReplyLength } from '../../lib/composer/reply-length';
 import { Caution } from '../ui/Caution';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
 import { PlcCodeSection } from './PlcCodeSection';
 import { PreviewPanel } from './PreviewPanel';
-import { ReplyDecoder } from './ReplyDecoder';
+import { ReplyDecoder as ReplyDecoderNow } from './ReplyDecoder';
 import { Section } from '../ui/Section';
-import { SegmentEditor } from './SegmentEditor';
+import { SegmentEditor as SegmentEditorNow } from './SegmentEditor';
 import { TimingPanel } from './TimingPanel';
-import { ValuesForm } from './ValuesForm';
-import { PresetsPanel } from './PresetsPanel';
-import { WirePicture } from './WirePicture';
+import { ValuesForm as ValuesFormNow } from './ValuesForm';
+import { PresetsPanel as PresetsPanelNow } from './PresetsPanel';
+import { WirePanel as WirePanelNow } from './WirePicture';
+import { Later } from './Later';
 import type { CommandDraft, NamedPort } from './types';
+
+// Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
+const SegmentEditor = import.meta.env.SSR ? SegmentEditorNow : /* @__PURE__ */ lazy(() => import('./SegmentEditor').then((m) => ({ default: m.SegmentEditor })));
+const ValuesForm = import.meta.env.SSR ? ValuesFormNow : /* @__PURE__ */ lazy(() => import('./ValuesForm').then((m) => ({ default: m.ValuesForm })));
+const PresetsPanel = import.meta.env.SSR ? PresetsPanelNow : /* @__PURE__ */ lazy(() => import('./PresetsPanel').then((m) => ({ default: m.PresetsPanel })));
+const WirePanel = import.meta.env.SSR ? WirePanelNow : /* @__PURE__ */ lazy(() => import('./WirePicture').then((m) => ({ default: m.WirePanel })));
+const ReplyDecoder = import.meta.env.SSR ? ReplyDecoderNow : /* @__PURE__ */ lazy(() => import('./ReplyDecoder').then((m) => ({ default: m.ReplyDecoder })));
 
 export interface ComposerCoreProps {
   initial: CommandDraft;
@@ -65,7 +72,6 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
   const preview = useMemo(() => (fit && fit.findings.length ? { ...frame, ok: false, findings: [...frame.findings, ...fit.findings] } : frame), [frame, fit]);
   const replyBytes = draft.replyTemplate && reply.valid ? decodeReplyLength(reply.valid) : null;
   const timing = useMemo(() => timingSummary(settings, preview.byteCount, replyBytes), [settings, preview.byteCount, replyBytes]);
-  const wire = useMemo(() => wireLayout(preview.bytes, settings), [preview.bytes, settings]);
   const fieldSignature = JSON.stringify(template.segments.filter((s) => 'name' in s));
   const replace = (d: CommandDraft) => { setDraft(d); setFormKey((k) => k + 1); };
   const valid = !request.error && !reply.error && !!draft.name.trim();
@@ -90,17 +96,23 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
               }} />}
           </Section>
           <Section title="Segments" id="segments">
-            <SegmentEditor idPrefix="req" template={draft.template} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
-              onChange={(t) => patch({ template: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+            <Later loading="Loading the segment editor…">
+              <SegmentEditor idPrefix="req" template={draft.template} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
+                onChange={(t) => patch({ template: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+            </Later>
             {request.error && <p className="notice notice-bad text-sm mt-2" role="alert">{request.error}</p>}
           </Section>
           <Section title="Values" id="values">
-            <ValuesForm key={`${formKey}:${fieldSignature}`} template={template} values={draft.fieldValues} rawUnits={draft.rawUnits} onChange={(fieldValues) => patch({ fieldValues })} />
+            <Later loading="Loading the values…">
+              <ValuesForm key={`${formKey}:${fieldSignature}`} template={template} values={draft.fieldValues} rawUnits={draft.rawUnits} onChange={(fieldValues) => patch({ fieldValues })} />
+            </Later>
           </Section>
           {!portSlot && (
             <Section title="Presets" id="presets">
-              <PresetsPanel template={template} values={draft.fieldValues} presets={draft.presets} line={settings.interface === 'tcp' ? null : settings}
-                readOnly={readOnly} onChange={(presets) => patch({ presets })} onUse={(fieldValues) => replace({ ...draft, fieldValues })} />
+              <Later loading="Loading the presets…">
+                <PresetsPanel template={template} values={draft.fieldValues} presets={draft.presets} line={settings.interface === 'tcp' ? null : settings}
+                  readOnly={readOnly} onChange={(presets) => patch({ presets })} onUse={(fieldValues) => replace({ ...draft, fieldValues })} />
+              </Later>
             </Section>
           )}
         </div>
@@ -115,7 +127,9 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
             <TimingPanel timing={timing} />
           </Section>
           <Section title="On the wire" id="wire">
-            {wire.ok ? <WirePicture layout={wire.value} shorthand={timing.shorthand} /> : <p className="field-error" role="alert">{wire.error.message}.</p>}
+            <Later loading="Drawing the wire picture…">
+              <WirePanel bytes={preview.bytes} settings={settings} shorthand={timing.shorthand} />
+            </Later>
           </Section>
         </div>
       </div>
@@ -130,13 +144,15 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <div className="grid gap-4 lg:grid-cols-2">
             <div className="min-w-0">
               <h3 className="font-semibold mb-1">Expected reply</h3>
-              <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
-                onChange={(t) => patch({ replyTemplate: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+              <Later loading="Loading the segment editor…">
+                <SegmentEditor idPrefix="reply" template={draft.replyTemplate} rules={rules} protocol={settings.protocol} rawUnits={draft.rawUnits} readOnly={readOnly}
+                  onChange={(t) => patch({ replyTemplate: t })} onRawUnits={(rawUnits) => patch({ rawUnits })} />
+              </Later>
               {reply.error && <p className="notice notice-bad text-sm mt-2" role="alert">{reply.error}</p>}
             </div>
             <div className="min-w-0">
               <h3 className="font-semibold mb-1">Decode a received reply</h3>
-              {reply.valid && <ReplyDecoder template={reply.valid} />}
+              {reply.valid && <Later loading="Loading the reply decoder…"><ReplyDecoder template={reply.valid} /></Later>}
             </div>
           </div>
         ) : (

@@ -11,7 +11,7 @@ import { useConflict } from '../../lib/client/use-conflict';
 import { commandShape, segmentIsLeaf, type CommandShape } from './command-conflict';
 import { draftOf, type CommandDraft } from './types';
 
-const CommandConflict = lazy(() => import('./CommandConflict'));
+const CommandConflict = /* @__PURE__ */ lazy(() => import('./CommandConflict'));
 
 interface Rev { id: string; version: number; action: string; userName: string; summary: string; createdAt: string }
 type Saved = CommandDraft & { id: string; version: number };

@@ -2,7 +2,7 @@
 import { lazy, Suspense, useState } from 'react';
 import type { Template } from '../../lib/frame/template';
 
-const PlcCodePanel = lazy(() => import('./PlcCodePanel'));
+const PlcCodePanel = /* @__PURE__ */ lazy(() => import('./PlcCodePanel'));
 
 export function PlcCodeSection({ template, name }: { template: Template; name: string }) {
   const [open, setOpen] = useState(false);

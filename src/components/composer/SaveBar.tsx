@@ -12,7 +12,7 @@ import { changedDraftFields, commandShape, mergedDraft, segmentIsLeaf } from './
 import { draftOf, type CommandDraft } from './types';
 import { SaveWithFindings, type ErrorFinding } from './SaveWithFindings';
 
-const CommandConflict = lazy(() => import('./CommandConflict'));
+const CommandConflict = /* @__PURE__ */ lazy(() => import('./CommandConflict'));
 
 interface Saved extends CommandDraft { id: string; version: number }
 

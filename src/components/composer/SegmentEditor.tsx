@@ -9,7 +9,7 @@ import { CONTROL_CHOICES, labelOfBytes } from '../../lib/composer/bytes-text';
 import { segmentTitle } from '../../lib/composer/cells';
 
 // The editor of one segment's settings opens on demand (Edit), so it loads then (composer JavaScript budget).
-const SegmentFields = lazy(() => import('./SegmentFields').then((m) => ({ default: m.SegmentFields })));
+const SegmentFields = /* @__PURE__ */ lazy(() => import('./SegmentFields').then((m) => ({ default: m.SegmentFields })));
 
 interface Props {
   /** Prefix for element ids, so the request and reply editors can share a page. */

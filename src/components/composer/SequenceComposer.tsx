@@ -4,9 +4,10 @@
  * whole string with each step's span, the replies per step, and saving. Its own island, so the single-command
  * composer carries none of it.
  */
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useQuery } from '@tanstack/react-query';
 import { lazy, Suspense, useMemo, useState } from 'react';
-import { api, ApiError, isStale } from '../../lib/client/api';
+import { api } from '../../lib/client/api';
+import { same } from '../../lib/client/conflict';
 import { commandKeys } from '../../lib/client/keys';
 import { assembleSaved, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
 import { defaultPortSettings } from '../../lib/frame/port-settings';
@@ -16,10 +17,12 @@ import { Caution } from '../ui/Caution';
 import { Section } from '../ui/Section';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
-import { SaveWithFindings } from './SaveWithFindings';
+import { sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
 import { SequencePreview } from './SequencePreview';
-import { SequenceReplies } from './SequenceReplies';
-import { SequenceSteps, type KeyedStep } from './SequenceSteps';
+import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
+import { SequenceSaveBar, type SavedSequenceCommand } from './SequenceSaveBar';
+import { SequenceSteps as SequenceStepsNow, type KeyedStep } from './SequenceSteps';
+import { Later } from './Later';
 import type { LibraryCommand } from './sequence-types';
 import { draftOf, type CommandDraft, type NamedPort } from './types';
 
@@ -34,7 +37,10 @@ export interface SequenceComposerProps {
 }
 
 const EMPTY: Template = { version: 1, segments: [] };
-const History = lazy(() => import('./History'));
+const History = /* @__PURE__ */ lazy(() => import('./History'));
+// Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
+const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : /* @__PURE__ */ lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
+const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : /* @__PURE__ */ lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
 type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
@@ -46,16 +52,37 @@ function useLibrary(owner: SequenceComposerProps['owner']) {
   return { live: live.data?.items ?? null, trashed: trashed.data?.items ?? [], error: live.error };
 }
 
-function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStringCapacity = null }: SequenceComposerProps) {
-  const qc = useQueryClient();
+/** Holds the saved sequence the editor counts its changes from; loading another version (theirs, or a re-apply) opens the editor anew on it. */
+function Inner(props: SequenceComposerProps) {
+  const { command } = props;
   const [saved, setSaved] = useState(command.id ? { id: command.id, version: command.version! } : null);
-  const [details, setDetails] = useState<Details>({ name: command.name, purpose: command.purpose, notes: command.notes, movesMachinery: command.movesMachinery, portName: command.portName });
-  const [steps, setSteps] = useState<KeyedStep[]>(() => keyed(command.sequence));
-  const [mode, setMode] = useState(command.sequence?.mode ?? 'one-string');
-  const [delayMs, setDelayMs] = useState(command.sequence?.delayMs ?? 0);
-  const [asking, setAsking] = useState(false);
+  const [base, setBase] = useState<SequenceDraft>(() => sequenceDraftOf(command));
+  const [epoch, setEpoch] = useState(0);
+  const load = (c: SavedSequenceCommand) => {
+    setSaved({ id: c.id, version: c.version });
+    setBase(sequenceDraftOf(c));
+    setEpoch((e) => e + 1);
+  };
+  return (
+    <Editor key={epoch} {...props} saved={saved} base={base} onLoad={load}
+      onSaved={(c, sent) => { setSaved({ id: c.id, version: c.version }); setBase(sent); }} />
+  );
+}
+
+interface EditorProps extends SequenceComposerProps {
+  saved: { id: string; version: number } | null;
+  base: SequenceDraft;
+  onSaved: (c: { id: string; version: number }, sent: SequenceDraft) => void;
+  onLoad: (c: SavedSequenceCommand) => void;
+}
+
+function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStringCapacity = null, saved, base, onSaved, onLoad }: EditorProps) {
+  const { sequence: opened, ...openedDetails } = base;
+  const [details, setDetails] = useState<Details>(openedDetails);
+  const [steps, setSteps] = useState<KeyedStep[]>(() => keyed(opened));
+  const [mode, setMode] = useState(opened.mode);
+  const [delayMs, setDelayMs] = useState(opened.delayMs);
   const [showHistory, setShowHistory] = useState(false);
-  const [base, setBase] = useState(() => JSON.stringify({ details, seq: command.sequence }));
   const readOnly = !canEdit || !!inheritedFrom;
 
   const lib = useLibrary(owner);
@@ -92,28 +119,9 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
   const names = s.info.map((i) => i.name);
   const moves = details.movesMachinery || sequence.steps.some((x) => x.commandId && (lib.live ?? []).find((c) => c.id === x.commandId)?.movesMachinery);
   const errors = s.findings.filter((f) => f.severity === 'error');
-  const dirty = JSON.stringify({ details, seq: sequence }) !== base;
+  const draft: SequenceDraft = sequenceDraftOf({ ...details, sequence });
+  const dirty = !same(draft, base);
   const valid = !!details.name.trim() && steps.length > 0 && problems.length === 0;
-
-  const save = useMutation({
-    mutationFn: async () => {
-      const body: Record<string, unknown> = { ...details, sequence };
-      if (!saved) return api<{ id: string; version: number }>('/api/commands', { body: { [owner.kind === 'device' ? 'deviceId' : 'profileId']: owner.id, template: EMPTY, ...body } });
-      // Only what changed since it was opened (or last saved), on the version it was opened at.
-      const was = JSON.parse(base) as { details: Record<string, unknown>; seq: unknown };
-      const before: Record<string, unknown> = { ...was.details, sequence: was.seq };
-      const changed = Object.fromEntries(Object.entries(body).filter(([k, v]) => JSON.stringify(v) !== JSON.stringify(before[k])));
-      return api<{ id: string; version: number }>(`/api/commands/${saved.id}`, { method: 'PATCH', body: { version: saved.version, ...changed } });
-    },
-    onSuccess: (c) => {
-      setAsking(false);
-      qc.invalidateQueries({ queryKey: commandKeys.all() });
-      if (!saved) return location.assign(`${basePath}/${c.id}`);
-      setSaved({ id: c.id, version: c.version });
-      setBase(JSON.stringify({ details, seq: sequence }));
-    },
-  });
-  const err = save.error instanceof ApiError ? save.error : null;
 
   return (
     <div className="grid gap-4" data-testid="sequence-composer">
@@ -142,8 +150,10 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
           <Section title="Steps" id="steps">
             {lib.error && <p className="notice notice-bad text-sm" role="alert">{lib.error.message}</p>}
             {problems.map((p) => <p key={p} className="notice notice-bad text-sm mb-2" role="alert">{p}</p>)}
-            <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
-              rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
+            <Later loading="Loading the steps…">
+              <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
+                rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
+            </Later>
           </Section>
         </div>
         <div className="grid gap-4 min-w-0">
@@ -153,27 +163,13 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
         </div>
       </div>
       <Section title="Replies" id="reply">
-        <SequenceReplies replies={replies} names={names} />
+        <Later loading="Loading the reply reader…"><SequenceReplies replies={replies} names={names} /></Later>
       </Section>
       {!readOnly && (
         <Section title="Save" id="save">
-          <div className="grid gap-2" data-testid="save-bar">
-            <div className="flex flex-wrap items-center gap-3">
-              <button type="button" className="btn" disabled={!valid || save.isPending || (!!saved && !dirty)}
-                onClick={() => (errors.length && !asking ? setAsking(true) : save.mutate())}>{saved ? 'Save changes' : 'Save sequence'}</button>
-              <span className="text-sm text-muted" role="status">
-                {save.isPending ? 'Saving…' : saved ? (dirty ? 'Unsaved changes' : `Saved · version ${saved.version}`) : 'Not saved yet'}
-              </span>
-            </div>
-            {!valid && <p className="text-sm text-bad">{problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'}</p>}
-            {asking && errors.length > 0 && <SaveWithFindings errors={errors} busy={save.isPending} onSave={() => save.mutate()} onCancel={() => setAsking(false)} />}
-            {err && (
-              <div className="notice notice-bad text-sm" role="alert">
-                <p>{isStale(err) ? 'Someone else saved this sequence meanwhile. Reload the page to see their version, then make your change again.' : err.message}</p>
-                {!isStale(err) && Object.entries(err.fields).map(([k, v]) => <p key={k} className="mono text-xs">{k}: {v}</p>)}
-              </div>
-            )}
-          </div>
+          <SequenceSaveBar draft={draft} base={base} saved={saved} owner={owner} composerHref={(id) => `${basePath}/${id}`}
+            onSaved={onSaved} onLoad={onLoad} dirty={dirty} valid={valid} errors={errors} nameOf={(id) => lookup(id)?.name}
+            invalidReason={problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'} />
         </Section>
       )}
       {saved && (

@@ -1,12 +1,13 @@
 /** The steps of a sequence: add from the library or inline, reorder, remove, and each step's values and wait. */
-import { useState } from 'react';
+import { lazy, useState } from 'react';
 import type { FrameRulesInput } from '../../lib/frame/frame-rules';
 import type { Protocol } from '../../lib/frame/port-settings';
 import type { SavedSequenceStep, StepInfo } from '../../lib/composer/saved-sequence';
 import { starterTemplate } from '../../lib/composer/segments';
 import { ms } from '../../lib/composer/format';
 import type { SequenceStep } from '../../lib/frame/sequence';
-import { SegmentEditor } from './SegmentEditor';
+import { SegmentEditor as SegmentEditorNow } from './SegmentEditor';
+import { Later } from './Later';
 import { ValuesForm } from './ValuesForm';
 import type { LibraryCommand } from './sequence-types';
 
@@ -26,6 +27,9 @@ interface Props {
   protocol?: Protocol;
   readOnly: boolean;
 }
+
+// One chunk of its own, shared with the command composer's editors (see Later).
+const SegmentEditor = import.meta.env.SSR ? SegmentEditorNow : /* @__PURE__ */ lazy(() => import('./SegmentEditor').then((m) => ({ default: m.SegmentEditor })));
 
 let counter = 0;
 export const newKey = () => `s${++counter}`;
@@ -86,8 +90,10 @@ export function SequenceSteps({ steps, onChange, library, info, assembled, separ
                   {!step.commandId && step.template && !readOnly && (
                     <details>
                       <summary className="cursor-pointer text-sm">Segments of this step</summary>
-                      <SegmentEditor idPrefix={`step-${key}`} template={step.template} rules={rules} protocol={protocol} rawUnits={{}} readOnly={readOnly}
-                        onChange={(t) => set(key, { template: t })} onRawUnits={() => {}} />
+                      <Later loading="Loading the segment editor…">
+                        <SegmentEditor idPrefix={`step-${key}`} template={step.template} rules={rules} protocol={protocol} rawUnits={{}} readOnly={readOnly}
+                          onChange={(t) => set(key, { template: t })} onRawUnits={() => {}} />
+                      </Later>
                     </details>
                   )}
                   {!step.commandId && step.template && !readOnly && (
@@ -100,8 +106,10 @@ export function SequenceSteps({ steps, onChange, library, info, assembled, separ
                   {!step.commandId && step.replyTemplate && !readOnly && (
                     <details>
                       <summary className="cursor-pointer text-sm">Expected reply of this step</summary>
-                      <SegmentEditor idPrefix={`step-${key}-reply`} template={step.replyTemplate} rules={rules} protocol={protocol} rawUnits={{}} readOnly={readOnly}
-                        onChange={(t) => set(key, { replyTemplate: t })} onRawUnits={() => {}} />
+                      <Later loading="Loading the segment editor…">
+                        <SegmentEditor idPrefix={`step-${key}-reply`} template={step.replyTemplate} rules={rules} protocol={protocol} rawUnits={{}} readOnly={readOnly}
+                          onChange={(t) => set(key, { replyTemplate: t })} onRawUnits={() => {}} />
+                      </Later>
                     </details>
                   )}
                   {cmd && cmd.presets.length > 0 && !readOnly && (

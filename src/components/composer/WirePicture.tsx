@@ -1,5 +1,7 @@
 /** The first bytes of the frame on the wire (idle, start, data LSB first, parity, stop), drawn from the engine's bitSequence. */
-import type { WireLayout } from '../../lib/composer/wire';
+import { useMemo } from 'react';
+import { wireLayout, type WireLayout } from '../../lib/composer/wire';
+import type { PortSettings } from '../../lib/frame/port-settings';
 
 const FILL = { idle: '#f6f7f4', start: '#e3eef2', data: '#ffffff', parity: '#fdf3e3', stop: '#e8f5ec' } as const;
 
@@ -38,4 +40,10 @@ export function WirePicture({ layout, shorthand }: { layout: WireLayout; shortha
       </figcaption>
     </figure>
   );
+}
+
+/** The wire picture of a frame's bytes at the port's settings, or why it cannot be drawn. */
+export function WirePanel({ bytes, settings, shorthand }: { bytes: Uint8Array; settings: PortSettings; shorthand: string }) {
+  const wire = useMemo(() => wireLayout(bytes, settings), [bytes, settings]);
+  return wire.ok ? <WirePicture layout={wire.value} shorthand={shorthand} /> : <p className="field-error" role="alert">{wire.error.message}.</p>;
 }

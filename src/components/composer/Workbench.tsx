@@ -16,7 +16,7 @@ const blank: CommandDraft = {
   fieldValues: {}, replyTemplate: null, portName: '', rawUnits: {}, presets: [],
 };
 
-const SaveToDevice = lazy(() => import('./SaveToDevice'));
+const SaveToDevice = /* @__PURE__ */ lazy(() => import('./SaveToDevice'));
 
 export default function Workbench({ signedIn, canSave, signInHref }: Props) {
   // The device picker is a lazy chunk: rendered on the server it would suspend, and React would then throw

@@ -10,7 +10,7 @@ import { useConflict } from '../../lib/client/use-conflict';
 import { commandShape, segmentIsLeaf, type CommandShape } from './command-conflict';
 import { draftOf, type CommandDraft } from './types';
 
-const CommandConflict = lazy(() => import('./CommandConflict'));
+const CommandConflict = /* @__PURE__ */ lazy(() => import('./CommandConflict'));
 
 type Listed = CommandDraft & { id: string; version: number };
 

@@ -90,9 +90,12 @@ export async function openBrowser(options: { viewport?: { width: number; height:
   };
 }
 
-/** Waits until every React island on the page has hydrated (Astro drops the `ssr` attribute then). */
+/**
+ * Waits until every React island on the page has hydrated (Astro drops the `ssr` attribute then), and every part
+ * an island loads after it is interactive has hydrated too (`data-later="ready"`, src/components/composer/Later.tsx).
+ */
 export async function hydrated(page: Page): Promise<void> {
-  await page.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
+  await page.waitForFunction(() => !document.querySelector('astro-island[ssr]') && !document.querySelector('[data-later="loading"]'));
 }
 
 /** Navigates and waits for the islands to hydrate, so clicks reach React handlers. */
