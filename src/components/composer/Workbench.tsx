@@ -12,7 +12,7 @@ import type { CommandDraft } from './types';
 interface Props { signedIn: boolean; canSave: boolean; signInHref: string }
 
 const blank: CommandDraft = {
-  name: 'One-off command', purpose: '', notes: '', movesMachinery: false, template: starterTemplate({ terminator: '0D' }),
+  name: 'One-off command', purpose: '', notes: '', movesMachinery: false, safeToRepeat: false, setsUpDevice: false, template: starterTemplate({ terminator: '0D' }),
   fieldValues: {}, replyTemplate: null, portName: '', rawUnits: {}, presets: [],
 };
 

@@ -11,7 +11,6 @@ import { commandKeys } from '../../lib/client/keys';
 import { lineShorthand, portShorthand } from '../../lib/frame/port-text';
 import type { Template } from '../../lib/frame/template';
 import { createFakeSerial, type FakeSerial } from '../../lib/live/fake-serial';
-import type { SearchResult } from '../../lib/live/framing-search';
 import { openPlan, serialUnavailable, type SerialLike, type SerialPortLike } from '../../lib/live/serial';
 import { LiveLink, type Exchange } from '../../lib/live/session';
 import { exchangeLogText } from '../../lib/live/exchange-log';
@@ -151,7 +150,8 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
           <p className="notice notice-ok" role="status" data-testid="live-connected">
             Connected through {THROUGH_TEXT[through]} at {lineShorthand(port.settings)}, flow control {link.options.flowControl}; response timeout {port.settings.responseTimeoutMs} ms.
           </p>
-          {fake && through === 'simulator' && <SimulatorControls fake={fake} commands={library} />}
+          {/* Keyed by the link: a setup command may have changed the simulator's framing while the link was closed. */}
+          {fake && through === 'simulator' && <SimulatorControls key={link.openedAt.getTime()} fake={fake} commands={library} />}
           <SendPanel commands={library} busy={busy} send={(b, l, t) => void send(b, l, t)} />
           {sent.length > 0 && (
             <div className="grid gap-2">
@@ -168,10 +168,9 @@ function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
               port={serialPort.current}
               settings={port.settings}
               pause={() => link.close()}
-              resume={async (results: SearchResult[]) => {
+              resume={async (note) => {
                 const l = await start(serialPort.current!);
-                const answered = results.filter((r) => r.outcome === 'answered').map((r) => r.shorthand);
-                if (results.length) l.note(`Framing search: ${results.length} framings tried; answered at ${answered.join(', ') || 'none'}.`);
+                if (note) l.note(note);
               }}
             />
           )}
