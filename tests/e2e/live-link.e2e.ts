@@ -147,4 +147,49 @@ describe('live link', () => {
     const options = await live.getByTestId('live-search').getByLabel('Query to repeat').locator('option').allTextContents();
     expect(options).toEqual(['Status query']);
   });
+
+  it('opens from the workbench, signed out, loaded only when asked: a port and the simulated device answer the command composed there', async () => {
+    const b = await openInPool();
+    await b.context.addInitScript('window.__liveLinkSim = {};');
+    await b.context.addInitScript({ content: FAKE_SERIAL });
+    const { page } = b;
+    const scripts: string[] = [];
+    page.on('request', (r) => { if (r.resourceType() === 'script') scripts.push(r.url()); });
+    await visit(page, '/workbench');
+    await page.locator('#req-add-kind').selectOption('text');
+    await page.locator('#req-add-text').fill('PING');
+    await page.getByRole('group', { name: 'Add a segment' }).getByRole('button', { name: 'Add segment' }).click();
+    await page.getByLabel('The device answers this command').check();
+    await page.locator('#reply-add-kind').selectOption('text');
+    await page.locator('#reply-add-text').fill('PONG');
+    await page.getByTestId('reply').getByRole('button', { name: 'Add segment' }).click();
+    const live = page.getByTestId('live-link');
+    // The live link's code is fetched only when it is opened: the composer's first load carries none of it.
+    expect(scripts.filter((u) => /LivePanel|LinkPanel/.test(u))).toEqual([]);
+    await live.getByRole('button', { name: 'Open the live link' }).click();
+    await live.getByRole('button', { name: 'Connect to a serial port' }).waitFor();
+    expect(scripts.filter((u) => /WorkbenchLivePanel/.test(u))).toHaveLength(1);
+
+    // Through the port (the fake adapter's far end is the demo drive, which does not know PING): the bytes and options sent.
+    await live.getByRole('button', { name: 'Connect to a serial port' }).click();
+    await live.getByTestId('live-connected').waitFor();
+    await live.getByRole('button', { name: 'Send', exact: true }).click();
+    await live.getByTestId('live-timeout').waitFor({ timeout: 5000 });
+    const seen = await evidence(b);
+    expect(seen.opened).toEqual([{ baudRate: 9600, dataBits: 8, stopBits: 1, parity: 'none', flowControl: 'none', bufferSize: 4096 }]);
+    expect(seen.written.map(text)).toEqual(['PING\r']);
+    await live.getByRole('button', { name: 'Disconnect' }).click();
+
+    // Without hardware: the simulated device answers the composed command with its reply template.
+    await live.getByRole('button', { name: 'Try it without hardware' }).click();
+    expect(await live.getByTestId('live-connected').textContent()).toContain('the simulated device (no hardware) at 9600 8-N-1');
+    await live.getByRole('button', { name: 'Send', exact: true }).click();
+    const x = live.getByTestId('live-exchange').first();
+    await expect.poll(() => x.getAttribute('data-ended')).toBe('terminator');
+    expect(await x.getByTestId('live-reply').locator('[data-notation="hex"]').textContent()).toBe('50 4F 4E 47 0D');
+    // No device here: the exchange log downloads, nothing goes to a field log.
+    expect(await live.getByRole('button', { name: 'Download the exchange log' }).count()).toBe(1);
+    expect(await live.getByRole('button', { name: /field log/ }).count()).toBe(0);
+    await shot(page, 'live-link-workbench');
+  });
 });
