@@ -54,7 +54,7 @@ describe('moving a command to the trash, or restoring one, over a newer version'
   const lit = (id: string, bytes: string): Segment => ({ type: 'literal', id, bytes });
   const tpl = (...segments: Segment[]): Template => ({ version: 1, segments });
   const listed: CommandDraft & { id: string; version: number } = {
-    id: 'cmd_1', version: 2, name: 'Jog +1°', purpose: 'jog forward', notes: '', movesMachinery: true,
+    id: 'cmd_1', version: 2, name: 'Jog +1°', purpose: 'jog forward', notes: '', movesMachinery: true, safeToRepeat: false, setsUpDevice: false,
     template: tpl(lit('s1', '31'), lit('s2', '00 7F 80 FF'), { type: 'terminator', id: 'end', bytes: '0D' } as Segment),
     fieldValues: {}, replyTemplate: null, portName: 'RS-232', rawUnits: {}, presets: [],
   };

@@ -12,7 +12,7 @@ const speed = { type: 'integer', id: 'f1', name: 'speed', label: 'Speed', pad: '
 const end = { type: 'terminator', id: 'end', bytes: '0D' } as Segment;
 
 const draft = (over: Partial<CommandDraft> = {}): CommandDraft => ({
-  name: 'Set speed', purpose: '', notes: '', movesMachinery: true,
+  name: 'Set speed', purpose: '', notes: '', movesMachinery: true, safeToRepeat: false, setsUpDevice: false,
   template: tpl(lit('s1', '53'), speed, end), fieldValues: { speed: '100' }, replyTemplate: null, portName: 'RS-485', rawUnits: {}, presets: [],
   ...over,
 });

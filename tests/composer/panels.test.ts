@@ -37,14 +37,21 @@ describe('notations', () => {
 });
 
 describe('timing', () => {
-  it('works out character, frame, reply, gaps and polls per second', () => {
-    const t = timingSummary({ ...port8N1, turnaroundDelayMs: 5 }, 11, 21);
+  it('works out character, frame, reply, gaps and polls per second on the bus planner\'s model', () => {
+    const t = timingSummary({ ...port8N1, protocol: 'ascii', turnaroundDelayMs: 5 }, 11, 21);
     const v = Object.fromEntries(t.rows.map((r) => [r.id, r.value]));
     expect(t.shorthand).toBe('9600 8-N-1');
-    expect(v).toMatchObject({ char: '1.042 ms', frame: '11.458 ms', reply: '21.875 ms', t15: '1.563 ms', t35: '3.646 ms' });
-    // 11.458 + 5 + 21.875 + 3.646 = 41.979 ms → 23.8 polls/s
-    expect(v.polls).toBe('23.8');
-    expect(timingSummary(port8N1, 11, null).rows.some((r) => r.id === 'reply')).toBe(false);
+    expect(v).toMatchObject({ char: '1.042 ms', frame: '11.458 ms', response: '0.000 ms', reply: '21.875 ms', t15: '1.563 ms', t35: '3.646 ms', turnaround: '5.000 ms' });
+    // Other protocols (issue 15, common practice): request + response time + reply + turnaround = 11.458 + 0 + 21.875 + 5 = 38.333 ms → 26.1 polls/s
+    expect([v.transaction, v.polls]).toEqual(['38.333 ms', '26.1']);
+    // Modbus RTU (Modbus over Serial Line V1.02 §2.5.1.1): 11.458 + 3.646 + 5 (response) + 21.875 + 3.646 = 45.625 ms → 21.9 polls/s;
+    // the turnaround delay is not counted after a reply.
+    const r = Object.fromEntries(timingSummary({ ...port8N1, protocol: 'modbus-rtu', turnaroundDelayMs: 100 }, 11, 21, 5).rows.map((x) => [x.id, x.value]));
+    expect([r.response, r.transaction, r.polls, r.turnaround]).toEqual(['5.000 ms', '45.625 ms', '21.9', undefined]);
+    // No reply on Modbus RTU: request + interval + turnaround = 11.458 + 3.646 + 100 = 115.104 ms, shown to 0.1 ms above 100 ms.
+    const b = timingSummary({ ...port8N1, protocol: 'modbus-rtu', turnaroundDelayMs: 100 }, 11, null);
+    expect(b.rows.some((x) => x.id === 'reply')).toBe(false);
+    expect(b.rows.find((x) => x.id === 'transaction')!.value).toBe('115.1 ms');
   });
 });
 

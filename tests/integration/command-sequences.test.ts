@@ -204,7 +204,7 @@ describe('export and import', () => {
     const before = expectOk(await t.get('/api/sites?pageSize=100')).items.length;
     const res = await t.post('/api/import', { document: doc, apply: true });
     expect(res.status).toBe(422);
-    expect((res.body as any).error).toMatch(new RegExp(`^document: command ${seq.name}: step 3 refers to command cmd_\\w+, which is not in the document`));
+    expect((res.body as any).error).toMatch(new RegExp(`^document: command ${seq.name}: step 3 refers to command cmd_[\\w-]+, which is not in the document`));
     expect(expectOk(await t.get('/api/sites?pageSize=100')).items.length).toBe(before);
   });
 });

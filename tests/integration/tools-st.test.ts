@@ -26,6 +26,21 @@ describe('POST /api/tools/st', () => {
     expect(runSt(r.body.code, { angle: 36001 }).outputs.ERROR).toBe(1);
   });
 
+  test('a sequence: its steps joined into one string, each step\'s fixed values constants, the others inputs', async () => {
+    const r = await post({ name: 'Jog there and back', steps: [{ template: jogTemplate(), values: { angle: 1 } }, { template: jogTemplate() }] });
+    expect(r.status, JSON.stringify(r.body)).toBe(200);
+    expect(r.body).toMatchObject({ ok: true, name: 'Jog_there_and_back', form: 'string' });
+    expect(r.body.inputs).toHaveLength(1);
+    expect(r.body.inputs[0]).toMatchObject({ step: 1, field: 'angle', kind: 'number', inputDecimals: 2 });
+    // Demo syntax by hand: +1° then −1°, 100 steps each, each step with its own CR.
+    const run = runSt(r.body.code, { [r.body.inputs[0].name]: -100 });
+    expect([run.outputs.ERROR, run.result]).toEqual([0, '1!JOG:+100\r1!JOG:-100\r']);
+    const both = await post({ template: jogTemplate(), steps: [{ template: jogTemplate() }] });
+    expect(both.status).toBe(422);
+    expect(both.body.fields.template).toMatch(/either a template/);
+    expect((await post({ steps: [] })).status).toBe(422);
+  });
+
   test('fixed values (a preset) become constants', async () => {
     const r = await post({ template: jogTemplate(), name: 'Jog', values: { angle: -1 } });
     expect(r.status).toBe(200);

@@ -3,7 +3,7 @@ import { commandRequest, simulatedCommands, type LibraryCommand } from '../../sr
 import { indexAckTemplate, indexMoveTemplate } from '../../src/lib/composer/demo';
 
 const index: LibraryCommand = {
-  id: 'idx', name: 'Index 45°', movesMachinery: true, template: indexMoveTemplate, replyTemplate: indexAckTemplate, portName: 'Service RS-232',
+  id: 'idx', name: 'Index 45°', movesMachinery: true, safeToRepeat: false, setsUpDevice: false, template: indexMoveTemplate, replyTemplate: indexAckTemplate, portName: 'Service RS-232',
   fieldValues: { address: 1, angle: 45, accel: 5, decel: 5, speed: 0.5 },
   presets: [{ name: 'Jog 1° one way', values: { angle: 1, speed: 0.05 } }],
 };

@@ -1,7 +1,10 @@
 import type { CommandDraft } from './types';
 
-/** Name, purpose, notes and the machinery flag. */
-export function CommandDetails({ draft, onChange, readOnly }: { draft: CommandDraft; onChange: (patch: Partial<CommandDraft>) => void; readOnly: boolean }) {
+/**
+ * Name, purpose, notes and the marks: moves machinery, and for a single command the live link's two (safe to
+ * repeat in a framing search, setup command after one). A command that moves machinery cannot be safe to repeat.
+ */
+export function CommandDetails({ draft, onChange, readOnly, sequence = false }: { draft: CommandDraft; onChange: (patch: Partial<CommandDraft>) => void; readOnly: boolean; sequence?: boolean }) {
   return (
     <div className="grid gap-3 sm:grid-cols-2">
       <div>
@@ -18,9 +21,33 @@ export function CommandDetails({ draft, onChange, readOnly }: { draft: CommandDr
         <textarea id="cmd-notes" className="input" rows={2} value={draft.notes} readOnly={readOnly} onChange={(e) => onChange({ notes: e.target.value })} />
       </div>
       <label className="flex items-center gap-2 text-sm sm:col-span-2">
-        <input type="checkbox" checked={draft.movesMachinery} disabled={readOnly} onChange={(e) => onChange({ movesMachinery: e.target.checked })} />
+        <input type="checkbox" checked={draft.movesMachinery} disabled={readOnly}
+          onChange={(e) => onChange(e.target.checked ? { movesMachinery: true, ...(draft.safeToRepeat ? { safeToRepeat: false } : {}) } : { movesMachinery: false })} />
         This command moves machinery
       </label>
+      {!sequence && (
+        <>
+          <div className="grid gap-0.5 text-sm sm:col-span-2">
+            <label className="flex items-center gap-2">
+              <input type="checkbox" checked={draft.safeToRepeat} disabled={readOnly || draft.movesMachinery} aria-describedby="cmd-safe-hint"
+                onChange={(e) => onChange({ safeToRepeat: e.target.checked })} />
+              Safe to repeat: it only reads
+            </label>
+            <p id="cmd-safe-hint" className="text-xs text-muted pl-6">
+              {draft.movesMachinery ? 'A command that moves machinery is never safe to repeat.' : 'The live link\'s framing search may send it dozens of times, at every candidate framing.'}
+            </p>
+          </div>
+          <div className="grid gap-0.5 text-sm sm:col-span-2">
+            <label className="flex items-center gap-2">
+              <input type="checkbox" checked={draft.setsUpDevice} disabled={readOnly} aria-describedby="cmd-setup-hint" onChange={(e) => onChange({ setsUpDevice: e.target.checked })} />
+              Setup command: it writes the device's settings
+            </label>
+            <p id="cmd-setup-hint" className="text-xs text-muted pl-6">
+              Offered after a framing search finds a replacement unit, to bring it to the stored settings; setup commands go in the library's order (by name).
+            </p>
+          </div>
+        </>
+      )}
     </div>
   );
 }

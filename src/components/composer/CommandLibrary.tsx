@@ -12,7 +12,7 @@ import { useCommandTrash } from './use-command-trash';
 import type { SavedSequence, StepInfo } from '../../lib/composer/saved-sequence';
 
 interface Item {
-  id: string; name: string; purpose: string; version: number; movesMachinery: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
+  id: string; name: string; purpose: string; version: number; movesMachinery: boolean; safeToRepeat: boolean; setsUpDevice: boolean; inherited: boolean; owner: { kind: string; id: string; label: string }; updatedAt: string;
   template: Template; fieldValues: FieldValues; presets: CommandPreset[]; portName: string;
   notes: string; replyTemplate: Template | null; rawUnits: Record<string, string>;
   /** Set for a sequence, with its steps as they stand (gaps named). */
@@ -96,6 +96,8 @@ function Row({ item, basePath, canEdit, targets, ports }: { item: Item; basePath
       <div className="flex flex-wrap items-baseline gap-x-3">
         <a href={`${basePath}/${item.id}`} className="font-semibold">{item.name}</a>
         {item.movesMachinery && <span className="text-xs rounded bg-[#fdf3e3] text-warn px-1.5">moves machinery</span>}
+        {item.safeToRepeat && <span className="text-xs rounded border border-line px-1.5" data-testid="safe-badge">safe to repeat</span>}
+        {item.setsUpDevice && <span className="text-xs rounded border border-line px-1.5" data-testid="setup-badge">setup</span>}
         {item.sequence && <span className="text-xs rounded border border-line px-1.5" data-testid="sequence-badge">sequence</span>}
         {item.inherited && <span className="text-xs text-muted">from profile {item.owner.label} · read-only here</span>}
       </div>

@@ -38,13 +38,20 @@ export interface ComposerCoreProps {
   readOnly: boolean;
   /** Replaces the port picker (the workbench edits its own settings). */
   portSlot?: (settings: PortSettings, set: (s: PortSettings) => void) => ReactNode;
-  /** Rendered under the details: save bar, copy action, history. */
-  footer?: (draft: CommandDraft, valid: boolean, replace: (d: CommandDraft) => void, errors: readonly { code: string; message: string }[]) => ReactNode;
+  /** Rendered under the details: save bar, copy action, history; `now` is what the preview shows (templates as last valid, the port settings in use). */
+  footer?: (draft: CommandDraft, valid: boolean, replace: (d: CommandDraft) => void, errors: readonly { code: string; message: string }[], now: ComposedNow) => ReactNode;
   /** Shown above everything (e.g. the inherited-command notice). */
   banner?: ReactNode;
   showDetails?: boolean;
   /** Characters the machine's PLC STRING holds (a device command on a machine that records it); null = not recorded. */
   plcStringCapacity?: number | null;
+}
+
+/** The command as the preview shows it: its last valid templates and the port settings in use. */
+export interface ComposedNow {
+  template: Template;
+  replyTemplate: Template | null;
+  settings: PortSettings;
 }
 
 function useValidTemplate(t: Template | null): { valid: Template | null; error: string | null } {
@@ -159,7 +166,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
           <p className="text-sm text-muted">No reply expected. Tick the box to describe the answer and decode replies.</p>
         )}
       </Section>
-      {footer?.(draft, valid, replace, preview.findings.filter((f) => f.severity === 'error'))}
+      {footer?.(draft, valid, replace, preview.findings.filter((f) => f.severity === 'error'), { template, replyTemplate: draft.replyTemplate ? reply.valid : null, settings })}
     </div>
   );
 }

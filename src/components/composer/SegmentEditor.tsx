@@ -59,7 +59,7 @@ export function SegmentEditor({ idPrefix, template, onChange, rules, protocol, r
                 <span className="text-sm font-medium">{s.type === 'literal' ? 'Literal' : title.split(' ')[0]}</span>
                 <code className="mono text-sm break-all flex-1 min-w-[6rem]">{summary(s)}</code>
                 <span className="flex flex-wrap gap-1">
-                  <button type="button" className={btn} aria-expanded={open === s.id} aria-label={`Edit segment ${n}`} onClick={() => setOpen(open === s.id ? null : s.id)}>{readOnly ? 'Details' : 'Edit'}</button>
+                  <button type="button" className={btn} aria-expanded={open === s.id} aria-label={`${readOnly ? 'Details' : 'Edit'} segment ${n}`} onClick={() => setOpen(open === s.id ? null : s.id)}>{readOnly ? 'Details' : 'Edit'}</button>
                   {!readOnly && (
                     <>
                       <button type="button" className={btn} aria-label={`Move segment ${n} up`} disabled={i === 0} onClick={() => onChange(nudgeSegment(template, i, -1))}>↑</button>

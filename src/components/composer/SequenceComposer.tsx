@@ -128,7 +128,7 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
       {inheritedFrom && <p className="notice notice-ok text-sm" data-testid="inherited">This sequence comes from the profile <b>{inheritedFrom.label}</b> and is shown read-only here.</p>}
       {moves && <Caution lead="This sequence moves machinery." testId="machinery-caution" />}
       <Section title="Sequence" id="details">
-        <CommandDetails draft={{ ...command, ...details }} onChange={(p) => setDetails((d) => ({ ...d, ...p }))} readOnly={readOnly} />
+        <CommandDetails draft={{ ...command, ...details }} onChange={(p) => setDetails((d) => ({ ...d, ...p }))} readOnly={readOnly} sequence />
       </Section>
       <div className="grid gap-4 lg:grid-cols-2 items-start">
         <div className="grid gap-4 min-w-0">

@@ -12,7 +12,7 @@ function describeSegment(s: Segment): string {
 }
 
 const NAMES: Record<string, string> = {
-  name: 'Command name', purpose: 'Purpose', notes: 'Notes', movesMachinery: 'Moves machinery', portName: 'Port',
+  name: 'Command name', purpose: 'Purpose', notes: 'Notes', movesMachinery: 'Moves machinery', safeToRepeat: 'Safe to repeat', setsUpDevice: 'Setup command', portName: 'Port',
   fieldValues: 'Values', rawUnits: 'Raw units', presets: 'Presets', template: 'Request template', replyTemplate: 'Reply template',
 };
 

@@ -8,6 +8,10 @@ export interface CommandDraft {
   purpose: string;
   notes: string;
   movesMachinery: boolean;
+  /** Only reads: the framing search may repeat it (set by an engineer). */
+  safeToRepeat: boolean;
+  /** Writes the device's settings: offered after a framing search. */
+  setsUpDevice: boolean;
   template: Template;
   fieldValues: FieldValues;
   replyTemplate: Template | null;
@@ -22,7 +26,7 @@ export interface NamedPort {
   settings: PortSettings;
 }
 
-export const DRAFT_KEYS = ['name', 'purpose', 'notes', 'movesMachinery', 'template', 'fieldValues', 'replyTemplate', 'portName', 'rawUnits', 'presets'] as const;
+export const DRAFT_KEYS = ['name', 'purpose', 'notes', 'movesMachinery', 'safeToRepeat', 'setsUpDevice', 'template', 'fieldValues', 'replyTemplate', 'portName', 'rawUnits', 'presets'] as const;
 
 export function draftOf(c: CommandDraft): CommandDraft {
   return Object.fromEntries(DRAFT_KEYS.map((k) => [k, c[k]])) as unknown as CommandDraft;

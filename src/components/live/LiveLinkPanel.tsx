@@ -1,192 +1,22 @@
-/**
- * The live link panel (loaded on demand by LiveLinkOpener): pick a port, connect through Web Serial or to the
- * simulated device, send commands, presets or typed bytes, watch replies decoded, set and read control lines,
- * search the framing, and keep the exchange log as evidence.
- */
-import { useEffect, useMemo, useReducer, useRef, useState } from 'react';
+/** The live link on a device page (loaded on demand by LiveLinkOpener): the device's ports and command library, evidence to its field log. */
 import { useQuery } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
 import { api } from '../../lib/client/api';
 import { commandKeys } from '../../lib/client/keys';
-import { lineShorthand, portShorthand } from '../../lib/frame/port-text';
-import type { Template } from '../../lib/frame/template';
-import { createFakeSerial, type FakeSerial } from '../../lib/live/fake-serial';
-import type { SearchResult } from '../../lib/live/framing-search';
-import { openPlan, serialUnavailable, type SerialLike, type SerialPortLike } from '../../lib/live/serial';
-import { LiveLink, type Exchange } from '../../lib/live/session';
-import { exchangeLogText } from '../../lib/live/exchange-log';
-import { ControlLines } from './ControlLines';
-import { ExchangeView } from './ExchangeView';
-import { FramingSearch } from './FramingSearch';
-import { simulatedCommands, type LibraryCommand } from './library';
-import { SaveEvidence } from './SaveEvidence';
-import { SendPanel } from './SendPanel';
-import { SimulatorControls } from './SimulatorControls';
-import { ExchangeLogView } from './ExchangeLogView';
+import { LinkPanel } from './LinkPanel';
+import type { LibraryCommand } from './library';
 import type { LiveLinkProps } from './types';
 
-type Through = 'port' | 'simulator';
-const THROUGH_TEXT: Record<Through, string> = { port: 'a serial port', simulator: 'the simulated device (no hardware)' };
-
-interface Sent { x: Exchange; atMs: number; replyTemplate: Template | null }
-
-/** `navigator.serial` where the browser has it (typed here: the DOM library of this project does not declare it). */
-function browserSerial(): { serial: SerialLike | undefined; secure: boolean } {
-  const nav = navigator as Navigator & { serial?: SerialLike };
-  return { serial: nav.serial, secure: window.isSecureContext };
-}
-
-function Panel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
-  const serialPorts = ports.filter((p) => p.settings.interface !== 'tcp');
-  const [portName, setPortName] = useState(serialPorts[0]?.name ?? ports[0]?.name ?? '');
-  const port = ports.find((p) => p.name === portName) ?? null;
-  const plan = useMemo(() => (port ? openPlan(port.settings) : null), [port]);
+function DevicePanel({ deviceId, deviceLabel, ports, canLog }: LiveLinkProps) {
   const commands = useQuery({ queryKey: commandKeys.list({ kind: 'device', id: deviceId }), queryFn: () => api<{ items: LibraryCommand[] }>(`/api/commands?deviceId=${deviceId}`) });
-  const library = commands.data?.items ?? [];
-  const [link, setLink] = useState<LiveLink | null>(null);
-  const [open, setOpen] = useState(false);
-  const [through, setThrough] = useState<Through>('port');
-  const [fake, setFake] = useState<FakeSerial | null>(null);
-  const serialPort = useRef<SerialPortLike | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  const [sent, setSent] = useState<Sent[]>([]);
-  const [busy, setBusy] = useState(false);
-  const [, redraw] = useReducer((n: number) => n + 1, 0);
-
-  useEffect(() => link?.subscribe(redraw), [link]);
-  useEffect(() => () => { void link?.close().catch(() => undefined); }, [link]);
-
-  const start = async (p: SerialPortLike): Promise<LiveLink> => {
-    const l = await LiveLink.open(p, port!.settings);
-    serialPort.current = p;
-    setLink(l);
-    setOpen(true);
-    setSent([]);
-    return l;
-  };
-
-  const connect = async (kind: Through) => {
-    setError(null);
-    if (!port) return;
-    try {
-      let serial: SerialLike;
-      if (kind === 'port') {
-        const b = browserSerial();
-        const why = serialUnavailable({ serial: b.serial, isSecureContext: b.secure });
-        if (why) throw new Error(why);
-        serial = b.serial!;
-      } else {
-        const s = port.settings;
-        const f = createFakeSerial({ line: { baud: s.baud, dataBits: s.dataBits, parity: s.parity, stopBits: s.stopBits }, commands: simulatedCommands(library), responseDelayMs: 5 });
-        setFake(f);
-        serial = f;
-      }
-      setThrough(kind);
-      await start(await serial.requestPort());
-    } catch (e) {
-      const name = (e as { name?: string })?.name;
-      setError(name === 'NotFoundError' ? 'No port was chosen.' : e instanceof Error ? e.message : String(e));
-    }
-  };
-
-  const disconnect = async () => {
-    if (!link) return;
-    await link.close().catch(() => undefined);
-    setOpen(false);
-  };
-
-  const send = async (bytes: Uint8Array, label: string, replyTemplate: Template | null) => {
-    if (!link || busy) return;
-    setBusy(true);
-    setError(null);
-    try {
-      const atMs = link.elapsed();
-      const x = await link.exchange(bytes, label, replyTemplate);
-      setSent((list) => [{ x, atMs, replyTemplate }, ...list]);
-    } catch (e) {
-      setError(e instanceof Error ? e.message : String(e));
-    } finally {
-      setBusy(false);
-    }
-  };
-
-  const exchangeLog = () => (link && port ? exchangeLogText({
-    device: deviceLabel, port: port.name, line: lineShorthand(port.settings), through: THROUGH_TEXT[through], openedAt: link.openedAt, options: link.options,
-  }, link.exchangeLog) : '');
-
-  if (!ports.length) return <p className="text-sm text-muted">This device has no ports yet; add one with its settings first.</p>;
-
   return (
-    <div className="grid gap-4" data-testid="live-panel">
-      <div className="grid gap-2 sm:grid-cols-[1fr_auto] items-end">
-        <div className="grid gap-1"><label className="label" htmlFor="live-port">Port</label>
-          <select id="live-port" className="input" value={portName} disabled={open} onChange={(e) => setPortName(e.target.value)}>
-            {ports.map((p) => <option key={p.name} value={p.name}>{p.name} · {portShorthand(p.settings)}</option>)}
-          </select>
-        </div>
-        {open && <button type="button" className="btn btn-quiet" onClick={() => void disconnect()}>Disconnect</button>}
-      </div>
-      {plan && !plan.ok && (
-        <div className="notice notice-bad" role="alert" data-testid="live-cannot-open">
-          <p className="font-semibold">A browser cannot open this port with its stored settings:</p>
-          <ul className="list-disc pl-5 text-sm">{plan.problems.map((p) => <li key={p}>{p}</li>)}</ul>
-        </div>
-      )}
-      {!open && plan?.ok && plan.warnings.map((w) => <p key={w} className="notice notice-warn text-sm" data-testid="live-warning">{w}</p>)}
-      {!open && plan?.ok && (
-        <div className="grid gap-2">
-          <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn" onClick={() => void connect('port')}>Connect to a serial port</button>
-            <button type="button" className="btn btn-quiet" disabled={!commands.isSuccess} onClick={() => void connect('simulator')}>Try it without hardware</button>
-          </div>
-          <p className="text-xs text-muted">
-            The browser asks which adapter to use, then opens it at {lineShorthand(port!.settings)}. Without hardware, a simulated device answers this device's commands
-            with their reply templates.
-          </p>
-        </div>
-      )}
-      {error && <p className="notice notice-bad" role="alert" data-testid="live-error">{error}</p>}
-      {open && link && port && (
-        <>
-          <p className="notice notice-ok" role="status" data-testid="live-connected">
-            Connected through {THROUGH_TEXT[through]} at {lineShorthand(port.settings)}, flow control {link.options.flowControl}; response timeout {port.settings.responseTimeoutMs} ms.
-          </p>
-          {fake && through === 'simulator' && <SimulatorControls fake={fake} commands={library} />}
-          <SendPanel commands={library} busy={busy} send={(b, l, t) => void send(b, l, t)} />
-          {sent.length > 0 && (
-            <div className="grid gap-2">
-              <h3>Replies</h3>
-              <ul className="grid gap-2" aria-live="polite">
-                {sent.map((s, i) => <ExchangeView key={sent.length - i} x={s.x} atMs={s.atMs} replyTemplate={s.replyTemplate} responseTimeoutMs={port.settings.responseTimeoutMs} />)}
-              </ul>
-            </div>
-          )}
-          <ControlLines link={link} rtsDirection={port.settings.interface === 'rs485-2w' && port.settings.rs485Direction === 'rts'} />
-          {serialPort.current && (
-            <FramingSearch
-              commands={library}
-              port={serialPort.current}
-              settings={port.settings}
-              pause={() => link.close()}
-              resume={async (results: SearchResult[]) => {
-                const l = await start(serialPort.current!);
-                const answered = results.filter((r) => r.outcome === 'answered').map((r) => r.shorthand);
-                if (results.length) l.note(`Framing search: ${results.length} framings tried; answered at ${answered.join(', ') || 'none'}.`);
-              }}
-            />
-          )}
-        </>
-      )}
-      {link && port && (
-        <>
-          <ExchangeLogView entries={link.exchangeLog} />
-          <SaveEvidence deviceId={deviceId} deviceLabel={deviceLabel} openedAt={link.openedAt} text={exchangeLog} canLog={canLog} through={THROUGH_TEXT[through]} />
-        </>
-      )}
-    </div>
+    <>
+      {commands.isError && <p className="notice notice-bad text-sm" role="alert">The device's commands could not be loaded: {commands.error.message}</p>}
+      <LinkPanel label={deviceLabel} ports={ports} commands={commands.data?.items ?? null} commandsNoun="this device's commands" fieldLog={{ deviceId, canLog }} />
+    </>
   );
 }
 
 export default function LiveLinkPanel(props: LiveLinkProps) {
-  return <QueryProvider><Panel {...props} /></QueryProvider>;
+  return <QueryProvider><DevicePanel {...props} /></QueryProvider>;
 }

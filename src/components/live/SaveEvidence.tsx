@@ -1,5 +1,5 @@
 /**
- * The session as evidence: download the exchangeLog, or save it to the device's field log as a "communication
+ * The session as evidence: download the exchange log (anywhere, the workbench too), or on a device save it to the device's field log as a "communication
  * verified" entry (technicians and above): the text file is uploaded as a configuration file of the device,
  * then the entry claims it.
  */
@@ -17,17 +17,9 @@ function uploadExchangeLog(deviceId: string, name: string, text: string): Promis
   return uploadFile<Uploaded>({ ownerType: 'device', ownerId: deviceId, kind: 'config', name }, new File([text], name, { type: 'text/plain' }), () => undefined);
 }
 
-export function SaveEvidence({ deviceId, deviceLabel, openedAt, text, canLog, through }: { deviceId: string; deviceLabel: string; openedAt: Date; text: () => string; canLog: boolean; through: string }) {
-  const qc = useQueryClient();
-  const [note, setNote] = useState('');
-  const name = exchangeLogFileName(deviceLabel.split(' ')[0] ?? deviceLabel, openedAt);
-  const m = useMutation({
-    mutationFn: async () => {
-      const file = await uploadExchangeLog(deviceId, name, text());
-      return api<{ id: string }>(`/api/devices/${deviceId}/field-log`, { body: { kind: 'verified', note: note || `Communication verified with the live link (${through}); exchange log attached.`, exchangeLogId: file.id } });
-    },
-    onSuccess: () => qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) }),
-  });
+const fileName = (label: string, openedAt: Date) => exchangeLogFileName(label.split(' ')[0] ?? label, openedAt);
+
+function DownloadButton({ name, text }: { name: string; text: () => string }) {
   const download = () => {
     const url = URL.createObjectURL(new Blob([text()], { type: 'text/plain' }));
     const a = document.createElement('a');
@@ -36,10 +28,35 @@ export function SaveEvidence({ deviceId, deviceLabel, openedAt, text, canLog, th
     a.click();
     setTimeout(() => URL.revokeObjectURL(url), 1000);
   };
+  return <div><button type="button" className="btn btn-quiet" onClick={download}>Download the exchange log</button></div>;
+}
+
+/** Where there is no device to keep it (the workbench): the download alone. */
+export function ExchangeLogDownload({ label, openedAt, text }: { label: string; openedAt: Date; text: () => string }) {
+  return (
+    <div className="grid gap-2" data-testid="live-evidence">
+      <h3>Keep the exchange log</h3>
+      <DownloadButton name={fileName(label, openedAt)} text={text} />
+      <p className="text-sm text-muted">To keep it in a field log, open the live link from the device's page.</p>
+    </div>
+  );
+}
+
+export function SaveEvidence({ deviceId, deviceLabel, openedAt, text, canLog, through }: { deviceId: string; deviceLabel: string; openedAt: Date; text: () => string; canLog: boolean; through: string }) {
+  const qc = useQueryClient();
+  const [note, setNote] = useState('');
+  const name = fileName(deviceLabel, openedAt);
+  const m = useMutation({
+    mutationFn: async () => {
+      const file = await uploadExchangeLog(deviceId, name, text());
+      return api<{ id: string }>(`/api/devices/${deviceId}/field-log`, { body: { kind: 'verified', note: note || `Communication verified with the live link (${through}); exchange log attached.`, exchangeLogId: file.id } });
+    },
+    onSuccess: () => qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) }),
+  });
   return (
     <div className="grid gap-2" data-testid="live-evidence">
       <h3>Keep the evidence</h3>
-      <div><button type="button" className="btn btn-quiet" onClick={download}>Download the exchange log</button></div>
+      <DownloadButton name={name} text={text} />
       {canLog ? (
         <form className="grid gap-2" onSubmit={(e) => { e.preventDefault(); m.mutate(); }} aria-label="Save to the field log">
           <label className="grid gap-1"><span className="label">Note for the field log</span>

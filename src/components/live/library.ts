@@ -3,11 +3,19 @@ import { assembleFrame } from '../../lib/frame/assemble';
 import type { FieldValues, Template } from '../../lib/frame/template';
 import { presetValues, type CommandPreset } from '../../lib/composer/presets';
 import type { SimulatedCommand } from '../../lib/live/simulator';
+import { setupValues } from '../../lib/live/setup';
+import type { LineSettings } from '../../lib/frame/port-settings';
 
 export interface LibraryCommand {
   id: string;
   name: string;
   movesMachinery: boolean;
+  /** Marked by an engineer: the framing search may repeat it. */
+  safeToRepeat: boolean;
+  /** A setup command, offered after a framing search. */
+  setsUpDevice: boolean;
+  /** Set for a sequence (its own template is empty). */
+  sequence?: unknown;
   template: Template;
   fieldValues: FieldValues;
   presets: CommandPreset[];
@@ -23,4 +31,10 @@ export function commandRequest(c: LibraryCommand, preset: string | null): { byte
 }
 
 export const simulatedCommands = (list: readonly LibraryCommand[]): SimulatedCommand[] =>
-  list.map((c) => ({ id: c.id, name: c.name, template: c.template, replyTemplate: c.replyTemplate }));
+  list.map((c) => ({ id: c.id, name: c.name, template: c.template, replyTemplate: c.replyTemplate, ...(c.setsUpDevice ? { setsUpDevice: true } : {}) }));
+
+/** A setup command as sent to a replacement: its saved values, with its line fields set from the stored framing. */
+export function setupRequest(c: LibraryCommand, line: LineSettings): { bytes: Uint8Array; ok: boolean } {
+  const frame = assembleFrame(c.template, setupValues(c.template, c.fieldValues, line));
+  return { bytes: frame.bytes, ok: frame.ok };
+}

@@ -39,6 +39,10 @@ export const command = sqliteTable(
     notes: text('notes').notNull().default(''),
     /** The command moves machinery: the composer shows the safety caution above it. */
     movesMachinery: integer('moves_machinery', { mode: 'boolean' }).notNull().default(false),
+    /** An engineer marked it safe to repeat (it only reads): the live link's framing search may send it dozens of times. */
+    safeToRepeat: integer('safe_to_repeat', { mode: 'boolean' }).notNull().default(false),
+    /** A setup command (writes the device's settings): offered after a framing search, in library order, to bring a replacement to the stored settings. */
+    setsUpDevice: integer('sets_up_device', { mode: 'boolean' }).notNull().default(false),
     /**
      * Set when the command is a sequence of steps (library commands of the same owner by id, or inline
      * templates; src/lib/composer/saved-sequence.ts); its own template is then empty. Null = a single command.

@@ -66,3 +66,34 @@ export const indexAckTemplate: Template = {
     cr,
   ],
 };
+
+/**
+ * The drive's setup command for its service line: `<address>!LIN:<baud>,<parity letter>,<data bits>,<stop bits>` CR,
+ * e.g. `1!LIN:9600,N,8,1` CR. The drive answers at the framing it heard, then takes on the new one.
+ */
+export const lineSetupTemplate: Template = {
+  version: 1,
+  segments: [
+    address, lit('verb', '!LIN:'),
+    { type: 'integer', id: 'baud', name: 'baud', label: 'Baud', unit: 'bit/s', sign: 'negative', pad: 'zero', min: 1200, max: 115200, default: 9600 },
+    lit('c1', ','),
+    { type: 'choice', id: 'parity', name: 'parity', label: 'Parity', options: [{ value: 'none', label: 'None', send: 'N' }, { value: 'even', label: 'Even', send: 'E' }, { value: 'odd', label: 'Odd', send: 'O' }] },
+    lit('c2', ','),
+    { type: 'integer', id: 'bits', name: 'dataBits', label: 'Data bits', sign: 'negative', pad: 'zero', min: 7, max: 8, default: 8 },
+    lit('c3', ','),
+    { type: 'integer', id: 'stop', name: 'stopBits', label: 'Stop bits', sign: 'negative', pad: 'zero', min: 1, max: 2, default: 1 },
+    cr,
+  ],
+};
+
+/** The drive's acknowledgement of new line settings: `<address>=LIN:OK*<XOR-8>` CR, `NO` when it refuses them. */
+export const lineAckTemplate: Template = {
+  version: 1,
+  segments: [
+    address, lit('verb', '=LIN:'),
+    { type: 'choice', id: 'result', name: 'result', label: 'Result', options: [{ value: 'accepted', label: 'Accepted', send: 'OK' }, { value: 'refused', label: 'Refused', send: 'NO' }] },
+    lit('star', '*'),
+    { type: 'checksum', id: 'bcc', algorithm: 'XOR-8', range: { from: 0, to: 2 }, over: 'bytes', encoding: 'ascii-hex', byteOrder: 'high-first', case: 'upper' },
+    cr,
+  ],
+};

@@ -40,7 +40,7 @@ class FakePort implements SerialPortLike {
   private out: Required<OutputSignals> = { dataTerminalReady: false, requestToSend: false, break: false };
   private timers = new Set<ReturnType<typeof setTimeout>>();
 
-  constructor(private readonly owner: { evidence: FakeSerialEvidence; sim: () => SimulatorSettings }) {}
+  constructor(private readonly owner: { evidence: FakeSerialEvidence; sim: () => SimulatorSettings; configure: (c: Partial<SimulatorSettings>) => void }) {}
 
   async open(options: LinkOpenOptions): Promise<void> {
     if (this.options) throw new DOMException('The port is already open.', 'InvalidStateError');
@@ -68,6 +68,8 @@ class FakePort implements SerialPortLike {
     const opener = lineOf(this.options);
     const a = answer(this.owner.sim(), bytes, opener);
     this.owner.evidence.answers.push({ command: a.command, silence: a.silence, framingErrors: a.framingErrors, parityErrors: a.parityErrors });
+    // The reply above went out at the old framing; the next request meets the new one.
+    if (a.lineAfter) this.owner.configure({ line: a.lineAfter });
     if (this.out.break || !a.received.length) return;
     const last = a.received[a.received.length - 1]!;
     const at = bytes.length * charTimeMs(opener) + a.delayMs + last.atUs / 1000;
@@ -121,10 +123,11 @@ class FakePort implements SerialPortLike {
 export function createFakeSerial(initial: SimulatorSettings): FakeSerial {
   let sim = { ...initial };
   const evidence: FakeSerialEvidence = { opened: [], written: [], signals: [], answers: [] };
-  const port = new FakePort({ evidence, sim: () => sim });
+  const configure = (change: Partial<SimulatorSettings>) => { sim = { ...sim, ...change }; };
+  const port = new FakePort({ evidence, sim: () => sim, configure });
   return {
     evidence,
-    configure(change) { sim = { ...sim, ...change }; },
+    configure,
     settings: () => sim,
     async requestPort() { return port; },
   };

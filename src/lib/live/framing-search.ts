@@ -1,7 +1,8 @@
 /**
- * Framing search: one query, safe to repeat, sent at candidate framings (common baud rates × parity × stop
- * bits, 8 data bits); a framing answered when the reply decodes against the reply template with every checksum
- * good and no framing or parity error. A command that moves machinery is never sent.
+ * Framing search: one query, marked safe to repeat by an engineer, sent at candidate framings (common baud
+ * rates × parity × stop bits, 8 data bits); a framing answered when the reply decodes against the reply template
+ * with every checksum good and no framing or parity error. A command that moves machinery is never sent, whatever
+ * its other marks.
  */
 import { decodeReply } from '../frame/decode-reply';
 import type { LineSettings, PortSettings } from '../frame/port-settings';
@@ -31,8 +32,20 @@ export function searchCandidates(own: LineSettings): LineSettings[] {
 export interface SearchCommand {
   name: string;
   movesMachinery: boolean;
+  /** The engineer's mark: it only reads, so it may be sent once per candidate. */
+  safeToRepeat: boolean;
   request: Uint8Array;
   replyTemplate: Template | null;
+}
+
+/** What the search's choice of query reads of a library command. */
+export interface QueryCandidate {
+  name: string;
+  movesMachinery: boolean;
+  safeToRepeat: boolean;
+  replyTemplate: Template | null;
+  /** Set for a sequence: never a query (the search sends one request at a time). */
+  sequence?: unknown;
 }
 
 export type SearchOutcome = 'answered' | 'garbled' | 'silent' | 'not-opened';
@@ -44,11 +57,18 @@ export interface SearchResult {
   detail: string;
 }
 
-/** Why this command may not be used for a search, or null. */
-export function searchRefusal(c: SearchCommand): string | null {
+/** Why this command may not be used for a search, or null. Moving machinery is checked first and overrides every mark. */
+export function searchRefusal(c: QueryCandidate): string | null {
   if (c.movesMachinery) return `"${c.name}" moves machinery; a search sends its command dozens of times and never uses such a command.`;
+  if (c.sequence) return `"${c.name}" is a sequence; a search repeats one single command.`;
+  if (!c.safeToRepeat) return `"${c.name}" is not marked safe to repeat; an engineer marks a command that only reads as safe to repeat in its composer.`;
   if (!c.replyTemplate) return `"${c.name}" has no reply template, so an answer could not be recognised.`;
   return null;
+}
+
+/** The library's commands a search may offer as its query, in library order: marked safe to repeat, with a reply template, moving nothing. */
+export function searchQueries<T extends QueryCandidate>(commands: readonly T[]): T[] {
+  return commands.filter((c) => searchRefusal(c) === null);
 }
 
 export interface SearchDeps {

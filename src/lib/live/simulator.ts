@@ -18,6 +18,12 @@ export interface SimulatedCommand {
   name: string;
   template: Template;
   replyTemplate: Template | null;
+  /**
+   * A setup command: after answering it (or staying silent, without a reply template), the simulator takes on the
+   * request's fields named `baud`, `dataBits`, `parity` and `stopBits` (those it has) as its own framing, as a
+   * device does once its line settings are written.
+   */
+  setsUpDevice?: boolean;
 }
 
 export const SIMULATOR_FAULTS = ['none', 'no-reply', 'bad-checksum', 'wrong-terminator'] as const;
@@ -62,6 +68,24 @@ export interface SimulatorAnswer {
   replyWireMs: number;
   framingErrors: number;
   parityErrors: number;
+  /** The simulator's framing from the next request on, when a setup command changed it; null otherwise. */
+  lineAfter: LineSettings | null;
+}
+
+const PARITY_VALUES: readonly string[] = ['none', 'even', 'odd', 'mark', 'space'];
+
+/** The framing a setup command's fields write over `line`, or null when it names none of them (or no valid value). */
+export function lineFromSetup(line: LineSettings, values: FieldValues): LineSettings | null {
+  const next = { ...line };
+  const num = (v: unknown) => (typeof v === 'number' ? v : typeof v === 'string' && v.trim() !== '' ? Number(v) : NaN);
+  const baud = num(values.baud);
+  if (Number.isInteger(baud) && baud > 0) next.baud = baud;
+  const dataBits = num(values.dataBits);
+  if ([5, 6, 7, 8].includes(dataBits)) next.dataBits = dataBits as LineSettings['dataBits'];
+  const stopBits = num(values.stopBits);
+  if ([1, 1.5, 2].includes(stopBits)) next.stopBits = stopBits as LineSettings['stopBits'];
+  if (typeof values.parity === 'string' && PARITY_VALUES.includes(values.parity)) next.parity = values.parity as LineSettings['parity'];
+  return sameFraming(next, line) ? null : next;
 }
 
 /** Which library command `request` is: the first whose template decodes it without an error, with the request's field values. */
@@ -119,10 +143,10 @@ export function replyFieldValues(reply: Template, fromRequest: FieldValues, set:
   return values;
 }
 
-function silent(command: SimulatedCommand | null, reason: string, delayMs: number): SimulatorAnswer {
+function silent(command: SimulatedCommand | null, reason: string, delayMs: number, lineAfter: LineSettings | null = null): SimulatorAnswer {
   return {
     command: command && { id: command.id, name: command.name }, silence: reason, sent: new Uint8Array(0), received: [],
-    delayMs, replyWireMs: 0, framingErrors: 0, parityErrors: 0,
+    delayMs, replyWireMs: 0, framingErrors: 0, parityErrors: 0, lineAfter,
   };
 }
 
@@ -137,17 +161,19 @@ export function answer(settings: SimulatorSettings, request: Uint8Array, opener:
   const match = recognise(settings.commands, heard);
   if (!match) return silent(null, 'The request matches no command of the library.', delayMs);
   const { command, values } = match;
-  if (!command.replyTemplate) return silent(command, `"${command.name}" has no reply template, so the simulator does not answer it.`, delayMs);
   const fault = settings.fault ?? 'none';
-  if (fault === 'no-reply') return silent(command, 'The simulator is set never to answer.', delayMs);
+  // A device that never answers may still have heard; one that did not recognise the request changes nothing.
+  const lineAfter = command.setsUpDevice ? lineFromSetup(settings.line, values) : null;
+  if (!command.replyTemplate) return silent(command, `"${command.name}" has no reply template, so the simulator does not answer it.`, delayMs, lineAfter);
+  if (fault === 'no-reply') return silent(command, 'The simulator is set never to answer.', delayMs, lineAfter);
   const frame = assembleFrame(command.replyTemplate, replyFieldValues(command.replyTemplate, values, settings.replyValues?.[command.id]));
   let sent = frame.bytes;
   if (fault === 'bad-checksum') sent = spoilChecksum(sent, command.replyTemplate, frame.segments);
   if (fault === 'wrong-terminator') sent = swapTerminator(sent, frame.segments);
   const read = receiveAs(sent, settings.line, opener);
-  if (!read.ok) return silent(command, read.error.message, delayMs);
+  if (!read.ok) return silent(command, read.error.message, delayMs, lineAfter);
   return {
     command: { id: command.id, name: command.name }, silence: null, sent, received: read.value.chars, delayMs,
-    replyWireMs: sent.length * charTimeMs(settings.line), framingErrors: read.value.framingErrors, parityErrors: read.value.parityErrors,
+    replyWireMs: sent.length * charTimeMs(settings.line), framingErrors: read.value.framingErrors, parityErrors: read.value.parityErrors, lineAfter,
   };
 }

@@ -110,6 +110,10 @@ const commandFields = {
   presets: presetsSchema.default([]),
   notes: text(5000).default(''),
   movesMachinery: z.boolean().default(false),
+  /** Set by an engineer: the command only reads, so the live link's framing search may send it dozens of times. */
+  safeToRepeat: z.boolean().default(false),
+  /** A setup command: it writes the device's settings and is offered after a framing search (docs/live-link.md). */
+  setsUpDevice: z.boolean().default(false),
   /** Set for a sequence of commands (its own template is then unused: send `{ "version": 1, "segments": [] }`). */
   sequence: savedSequenceSchema.nullable().default(null),
 };
@@ -123,6 +127,18 @@ export function valuesProblems(template: Template, values: Record<string, unknow
     const problem = f ? (v === null || v === '' ? null : fieldValueProblem(f, v)) : `The template has no field named "${key}".`;
     if (problem) out.push([key, problem]);
   }
+  return out;
+}
+
+/**
+ * The live link's marks that cannot go together, each at its key: a command that moves machinery is never safe
+ * to repeat, and a sequence takes neither mark (the live link repeats and sets up with single commands).
+ */
+export function marksProblems(c: { movesMachinery?: boolean; safeToRepeat?: boolean; setsUpDevice?: boolean; sequence?: unknown }): [key: string, message: string][] {
+  const out: [string, string][] = [];
+  if (c.safeToRepeat && c.movesMachinery) out.push(['safeToRepeat', 'A command that moves machinery is never safe to repeat; clear one of the two marks.']);
+  if (c.sequence && c.safeToRepeat) out.push(['safeToRepeat', 'Mark a single command safe to repeat, not a sequence.']);
+  if (c.sequence && c.setsUpDevice) out.push(['setsUpDevice', 'Mark the single commands that set the device up, not a sequence.']);
   return out;
 }
 
@@ -140,6 +156,7 @@ export const commandCreateSchema = z
   .superRefine((d, ctx) => {
     if (!d.deviceId === !d.profileId) ctx.addIssue({ code: 'custom', path: ['deviceId'], message: 'Give either deviceId or profileId (one of them).' });
     valuesFit(d, ctx);
+    for (const [key, message] of marksProblems(d)) ctx.addIssue({ code: 'custom', path: [key], message });
   });
 
 const partialFields = Object.fromEntries(

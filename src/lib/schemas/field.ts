@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { portSettingsObjectSchema, type PortSettings } from '../frame/port-settings';
 import { templateSchema } from '../frame/template';
-import { presetsSchema, savedSequenceSchema, valuesProblems } from './commands';
+import { presetsSchema, savedSequenceSchema, marksProblems, valuesProblems } from './commands';
 import { emailSchema } from './platform';
 import { bridgesSchema, DEVICE_ROLES, LINK_KINDS, MEMBER_ROLES, portSettingsInputSchema, versionSchema, wiringRowSchema } from './vault';
 import { busPlanSchema, memberDropM, memberTapPorts } from './bus-plan';
@@ -156,11 +156,14 @@ export const exportDocumentSchema = z.strictObject({
     template: templateSchema, fieldValues: z.record(z.string(), z.union([z.string(), z.number(), z.null()])),
     replyTemplate: templateSchema.nullable(), portName: text(60), rawUnits: z.record(z.string(), z.string().max(40)),
     notes: text(5000), movesMachinery: z.boolean(),
+    // Exports made before the live link's marks have neither.
+    safeToRepeat: z.boolean().default(false), setsUpDevice: z.boolean().default(false),
     // Exports made before presets existed have none.
     presets: presetsSchema.default([]),
     // A sequence: steps refer to commands of the document by their ids here. Absent for single commands.
     sequence: savedSequenceSchema.optional(),
   }).superRefine((c, ctx) => {
+    for (const [key, message] of marksProblems(c)) ctx.addIssue({ code: 'custom', path: [key], message });
     c.presets.forEach((p, i) => {
       for (const [key, message] of valuesProblems(c.template, p.values)) ctx.addIssue({ code: 'custom', path: ['presets', i, 'values', key], message: `Preset "${p.name}": ${message}` });
     });

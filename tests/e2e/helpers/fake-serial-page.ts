@@ -7,7 +7,7 @@
 import './zod-jitless';
 import { createFakeSerial } from '../../../src/lib/live/fake-serial';
 import type { SimulatorSettings } from '../../../src/lib/live/simulator';
-import { indexAckTemplate, indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../../src/lib/composer/demo';
+import { indexAckTemplate, indexMoveTemplate, jogTemplate, lineAckTemplate, lineSetupTemplate, statusQueryTemplate, statusReplyTemplate } from '../../../src/lib/composer/demo';
 
 const w = window as unknown as { __liveLinkSim?: Partial<SimulatorSettings>; __fakeSerial?: unknown };
 const fake = createFakeSerial({
@@ -17,6 +17,8 @@ const fake = createFakeSerial({
     { id: 'cmd_demo_drv501_jog_fwd', name: 'Jog +1°', template: jogTemplate('+'), replyTemplate: null },
     { id: 'cmd_demo_drv501_jog_rev', name: 'Jog −1°', template: jogTemplate('-'), replyTemplate: null },
     { id: 'cmd_demo_drv501_status', name: 'Status query', template: statusQueryTemplate, replyTemplate: statusReplyTemplate },
+    // Marked as a setup command in the demo: after answering, the simulated drive takes on the line settings it was sent.
+    { id: 'cmd_demo_drv501_line', name: 'Set service line', template: lineSetupTemplate, replyTemplate: lineAckTemplate, setsUpDevice: true },
   ],
   responseDelayMs: 5,
   replyValues: { cmd_demo_drv501_status: { position: 45, state: 'ready' } },

@@ -4,7 +4,7 @@ import { db, type DbOrTx } from '../../../db/client';
 import { command } from '../../../db/schema';
 import { recordCreated, trashRecord } from '../records/engine';
 import { commandEntity } from '../records/entities';
-import { valuesProblems, type CommandCopy, type CommandCreate, type CommandUpdate } from '../../schemas/commands';
+import { marksProblems, valuesProblems, type CommandCopy, type CommandCreate, type CommandUpdate } from '../../schemas/commands';
 import { Conflict, Invalid } from '../errors';
 import { assembleSaved, referencedIds, type StepInfo } from '../../composer/saved-sequence';
 import { checkSteps, inlineSteps, sequencesUsing, stepCommands, stepsOf } from './sequences';
@@ -98,6 +98,8 @@ export async function updateCommand(ctx: TeamContext, id: string, input: Command
     const current = await findCommand(tx, ctx, id);
     if (patch.presets !== undefined || patch.template !== undefined) presetsFit(current, patch);
     const next = { ...current, ...definedOnly(patch) } as CommandRow;
+    const marks = marksProblems(next);
+    if (marks.length) throw new Invalid(marks[0]![1], { fields: Object.fromEntries(marks) });
     if (patch.sequence !== undefined || (current.sequence && patch.template !== undefined)) await sequenceFits(tx, ctx, current, next);
     const owner = await findOwner(tx, ctx, current);
     const errors = await errorFindings(tx, ctx, next, owner);

@@ -35,12 +35,12 @@ export async function composerPage(ctx: TeamContext, kind: OwnerKind, id: string
     const rules = lib.ports[0]?.settings.frameRules ?? {};
     const template = starterTemplate(rules, lib.ports[0]?.settings.protocol);
     const sequence = opts.newSequence ? { mode: 'one-string' as const, delayMs: 0, steps: [] } : null;
-    const command = { name: sequence ? 'New sequence' : 'New command', purpose: '', notes: '', movesMachinery: false, template: sequence ? { version: 1 as const, segments: [] } : template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {}, presets: [], sequence };
+    const command = { name: sequence ? 'New sequence' : 'New command', purpose: '', notes: '', movesMachinery: false, safeToRepeat: false, setsUpDevice: false, template: sequence ? { version: 1 as const, segments: [] } : template, fieldValues: {}, replyTemplate: null, portName: lib.ports[0]?.name ?? '', rawUnits: {}, presets: [], sequence };
     return { ...lib, command, inheritedFrom: undefined };
   }
   const c = kind === 'device' ? await getCommandForDevice(ctx, id, commandId) : await getCommand(ctx, commandId);
   if (kind === 'profile' && c.profileId !== id) throw new NotFound('No command with that id in this profile.');
   const inheritedFrom = c.inherited && c.profileId ? { profileId: c.profileId, label: c.owner.label } : undefined;
-  const command = { id: c.id, version: c.version, name: c.name, purpose: c.purpose, notes: c.notes, movesMachinery: c.movesMachinery, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, presets: c.presets, sequence: c.sequence };
+  const command = { id: c.id, version: c.version, name: c.name, purpose: c.purpose, notes: c.notes, movesMachinery: c.movesMachinery, safeToRepeat: c.safeToRepeat, setsUpDevice: c.setsUpDevice, template: c.template, fieldValues: c.fieldValues, replyTemplate: c.replyTemplate, portName: c.portName, rawUnits: c.rawUnits, presets: c.presets, sequence: c.sequence };
   return { ...lib, command, inheritedFrom };
 }

@@ -135,6 +135,7 @@ export async function exportStream(ctx: TeamContext, opts: { siteId?: string } =
     yield* section('commands', mapped(rowsInOrder(command, C.map((c) => c.id)), (c) => ({
       id: c.id, deviceId: c.deviceId, profileId: c.profileId, name: c.name, purpose: c.purpose, template: c.template, fieldValues: c.fieldValues as Record<string, string | number | null>,
       replyTemplate: c.replyTemplate ?? null, portName: c.portName, rawUnits: c.rawUnits, notes: c.notes, movesMachinery: c.movesMachinery,
+      safeToRepeat: c.safeToRepeat, setsUpDevice: c.setsUpDevice,
       presets: c.presets.map((p) => ({ name: p.name, values: p.values as Record<string, string | number | null> })),
       // Steps refer to the exported commands by their ids in this document (the import maps them to the new ones).
       ...(c.sequence ? { sequence: c.sequence as NonNullable<ExportDocument['commands'][number]['sequence']> } : {}),

@@ -86,7 +86,7 @@ export const commandEntity = defineEntity({
   type: 'command',
   noun: 'command',
   table: command,
-  snapshotKeys: ['name', 'purpose', 'template', 'fieldValues', 'presets', 'replyTemplate', 'portName', 'rawUnits', 'notes', 'movesMachinery', 'sequence'],
+  snapshotKeys: ['name', 'purpose', 'template', 'fieldValues', 'presets', 'replyTemplate', 'portName', 'rawUnits', 'notes', 'movesMachinery', 'safeToRepeat', 'setsUpDevice', 'sequence'],
   references: [{ field: 'deviceId', type: 'device' }, { field: 'profileId', type: 'profile' }],
   describe: (r) => r.name,
 });

@@ -5,7 +5,7 @@
 import { db } from '../../../db/client';
 import { command, port } from '../../../db/schema';
 import { portSettingsSchema } from '../../frame/port-settings';
-import { indexAckTemplate, indexMoveTemplate, jogTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
+import { indexAckTemplate, indexMoveTemplate, jogTemplate, lineAckTemplate, lineSetupTemplate, statusQueryTemplate, statusReplyTemplate } from '../../composer/demo';
 import { created } from './vault-builders';
 import { DEMO_ACCOUNTS, DEMO_TEAM_ID } from './platform';
 import type { Role } from '../../permissions';
@@ -33,7 +33,10 @@ const commands = [
   { id: 'cmd_demo_drv501_jog_fwd', name: 'Jog +1°', purpose: 'Jog forward one degree for setting up', template: jogTemplate('+'), fieldValues: { address: 1, angle: 1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
   { id: 'cmd_demo_drv501_jog_rev', name: 'Jog −1°', purpose: 'Jog back one degree for setting up', template: jogTemplate('-'), fieldValues: { address: 1, angle: -1 }, movesMachinery: true, rawUnits: { angle: 'steps' }, notes: '' },
   { id: 'cmd_demo_drv501_status', name: 'Status query', purpose: 'Ask the position and state; the answer carries an XOR-8 check', template: statusQueryTemplate,
-    fieldValues: { address: 1 }, replyTemplate: statusReplyTemplate, movesMachinery: false, rawUnits: { position: 'steps' }, notes: 'Example reply: 1=STA:+0004500,R*14 then CR.' },
+    fieldValues: { address: 1 }, replyTemplate: statusReplyTemplate, movesMachinery: false, safeToRepeat: true, rawUnits: { position: 'steps' }, notes: 'Example reply: 1=STA:+0004500,R*14 then CR.' },
+  { id: 'cmd_demo_drv501_line', name: 'Set service line', purpose: 'Bring a replacement drive from its factory framing to the service port\'s stored settings', template: lineSetupTemplate,
+    fieldValues: { address: 1, baud: 9600, parity: 'none', dataBits: 8, stopBits: 1 }, replyTemplate: lineAckTemplate, movesMachinery: false, setsUpDevice: true, rawUnits: {},
+    notes: 'The drive acknowledges with 1=LIN:OK*79 then CR at the framing it heard, then changes its own.' },
 ];
 
 export async function seedCommands(ids: Record<Role, string>): Promise<void> {
