@@ -3,7 +3,9 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 import { parseBuildConfig } from './server/config.mjs';
+import { buildServiceWorker } from './scripts/service-worker-build.mjs';
 
 /**
  * The settings the build and the dev server need (server/config.mjs): ALLOWED_HOSTS, extra host names the server
@@ -17,7 +19,11 @@ export default defineConfig({
   // Middleware mode: the built entry only exports a handler; server/serve.mjs owns the socket, the client
   // address and static files, so nothing can start the app without them.
   adapter: node({ mode: 'middleware' }),
-  integrations: [react()],
+  integrations: [
+    react(),
+    // The service worker (/sw.js) is built from the finished client folder, so every build has it (decision 017).
+    { name: 'baudbook-service-worker', hooks: { 'astro:build:done': async ({ dir }) => { await buildServiceWorker(fileURLToPath(dir)); } } },
+  ],
   server: { host: config.host ?? '127.0.0.1', port: config.port },
   security: {
     // Our middleware enforces the Origin rule (JSON answers, Sec-Fetch-Site, the public tools API exempt);
