@@ -1,7 +1,7 @@
 /**
  * What a phone fetches to keep a machine's or a site's field cards for use without a network
  * (docs/decisions/017-offline-cards.md): the card pages (their QR links), the field-log and file lists the cards
- * read, and the list page of kept cards. Only the active team's live records: another team's ids and records in
+ * read, the list page of kept cards and the sign-out page. Only the active team's live records: another team's ids and records in
  * the trash come back as `missing`, with nothing to fetch.
  */
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
@@ -68,7 +68,8 @@ export async function keptCards(ctx: TeamContext, wanted: { machine: string[]; s
   if (devices.size > KEPT_MAX_DEVICES) {
     throw new Invalid(`Too many cards to keep: ${devices.size} (at most ${KEPT_MAX_DEVICES}). Keep single machines rather than whole sites.`);
   }
-  const urls = ['/field/kept'];
+  // The list page and the sign-out page (which warns about entries not yet sent) open offline too.
+  const urls = ['/field/kept', '/sign-out'];
   for (const m of machines.values()) urls.push(m.cardsUrl, `/api/attachments?ownerType=machine&ownerId=${m.id}`);
   for (const d of devices.values()) urls.push(d.cardUrl, `/api/devices/${d.id}/field-log`, `/api/attachments?ownerType=device&ownerId=${d.id}`);
   return { teamId: ctx.team.id, userId: ctx.user.id, at: now.toISOString(), scopes, missing, urls, canLog: can(ctx.role, 'fieldLog:create') };

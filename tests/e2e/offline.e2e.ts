@@ -1,0 +1,94 @@
+/**
+ * Offline field cards on a phone (docs/decisions/017-offline-cards.md): a technician keeps a machine's cards, the
+ * network goes (Playwright's setOffline does not stop the service worker's own fetches, so every request is also
+ * aborted by a route), the card opens from its QR link as the copy kept on the phone, an entry written there waits
+ * and is sent when the network returns, and after sign-out nothing is served from a cache.
+ */
+import { describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { browserPool, PHONE, shot, signIn, visit } from './helpers/browser';
+
+const MACHINE = 'mach_demo_kiln';
+const openInPool = browserPool();
+
+async function cutNetwork(context: BrowserContext) {
+  await context.setOffline(true);
+  await context.route('**/*', (route) => route.abort('internetdisconnected'));
+}
+async function restoreNetwork(context: BrowserContext) {
+  await context.unroute('**/*');
+  await context.setOffline(false);
+}
+/** The service worker is installed and controls the page (it claims open pages when it activates). */
+async function workerInCharge(page: Page) {
+  await page.waitForFunction(() => !!navigator.serviceWorker?.controller, undefined, { timeout: 30_000 });
+}
+
+describe('field cards kept on a phone', () => {
+  it('a kept card opens from its QR link without a network; an entry written there is sent when the network returns; sign-out leaves nothing', async () => {
+    const b = await openInPool({ viewport: PHONE });
+    // What the cut network provokes on purpose: requests that fail while it is cut.
+    b.allow('ERR_INTERNET_DISCONNECTED', 'net::ERR_FAILED');
+    await signIn(b.page, 'technician@fernhollow.test');
+    await visit(b.page, `/field/machines/${MACHINE}`);
+    await workerInCharge(b.page);
+    const manifest = await b.page.evaluate(() => document.querySelector('link[rel="manifest"]')?.getAttribute('href'));
+    expect(manifest).toBe('/manifest.webmanifest');
+    await b.page.getByRole('button', { name: 'Keep on this phone' }).click();
+    await b.page.getByText(/^Kept on this phone, brought up to date/).waitFor();
+    await shot(b.page, 'offline-kept-machine-phone');
+    const card = b.page.locator('[data-testid="field-card"]').first();
+    const deviceId = (await card.getAttribute('data-device-id'))!;
+    const qrUrl = (await card.getByTestId('qr').getAttribute('data-qr-url'))!;
+    const cardPath = new URL(qrUrl).pathname;
+    expect(cardPath).toBe(`/field/devices/${deviceId}`);
+
+    await cutNetwork(b.context);
+    await visit(b.page, cardPath);
+    await b.page.getByTestId('kept-copy').waitFor();
+    expect(await b.page.getByTestId('kept-copy').textContent()).toMatch(/No network: this is the copy kept on this phone, last brought up to date/);
+    await expect.poll(() => b.page.getByTestId('shorthand').first().textContent()).toMatch(/^\d+ \d-[NEOMS]-[12]/);
+    await b.page.getByTestId('offline-note').waitFor();
+    await b.page.getByLabel('Note').fill('Checked the bus with no network in the kiln tunnel.');
+    await b.page.getByRole('button', { name: 'Keep entry on this phone' }).click();
+    await b.page.getByTestId('entry-kept').waitFor();
+    const queued = b.page.getByTestId('queued-entry');
+    await expect.poll(() => queued.getAttribute('data-state')).toBe('waiting');
+    await shot(b.page, 'offline-card-phone');
+
+    // Signing out now would lose the entry: the sign-out page (kept too) says so.
+    await b.page.getByRole('button', { name: 'Sign out' }).click();
+    await b.page.waitForURL('**/sign-out');
+    await b.page.getByTestId('unsent-warning').waitFor();
+    await shot(b.page, 'offline-sign-out-warning-phone');
+    await b.page.getByRole('link', { name: 'Stay signed in' }).click();
+    await b.page.waitForURL('**/field/kept');
+    await b.page.getByTestId('kept-scope').first().waitFor();
+    await shot(b.page, 'offline-kept-list-phone');
+
+    const writtenAt = Date.now();
+    await restoreNetwork(b.context);
+    await expect.poll(() => b.page.getByTestId('queued-entry').first().getAttribute('data-state'), { timeout: 20_000 }).toBe('sent');
+    const log = await (await b.page.request.get(`/api/devices/${deviceId}/field-log`)).json();
+    const sent = log.items.find((e: { note: string }) => e.note === 'Checked the bus with no network in the kiln tunnel.');
+    expect(sent).toBeTruthy();
+    expect(sent.kind).toBe('verified');
+    expect(sent.clientKey).toMatch(/^ck_[0-9a-f]{32}$/);
+    // Done while offline, received after: the time done is kept beside the receipt time.
+    expect(new Date(sent.doneAt).getTime()).toBeLessThan(writtenAt);
+    expect(new Date(sent.createdAt).getTime()).toBeGreaterThanOrEqual(new Date(sent.doneAt).getTime());
+
+    // Nothing is waiting now: Sign out goes straight through and clears the phone.
+    await b.page.getByRole('button', { name: 'Sign out' }).click();
+    await b.page.waitForURL('**/sign-in');
+    const left = await b.page.evaluate(async () => ({
+      caches: await caches.keys(),
+      workers: (await navigator.serviceWorker.getRegistrations()).length,
+      databases: (await indexedDB.databases()).map((d) => d.name),
+    }));
+    expect(left).toEqual({ caches: [], workers: 0, databases: [] });
+    await cutNetwork(b.context);
+    await expect(b.page.goto(cardPath)).rejects.toThrow(/ERR_INTERNET_DISCONNECTED/);
+    await restoreNetwork(b.context);
+  });
+});
