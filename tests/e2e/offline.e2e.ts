@@ -29,6 +29,8 @@ describe('field cards kept on a phone', () => {
     const b = await openInPool({ viewport: PHONE });
     // What the cut network provokes on purpose: requests that fail while it is cut.
     b.allow('ERR_INTERNET_DISCONNECTED', 'net::ERR_FAILED');
+    // The entry written without a description is refused on purpose when it is sent.
+    b.allow('the server responded with a status of 422');
     await signIn(b.page, 'technician@fernhollow.test');
     await visit(b.page, `/field/machines/${MACHINE}`);
     await workerInCharge(b.page);
@@ -49,11 +51,16 @@ describe('field cards kept on a phone', () => {
     expect(await b.page.getByTestId('kept-copy').textContent()).toMatch(/No network: this is the copy kept on this phone, last brought up to date/);
     await expect.poll(() => b.page.getByTestId('shorthand').first().textContent()).toMatch(/^\d+ \d-[NEOMS]-[12]/);
     await b.page.getByTestId('offline-note').waitFor();
-    await b.page.getByLabel('Note').fill('Checked the bus with no network in the kiln tunnel.');
+    // First an entry the server will refuse (a finding without saying what was found), then a good one.
+    await b.page.getByLabel('Settings found different on site').check();
     await b.page.getByRole('button', { name: 'Keep entry on this phone' }).click();
     await b.page.getByTestId('entry-kept').waitFor();
+    await b.page.getByLabel('Communication verified').check();
+    await b.page.getByLabel('Note').fill('Checked the bus with no network in the kiln tunnel.');
+    await b.page.getByRole('button', { name: 'Keep entry on this phone' }).click();
     const queued = b.page.getByTestId('queued-entry');
-    await expect.poll(() => queued.getAttribute('data-state')).toBe('waiting');
+    await expect.poll(() => queued.count()).toBe(2);
+    expect(await queued.evaluateAll((els) => els.map((e) => e.getAttribute('data-state')))).toEqual(['waiting', 'waiting']);
     await shot(b.page, 'offline-card-phone');
 
     // Signing out now would lose the entry: the sign-out page (kept too) says so.
@@ -68,7 +75,11 @@ describe('field cards kept on a phone', () => {
 
     const writtenAt = Date.now();
     await restoreNetwork(b.context);
-    await expect.poll(() => b.page.getByTestId('queued-entry').first().getAttribute('data-state'), { timeout: 20_000 }).toBe('sent');
+    // Sent in the order written: the refused one stays on the phone with the server's reason; the next one is sent.
+    const states = () => b.page.getByTestId('queued-entry').evaluateAll((els) => els.map((e) => e.getAttribute('data-state')));
+    await expect.poll(states, { timeout: 20_000 }).toEqual(['refused', 'sent']);
+    expect(await b.page.getByTestId('queued-reason').textContent()).toContain('Describe what you found set on the device.');
+    await shot(b.page, 'offline-sent-and-refused-phone');
     const log = await (await b.page.request.get(`/api/devices/${deviceId}/field-log`)).json();
     const sent = log.items.find((e: { note: string }) => e.note === 'Checked the bus with no network in the kiln tunnel.');
     expect(sent).toBeTruthy();
@@ -78,7 +89,9 @@ describe('field cards kept on a phone', () => {
     expect(new Date(sent.doneAt).getTime()).toBeLessThan(writtenAt);
     expect(new Date(sent.createdAt).getTime()).toBeGreaterThanOrEqual(new Date(sent.doneAt).getTime());
 
-    // Nothing is waiting now: Sign out goes straight through and clears the phone.
+    expect(log.items.some((e: { kind: string }) => e.kind === 'found-different')).toBe(false);
+
+    // Nothing is waiting now (a refused entry is not waiting): Sign out goes straight through and clears the phone.
     await b.page.getByRole('button', { name: 'Sign out' }).click();
     await b.page.waitForURL('**/sign-in');
     const left = await b.page.evaluate(async () => ({

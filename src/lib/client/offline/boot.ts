@@ -16,7 +16,12 @@ export async function bootOffline(scope: Scope): Promise<void> {
   const before = await currentScope();
   if (before && (before.userId !== scope.userId || before.teamId !== scope.teamId)) await forgetKept(before.teamId);
   await setScope(scope);
-  window.addEventListener('online', () => void flushOutbox(scope));
+  window.addEventListener('online', () => {
+    void flushOutbox(scope);
+    // A page the worker answered from the kept copy says so at its top; once the network is back, say that instead.
+    const notice = document.querySelector('[data-testid="kept-copy"]');
+    if (notice) notice.textContent = 'The network is back: this page is still the copy kept on this phone. Open it again for the current version.';
+  });
   if (!navigator.onLine) return;
   await flushOutbox(scope);
   const refreshed = await getOne<{ at: string }>('meta', 'refreshed');

@@ -35,8 +35,9 @@ class Transient extends Error {}
 
 /** The server's refusal in words: its message and each field's. */
 function reasonOf(status: number, data: { error?: string; fields?: Record<string, string> } | null): string {
-  const fields = Object.entries(data?.fields ?? {}).map(([k, v]) => `${k}: ${v}`);
-  return [data?.error ?? `Refused (${status}).`, ...fields].join(' ');
+  const error = data?.error ?? `Refused (${status}).`;
+  const fields = Object.values(data?.fields ?? {}).filter((m) => !error.includes(m));
+  return [error, ...fields].join(' ');
 }
 
 /** 401 (signed out meanwhile), 408, 429 and 5xx are worth another try; other refusals are final. */
