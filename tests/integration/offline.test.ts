@@ -108,6 +108,29 @@ describe('cards kept on a phone', () => {
     expect(JSON.stringify(list.urls)).not.toContain(theirs.id);
   });
 
+  it('answers no-store like every signed-in answer: only the Cache API keeps a copy, on the phone\'s request (decisions 007 and 017)', async () => {
+    const m = await makeMachine(team.members.engineer);
+    const list = await team.members.technician.get(`/api/field/kept?machine=${m.id}`);
+    expect(list.headers.get('cache-control')).toBe('no-store');
+    const page = await team.members.technician.get(`/field/machines/${m.id}`);
+    expect(page.status).toBe(200);
+    expect(page.headers.get('cache-control')).toBe('no-store');
+  });
+
+  it('serves the kept-cards page and the sign-out page to members, and sends the signed-out to sign in', async () => {
+    const kept = await team.members.viewer.get('/field/kept');
+    expect(kept.status).toBe(200);
+    expect(kept.body).toContain('<h1 class="mb-2">Cards kept on this phone</h1>');
+    const out = await team.members.viewer.get('/sign-out');
+    expect(out.status).toBe(200);
+    expect(out.body).toContain('Sign out on this phone');
+    const anon = new TestClient();
+    expect((await anon.get('/field/kept')).status).toBe(302);
+    const signOut = await anon.get('/sign-out');
+    expect(signOut.status).toBe(302);
+    expect(signOut.headers.get('location')).toBe('/sign-in');
+  });
+
   it('answers 401 signed out, and 422 for an unknown parameter', async () => {
     expect((await new TestClient().get('/api/field/kept?machine=x')).status).toBe(401);
     const bad = await team.members.viewer.get('/api/field/kept?device=x');
