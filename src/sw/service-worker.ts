@@ -17,8 +17,11 @@ interface PrecacheEntry { url: string; revision: string | null }
 interface WorkerScope { __WB_MANIFEST: PrecacheEntry[]; skipWaiting(): Promise<void> }
 declare const self: WorkerScope;
 
-/** How long a page or API read waits for the network before the kept copy is used (a plant network can hang). */
-const NETWORK_TIMEOUT_SECONDS = 6;
+/**
+ * How long a page or API read waits for the network before a kept copy is used instead (a plant network can hang
+ * rather than fail). Without a kept copy the read goes on waiting for the network: a slow page is not "offline".
+ */
+const NETWORK_PATIENCE_MS = 6000;
 export const OFFLINE_PAGE = '/offline.html';
 
 precacheAndRoute(self.__WB_MANIFEST);
@@ -26,7 +29,7 @@ cleanupOutdatedCaches();
 void self.skipWaiting();
 clientsClaim();
 
-const network = new NetworkOnly({ networkTimeoutSeconds: NETWORK_TIMEOUT_SECONDS });
+const network = new NetworkOnly();
 
 /** The kept copy of `url` for the team signed in on this phone, or null. */
 async function keptCopy(url: URL): Promise<Response | null> {
@@ -37,11 +40,12 @@ async function keptCopy(url: URL): Promise<Response | null> {
 }
 
 /** A kept page, with a notice at the top of its main part saying it is the phone's copy and from when. */
-async function markedAsKept(res: Response): Promise<Response> {
+async function markedAsKept(res: Response, slow: boolean): Promise<Response> {
   const at = res.headers.get(KEPT_AT_HEADER);
   const html = await res.text();
   const when = at ? `<time datetime="${at}" data-when>${formatWhenFixed(at)}</time>` : 'at an unknown time';
-  const notice = `<p class="notice notice-warn mb-4" role="status" data-testid="kept-copy">No network: this is the copy kept on this phone, last brought up to date ${when}. Entries you log here wait on this phone and are sent when the network returns.</p>`;
+  const why = slow ? `The network did not answer within ${NETWORK_PATIENCE_MS / 1000} s` : 'No network';
+  const notice = `<p class="notice notice-warn mb-4" role="status" data-testid="kept-copy">${why}: this is the copy kept on this phone, last brought up to date ${when}. Entries you log here wait on this phone and are sent when the network returns.</p>`;
   const marked = html.replace(/(<main id="main"[^>]*>)/, `$1${notice}`);
   return new Response(marked, { status: res.status, headers: res.headers });
 }
@@ -56,12 +60,13 @@ registerRoute(
   ({ request, url }) => url.origin === location.origin && !neverKept(url) && (request.mode === 'navigate' || url.pathname.startsWith('/api/')),
   async (options) => {
     const { request, url } = options;
-    try {
-      return await network.handle(options);
-    } catch {
-      const kept = await keptCopy(url);
-      if (request.mode === 'navigate') return kept ? markedAsKept(kept) : ((await matchPrecache(OFFLINE_PAGE)) ?? Response.error());
-      return kept ?? offlineJson();
-    }
+    const answer = network.handle(options);
+    const outcome = answer.then(() => 'answered' as const, () => 'failed' as const);
+    const first = await Promise.race([outcome, new Promise<'slow'>((r) => setTimeout(() => r('slow'), NETWORK_PATIENCE_MS))]);
+    if (first === 'answered') return answer;
+    const kept = await keptCopy(url);
+    if (kept) return request.mode === 'navigate' ? markedAsKept(kept, first === 'slow') : kept;
+    if (first === 'slow' && (await outcome) === 'answered') return answer;
+    return request.mode === 'navigate' ? ((await matchPrecache(OFFLINE_PAGE)) ?? Response.error()) : offlineJson();
   },
 );
