@@ -104,4 +104,27 @@ describe('field cards kept on a phone', () => {
     await expect(b.page.goto(cardPath)).rejects.toThrow(/ERR_INTERNET_DISCONNECTED/);
     await restoreNetwork(b.context);
   });
+
+  it('switching team on the phone drops the cards kept for the other team: offline they are not there', async () => {
+    const b = await openInPool({ viewport: PHONE });
+    b.allow('ERR_INTERNET_DISCONNECTED', 'net::ERR_FAILED');
+    // The demo owner belongs to the integrator's team and to the customer's maintenance team.
+    await signIn(b.page, 'owner@fernhollow.test');
+    await visit(b.page, '/field/machines/mach_demo_press');
+    await workerInCharge(b.page);
+    await b.page.getByRole('button', { name: 'Keep on this phone' }).click();
+    await b.page.getByText(/^Kept on this phone, brought up to date/).waitFor();
+    const cardPath = `/field/devices/${await b.page.locator('[data-testid="field-card"]').first().getAttribute('data-device-id')}`;
+    expect(await b.page.evaluate(() => caches.keys())).toContain('baudbook-kept-team_demo_fernhollow');
+
+    await b.page.getByLabel('Active team').selectOption('team_demo_brackwater');
+    await b.page.waitForURL((url) => url.pathname === '/');
+    await expect.poll(() => b.page.evaluate(() => caches.keys())).not.toContain('baudbook-kept-team_demo_fernhollow');
+
+    await cutNetwork(b.context);
+    await visit(b.page, cardPath);
+    await b.page.getByRole('heading', { level: 1, name: 'No network, and this page is not kept on this phone' }).waitFor();
+    await shot(b.page, 'offline-not-kept-phone');
+    await restoreNetwork(b.context);
+  });
 });
