@@ -3,7 +3,9 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 import { parseBuildConfig } from './server/config.mjs';
+import { buildServiceWorker } from './scripts/service-worker-build.mjs';
 
 /**
  * The settings the build and the dev server need (server/config.mjs): ALLOWED_HOSTS, extra host names the server
@@ -20,7 +22,11 @@ export default defineConfig({
   // Islands render with renderToString: a streamed render outlines any Suspense boundary past the first
   // 12.8 kB of HTML into a hidden template completed by an inline script, which the hash-only CSP refuses; the
   // composer's parts that load after the page is interactive each sit in one (src/components/composer/Later.tsx).
-  integrations: [react({ experimentalDisableStreaming: true })],
+  integrations: [
+    react({ experimentalDisableStreaming: true }),
+    // The service worker (/sw.js) is built from the finished client folder, so every build has it (decision 017).
+    { name: 'baudbook-service-worker', hooks: { 'astro:build:done': async ({ dir }) => { await buildServiceWorker(fileURLToPath(dir)); } } },
+  ],
   server: { host: config.host ?? '127.0.0.1', port: config.port },
   security: {
     // Our middleware enforces the Origin rule (JSON answers, Sec-Fetch-Site, the public tools API exempt);

@@ -61,6 +61,9 @@ function serveStatic(req, res, fallThrough) {
     res.end();
   });
   stream.on('headers', (r) => {
+    // The service worker script is asked for on every navigation check: never from an HTTP cache, so a new build's
+    // worker is found at once (docs/decisions/017-offline-cards.md).
+    if (path === '/sw.js') r.setHeader('Cache-Control', 'no-cache');
     r.setHeader('X-Content-Type-Options', 'nosniff');
     r.setHeader('Referrer-Policy', 'strict-origin-when-cross-origin');
     r.setHeader('Cross-Origin-Resource-Policy', 'same-origin');

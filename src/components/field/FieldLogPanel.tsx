@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { When } from '../ui/When';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryProvider } from '../QueryProvider';
@@ -10,21 +10,45 @@ import { Thumb } from './Thumb';
 import { FoundPortFields, foundPortBody, NO_PORT, type FoundPort } from './FoundPortFields';
 import { ProposalOutcome } from './ProposalOutcome';
 import type { Proposal } from './proposal-parts';
+import { flushOutbox, OUTBOX_EVENT, queueEntry } from '../../lib/client/offline/outbox';
+import { offlineKeys } from '../../lib/client/keys';
+import type { Scope } from '../../lib/client/offline/store';
+import { OutboxList } from '../offline/OutboxList';
 
 type Kind = (typeof FIELD_LOG_KINDS)[number];
 interface Annotation { id: string; note: string; userName: string; createdAt: string }
 interface Entry {
   id: string; kind: Kind; note: string; newSerialNumber: string; appliedVersion: number | null; foundSettings: string;
-  deviceVersion: number; userName: string; createdAt: string; annotations: Annotation[];
+  deviceVersion: number; userName: string; createdAt: string; doneAt: string | null; annotations: Annotation[];
   photos: { id: string; url: string; fileName: string }[];
   files?: { id: string; url: string; fileName: string }[];
   proposal: Proposal | null;
 }
-interface Props { deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number; ports?: { id: string; name: string }[] }
+interface Props {
+  deviceId: string; cardRevision: number; canCreate: boolean; canAnnotate: boolean; limit?: number; ports?: { id: string; name: string }[];
+  /** Who is signed in and in which team: entries written without a network wait on this phone for them. */
+  scope?: Scope; deviceTag?: string;
+}
+
+/** Whether the browser says it is offline; false on the server and at hydration, then the browser's. */
+function useOffline(): boolean {
+  const [offline, setOffline] = useState(false);
+  useEffect(() => {
+    const update = () => setOffline(!navigator.onLine);
+    update();
+    window.addEventListener('online', update);
+    window.addEventListener('offline', update);
+    return () => { window.removeEventListener('online', update); window.removeEventListener('offline', update); };
+  }, []);
+  return offline;
+}
 
 
-function NewEntry({ deviceId, cardRevision, ports }: { deviceId: string; cardRevision: number; ports: { id: string; name: string }[] }) {
+function NewEntry({ deviceId, cardRevision, ports, scope, deviceTag }: { deviceId: string; cardRevision: number; ports: { id: string; name: string }[]; scope?: Scope; deviceTag?: string }) {
   const qc = useQueryClient();
+  const offline = useOffline();
+  const [localPhotos, setLocalPhotos] = useState<File[]>([]);
+  const [queued, setQueued] = useState(false);
   const [kind, setKind] = useState<Kind>('verified');
   const [serial, setSerial] = useState('');
   const [applied, setApplied] = useState(String(cardRevision));
@@ -34,24 +58,45 @@ function NewEntry({ deviceId, cardRevision, ports }: { deviceId: string; cardRev
   const [foundPort, setFoundPort] = useState<FoundPort>(NO_PORT);
   const [note, setNote] = useState('');
   const [photos, setPhotos] = useState<Uploaded[]>([]);
+  const body = () => ({
+    kind, note,
+    ...(kind === 'replacement' ? { newSerialNumber: serial, appliedVersion: Number(applied), firmware } : {}),
+    ...(kind === 'found-different' ? { foundSettings: found, serialNumber: foundSerial, firmware, port: foundPortBody(foundPort) } : {}),
+  });
+  const reset = () => { setSerial(''); setFound(''); setNote(''); setPhotos([]); setLocalPhotos([]); setFirmware(''); setFoundSerial(''); setFoundPort(NO_PORT); };
   const m = useMutation({
-    mutationFn: () => api<Entry>(`/api/devices/${deviceId}/field-log`, {
-      body: {
-        kind, note, photoIds: photos.map((p) => p.id),
-        ...(kind === 'replacement' ? { newSerialNumber: serial, appliedVersion: Number(applied), firmware } : {}),
-        ...(kind === 'found-different' ? { foundSettings: found, serialNumber: foundSerial, firmware, port: foundPortBody(foundPort) } : {}),
-      },
-    }),
+    mutationFn: () => api<Entry>(`/api/devices/${deviceId}/field-log`, { body: { ...body(), photoIds: photos.map((p) => p.id) } }),
     onSuccess: () => {
-      setSerial(''); setFound(''); setNote(''); setPhotos([]); setFirmware(''); setFoundSerial(''); setFoundPort(NO_PORT);
+      reset();
       qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) });
       qc.invalidateQueries({ queryKey: fieldKeys.proposals(deviceId) });
     },
   });
+  // Without a network (or with photos taken without one) the entry waits on this phone, with the time it was written.
+  const keepOnPhone = useMutation({
+    mutationFn: async () => {
+      if (!scope) throw new Error('Sign in again to keep entries on this phone.');
+      await queueEntry({
+        userId: scope.userId, teamId: scope.teamId, deviceId, deviceTag: deviceTag ?? deviceId, body: body(), doneAt: new Date().toISOString(),
+        photos: [
+          ...photos.map((p) => ({ name: p.fileName, type: '', blob: new Blob(), uploadedId: p.id })),
+          ...localPhotos.map((f) => ({ name: f.name, type: f.type, blob: f })),
+        ],
+      });
+      if (navigator.onLine) void flushOutbox(scope);
+    },
+    onSuccess: () => { reset(); setQueued(true); qc.invalidateQueries({ queryKey: offlineKeys.all() }); },
+  });
+  const submit = () => {
+    setQueued(false);
+    if (scope && (!navigator.onLine || localPhotos.length > 0)) keepOnPhone.mutate();
+    else m.mutate();
+  };
   const fields = m.error instanceof ApiError ? m.error.fields : {};
   return (
-    <form className="card grid gap-3" onSubmit={(e) => { e.preventDefault(); m.mutate(); }} aria-label="New field-log entry">
+    <form className="card grid gap-3" onSubmit={(e) => { e.preventDefault(); submit(); }} aria-label="New field-log entry">
       <h2>Log what you did</h2>
+      {offline && scope && <p className="notice notice-warn" role="status" data-testid="offline-note">No network: the entry waits on this phone, with the time you save it, and is sent when the network returns.</p>}
       <fieldset className="grid gap-2 sm:grid-cols-3">
         <legend className="label">What happened</legend>
         {FIELD_LOG_KINDS.map((k) => (
@@ -93,10 +138,13 @@ function NewEntry({ deviceId, cardRevision, ports }: { deviceId: string; cardRev
       {(kind === 'replacement' || kind === 'found-different') && <p className="text-sm text-muted">An engineer reviews what you enter here before the record changes; you see the outcome on this entry.</p>}
       <label className="grid gap-1"><span className="label">Note</span>
         <textarea className="input" rows={2} value={note} onChange={(e) => setNote(e.target.value)} /></label>
-      <PhotoPicker deviceId={deviceId} photos={photos} onChange={setPhotos} />
+      <PhotoPicker deviceId={deviceId} photos={photos} onChange={setPhotos}
+        kept={scope ? { files: localPhotos, onChange: setLocalPhotos } : undefined} />
       {m.isError && <p className="notice notice-bad" role="alert">{m.error.message}</p>}
-      {m.isSuccess && <p className="notice notice-ok" role="status">Entry saved to the field log.</p>}
-      <button className="btn justify-center text-lg min-h-12" disabled={m.isPending}>{m.isPending ? 'Saving…' : 'Save entry'}</button>
+      {keepOnPhone.isError && <p className="notice notice-bad" role="alert">{keepOnPhone.error.message}</p>}
+      {m.isSuccess && !queued && <p className="notice notice-ok" role="status">Entry saved to the field log.</p>}
+      {queued && <p className="notice notice-ok" role="status" data-testid="entry-kept">Entry kept on this phone: it is sent when the network returns (see below).</p>}
+      <button className="btn justify-center text-lg min-h-12" disabled={m.isPending || keepOnPhone.isPending}>{m.isPending ? 'Saving…' : offline && scope ? 'Keep entry on this phone' : 'Save entry'}</button>
       <p className="text-sm text-muted">Entries cannot be edited afterwards; add an annotation to correct or complete one.</p>
     </form>
   );
@@ -123,7 +171,11 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
   return (
     <li className="card grid gap-1" data-testid="log-entry" data-kind={e.kind}>
       <p className="font-semibold text-lg">{FIELD_LOG_LABELS[e.kind]}</p>
-      <p className="text-sm text-muted"><When iso={e.createdAt} /> · {e.userName} · card revision {e.deviceVersion}</p>
+      <p className="text-sm text-muted">
+        {e.doneAt && Math.abs(new Date(e.doneAt).getTime() - new Date(e.createdAt).getTime()) > 60_000
+          ? <>Done <When iso={e.doneAt} />, received <When iso={e.createdAt} /></>
+          : <When iso={e.createdAt} />} · {e.userName} · card revision {e.deviceVersion}
+      </p>
       {e.kind === 'replacement' && <p>New unit S/N <strong className="mono">{e.newSerialNumber}</strong>, settings from card revision <strong>{e.appliedVersion}</strong></p>}
       {e.kind === 'found-different' && <p>Found on site: <strong className="whitespace-pre-wrap">{e.foundSettings}</strong></p>}
       {e.note && <p className="whitespace-pre-wrap">{e.note}</p>}
@@ -140,13 +192,21 @@ function EntryItem({ e, deviceId, canAnnotate }: { e: Entry; deviceId: string; c
   );
 }
 
-function Panel({ deviceId, cardRevision, canCreate, canAnnotate, limit, ports = [] }: Props) {
+function Panel({ deviceId, cardRevision, canCreate, canAnnotate, limit, ports = [], scope, deviceTag }: Props) {
+  const qc = useQueryClient();
   const q = useQuery({ queryKey: fieldKeys.log(deviceId), queryFn: () => api<{ items: Entry[] }>(`/api/devices/${deviceId}/field-log`) });
+  // An entry sent from this phone's outbox shows in the log at once.
+  useEffect(() => {
+    const sent = () => qc.invalidateQueries({ queryKey: fieldKeys.log(deviceId) });
+    window.addEventListener(OUTBOX_EVENT, sent);
+    return () => window.removeEventListener(OUTBOX_EVENT, sent);
+  }, [qc, deviceId]);
   const items = q.data?.items ?? [];
   const shown = limit ? items.slice(0, limit) : items;
   return (
     <div className="grid gap-4">
-      {canCreate && <NewEntry deviceId={deviceId} cardRevision={cardRevision} ports={ports} />}
+      {canCreate && <NewEntry deviceId={deviceId} cardRevision={cardRevision} ports={ports} scope={scope} deviceTag={deviceTag} />}
+      {scope && <OutboxList scope={scope} deviceId={deviceId} />}
       <section className="grid gap-2" aria-label="Field log">
         <h2>Field log</h2>
         {q.isPending && <p>Loading the field log…</p>}

@@ -2,7 +2,7 @@
  * Field work and sharing: the append-only field log (entries and their annotations), files attached
  * to devices and machines, read-only share links, and the import map that keeps imports idempotent.
  */
-import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, integer, index, primaryKey, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { team } from './teams';
 import { user } from './auth';
 import { device, port } from './vault';
@@ -46,9 +46,17 @@ export const fieldLogEntry = sqliteTable(
     deviceVersion: integer('device_version').notNull(),
     userId: text('user_id').references(() => user.id, { onDelete: 'set null' }),
     userName: text('user_name').notNull().default(''),
+    /** When the server received the entry. */
     createdAt: createdAt(),
+    /**
+     * When the work was done, as the technician's phone recorded it: differs from `createdAt` for an entry written
+     * offline and sent later (docs/decisions/017-offline-cards.md). Null on entries written before it existed.
+     */
+    doneAt: integer('done_at', { mode: 'timestamp_ms' }),
+    /** The phone's own key for the entry, so a resend after a lost answer writes nothing twice. */
+    clientKey: text('client_key'),
   },
-  (t) => [index('field_log_device_idx').on(t.teamId, t.deviceId, t.createdAt)],
+  (t) => [index('field_log_device_idx').on(t.teamId, t.deviceId, t.createdAt), uniqueIndex('field_log_client_key_idx').on(t.teamId, t.clientKey)],
 );
 
 /** Later remarks on an entry; also append-only. */

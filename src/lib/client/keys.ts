@@ -47,3 +47,10 @@ export const fieldKeys = {
   attachments: (ownerType: string, ownerId: string) => ['field', 'attachments', ownerType, ownerId] as const,
   shares: () => ['field', 'shares'] as const,
 };
+
+/** What this phone keeps for offline use (IndexedDB, not the API): kept cards and entries waiting to be sent. */
+export const offlineKeys = {
+  all: () => ['offline'] as const,
+  kept: () => ['offline', 'kept'] as const,
+  outbox: (deviceId?: string) => ['offline', 'outbox', deviceId ?? 'all'] as const,
+};

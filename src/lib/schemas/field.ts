@@ -35,6 +35,16 @@ const foundShape: z.ZodRawShape = Object.fromEntries(Object.entries(portSettings
 export const foundPortSettingsSchema = (z.strictObject(foundShape) as unknown as z.ZodType<FoundPortSettings>)
   .refine((s) => Object.values(s).some((v) => v !== undefined), 'Give at least one setting you found, or leave the port out.');
 
+/**
+ * What a phone adds to an entry written offline and sent later (docs/decisions/017-offline-cards.md): when the work
+ * was done (checked against the server's clock by `doneAtProblem`, src/lib/field/done-at.ts) and the phone's own
+ * key for the entry, so a resend after a lost answer writes nothing twice.
+ */
+const offlineFields = {
+  doneAt: z.iso.datetime({ offset: true, error: 'Give the time the work was done as an ISO time, such as 2026-05-01T08:00:00Z.' }).optional(),
+  clientKey: z.string().regex(/^[A-Za-z0-9_-]{8,64}$/, 'A client key is 8 to 64 letters, digits, - or _.').optional(),
+};
+
 export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
   z.strictObject({
     kind: z.literal('replacement'),
@@ -44,9 +54,10 @@ export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
     firmware: text(60).default(''),
     note: text(4000).default(''),
     photoIds,
+    ...offlineFields,
   }),
   z.strictObject({
-    kind: z.literal('verified'), note: text(4000).default(''), photoIds,
+    kind: z.literal('verified'), note: text(4000).default(''), photoIds, ...offlineFields,
     /** A configuration-file attachment of the device (the live link's exchangeLog), claimed by the entry like its photos. */
     exchangeLogId: id.optional(),
   }),
@@ -60,6 +71,7 @@ export const fieldLogCreateSchema = z.discriminatedUnion('kind', [
     port: z.strictObject({ portId: id, settings: foundPortSettingsSchema }).optional(),
     note: text(4000).default(''),
     photoIds,
+    ...offlineFields,
   }),
 ], { error: 'Choose what happened: replacement, verified or found-different.' });
 export type FieldLogCreate = z.infer<typeof fieldLogCreateSchema>;
@@ -185,3 +197,14 @@ export const csvImportSchema = z.strictObject({
   skipInvalid: z.boolean().default(false),
 });
 export type CsvImportRequest = z.infer<typeof csvImportSchema>;
+
+// ---- cards kept on a phone ----
+export const KEPT_SCOPES = ['machine', 'site'] as const;
+/** At most this many machines and sites kept on one phone, and this many device cards among them. */
+export const KEPT_MAX_SCOPES = 50;
+export const KEPT_MAX_DEVICES = 300;
+/** `GET /api/field/kept?machine=ID&site=ID…`: what the phone keeps (each parameter may repeat). */
+export const keptQuerySchema = z.strictObject({
+  machine: z.array(id).default([]),
+  site: z.array(id).default([]),
+}).refine((q) => q.machine.length + q.site.length <= KEPT_MAX_SCOPES, `Keep at most ${KEPT_MAX_SCOPES} machines and sites on one phone.`);

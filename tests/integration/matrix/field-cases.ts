@@ -70,6 +70,11 @@ export const fieldCases: RouteCase[] = [
     prepare: async (t) => ({ path: '/api/field/card-email', body: { deviceId: (await device(t)).id, to: 'colleague@example.test' } }),
     otherTeam: async (_t, o) => ({ path: '/api/field/card-email', body: { deviceId: (await device(o)).id, to: 'x@example.test' } }),
   },
+  {
+    // Every role may keep cards on a phone; another team's machine comes back under `missing` (checked in offline.test.ts).
+    method: 'GET', route: '/api/field/kept', allowed: ALL,
+    prepare: async (t) => ({ path: `/api/field/kept?machine=${(await makeMachine(owner(t))).id}` }),
+  },
   { method: 'GET', route: '/api/export', allowed: EDITORS, prepare: async () => ({ path: '/api/export' }) },
   { method: 'GET', route: '/api/export/csv', allowed: EDITORS, prepare: async () => ({ path: '/api/export/csv?table=devices' }) },
   {

@@ -11,7 +11,8 @@ import type { FieldLogCreate } from '../../schemas/field';
 import { cardRevision } from './cards';
 import { liveDevice } from './scope';
 import { presentAttachment, type AttachmentView } from './attachments';
-import { Invalid, notFound } from '../errors';
+import { Conflict, Invalid, isUniqueViolation, notFound } from '../errors';
+import { doneAtProblem } from '../../field/done-at';
 import { makesProposal, notifyReviewers, proposalsOfEntries, proposeFromEntry, type ProposalView } from './proposals';
 
 type EntryRow = typeof fieldLogEntry.$inferSelect;
@@ -47,12 +48,45 @@ export async function listFieldLog(ctx: TeamContext, deviceId: string, limit = 2
   }));
 }
 
+/** An entry the phone sent before under the same client key: the same entry again, or 409 when the key is another's. */
+async function earlierSend(ctx: TeamContext, deviceId: string, clientKey: string | undefined): Promise<FieldLogEntryView | null> {
+  if (!clientKey) return null;
+  const [row] = await db.select({ id: fieldLogEntry.id, deviceId: fieldLogEntry.deviceId, userId: fieldLogEntry.userId }).from(fieldLogEntry)
+    .where(and(eq(fieldLogEntry.teamId, ctx.team.id), eq(fieldLogEntry.clientKey, clientKey)));
+  if (!row) return null;
+  if (row.deviceId !== deviceId || row.userId !== ctx.user.id) {
+    throw new Conflict('This client key belongs to another field-log entry: send the entry with a new key.');
+  }
+  return (await listFieldLog(ctx, deviceId)).find((e) => e.id === row.id) ?? null;
+}
+
 /**
  * Writes the entry and claims its photos (uploaded beforehand to the device, not yet in any entry) in one transaction;
  * a replacement or finding also writes its proposal there, and its reviewers are e-mailed once it is saved.
+ * An entry sent again with a client key the team already has answers the entry written the first time
+ * (`created: false`) and writes nothing.
  */
-export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate): Promise<FieldLogEntryView> {
+export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate, now = new Date()): Promise<FieldLogEntryView & { created: boolean }> {
+  const doneAt = input.doneAt ? new Date(input.doneAt) : now;
+  const problem = doneAtProblem(doneAt, now);
+  if (problem) throw new Invalid(`doneAt: ${problem}`, { fields: { doneAt: problem } });
+  const before = await earlierSend(ctx, deviceId, input.clientKey);
+  if (before) return { ...before, created: false };
   const id = newId('flog');
+  try {
+    await writeEntry(ctx, deviceId, input, id, doneAt);
+  } catch (err) {
+    // The same entry sent twice at once: the second send answers the first one's entry.
+    if (!isUniqueViolation(err)) throw err;
+    const winner = await earlierSend(ctx, deviceId, input.clientKey);
+    if (!winner) throw err;
+    return { ...winner, created: false };
+  }
+  if (makesProposal(input.kind)) await notifyReviewers(ctx, id);
+  return { ...(await listFieldLog(ctx, deviceId)).find((e) => e.id === id)!, created: true };
+}
+
+async function writeEntry(ctx: TeamContext, deviceId: string, input: FieldLogCreate, id: string, doneAt: Date): Promise<void> {
   await db.transaction(async (tx) => {
     const dev = await liveDevice(ctx, deviceId, tx);
     const rev = await cardRevision(ctx, deviceId);
@@ -87,13 +121,12 @@ export async function createFieldLogEntry(ctx: TeamContext, deviceId: string, in
       appliedVersion: input.kind === 'replacement' ? input.appliedVersion : null,
       foundSettings: input.kind === 'found-different' ? input.foundSettings : '',
       deviceVersion: rev.number, userId: ctx.user.id, userName: ctx.user.name,
+      doneAt, clientKey: input.clientKey ?? null,
     });
     const claimed = exchangeLogId ? [...photoIds, exchangeLogId] : photoIds;
     if (claimed.length) await tx.update(attachment).set({ entryId: id }).where(and(eq(attachment.teamId, ctx.team.id), inArray(attachment.id, claimed)));
     await proposeFromEntry(tx, ctx, dev, id, input);
   });
-  if (makesProposal(input.kind)) await notifyReviewers(ctx, id);
-  return (await listFieldLog(ctx, deviceId)).find((e) => e.id === id)!;
 }
 
 export async function annotateEntry(ctx: TeamContext, entryId: string, note: string): Promise<AnnotationRow> {

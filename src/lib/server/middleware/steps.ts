@@ -17,6 +17,9 @@ const BASE_CSP = [
   "img-src 'self' data: blob:",
   "font-src 'self'",
   "connect-src 'self'",
+  // The service worker (/sw.js) and the web app manifest, both same-origin (docs/decisions/017-offline-cards.md).
+  "worker-src 'self'",
+  "manifest-src 'self'",
   "object-src 'none'",
   "base-uri 'self'",
   "form-action 'self'",
@@ -42,8 +45,8 @@ export const securityHeaders: MiddlewareHandler = async (context, next) => {
   const response = await next();
   const headers = response.headers;
   try {
-    // Pages and data for a signed-in user are never kept by the browser's or a proxy's HTTP cache. (Field
-    // cards kept offline later go through the Cache API on the technician's request: decision 007.)
+    // Pages and data for a signed-in user are never kept by the browser's or a proxy's HTTP cache. Field cards kept
+    // on a phone go through the Cache API, on the technician's request only (decisions 007 and 017).
     if (!headers.has('Cache-Control') && (context.locals.user || carriesSession(context.request))) {
       headers.set('Cache-Control', 'no-store');
     }

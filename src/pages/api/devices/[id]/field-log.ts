@@ -12,5 +12,7 @@ export const GET: APIRoute = route(async ({ locals, params }) => {
 
 export const POST: APIRoute = route(async ({ locals, params, request }) => {
   const ctx = guard(locals, 'fieldLog:create');
-  return json(await createFieldLogEntry(ctx, params.id!, validate(fieldLogCreateSchema, await readJson(request))), 201);
+  const { created, ...entry } = await createFieldLogEntry(ctx, params.id!, validate(fieldLogCreateSchema, await readJson(request)));
+  // A resend of an entry already written (same clientKey) answers 200 with that entry, not 201.
+  return json(entry, created ? 201 : 200);
 });
