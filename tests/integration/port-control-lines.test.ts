@@ -121,7 +121,7 @@ describe('exports and imports', () => {
     const res = await eng.request('GET', `/api/export/csv?table=ports&deviceId=${d.id}`);
     expect(res.status).toBe(200);
     const lines = String(res.body).replace(/^\ufeff/, '').trim().split('\r\n');
-    expect(lines[0]).toBe('id,machine,deviceTag,portName,shorthand,interface,baud,dataBits,parity,stopBits,handshake,rtsMode,ctsMode,dtrMode,rtsLeadMs,rtsTailMs,echo,nodeAddress,termination,protocol,version');
+    expect(lines[0]).toBe('id,machine,deviceTag,portName,shorthand,interface,baud,dataBits,parity,stopBits,handshake,rtsMode,ctsMode,dtrMode,rtsLeadMs,rtsTailMs,echo,nodeAddress,termination,protocol,bridgedTo,version');
     expect(lines[1]!.split(',').slice(10, 17)).toEqual(['none', 'transmit', 'ignore', 'off', '2', '2', 'yes']);
     expect(lines[2]!.split(',').slice(10, 17)).toEqual(['rts-cts', 'flow', 'gate', 'off', '0', '0', 'no']);
     expect(lines[3]!.split(',').slice(10, 17)).toEqual(['none', 'on', 'ignore', 'on', '0', '0', 'no']);
