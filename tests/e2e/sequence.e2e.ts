@@ -8,6 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { browserPool, DESKTOP, PHONE, shot, signIn, visit } from './helpers/browser';
+import { runSt } from '../plc/st-eval';
 
 const browser = browserPool();
 const DEVICE = 'dev_demo_drv501';
@@ -84,12 +85,21 @@ describe('saved sequences in the browser', () => {
     await page.getByText('Saved · version 1').waitFor();
     const url = page.url();
     expect(await page.getByTestId('notation-iecLiteral').textContent()).toBe(`'${MOVE}'`);
+    // Its PLC code: one FUNCTION joining the four steps; with the steps' values written as constants it builds
+    // exactly the string above (run in the test evaluator, tests/plc/st-eval.ts).
+    const plc = page.getByTestId('plc-code');
+    await plc.getByText('Structured Text that builds this sequence from its fields at run time').click();
+    await plc.getByLabel("Write each step's values as constants (otherwise every field is an input)").check();
+    await expect.poll(() => plc.getByTestId('plc-code-text').textContent()).toMatch(new RegExp(`FUNCTION Four_move_${run} : STRING\\(`, 'i'));
+    expect(runSt((await plc.getByTestId('plc-code-text').textContent())!, {}).result).toBe(MOVE.replaceAll('$0D', '\r'));
     // sent separately with a 5 ms pause: python3: 58.333 + 3 × 5 = 73.333 ms from the first byte to the last
     await page.getByLabel('As separate sends, one per step').check();
     await page.getByLabel('Pause between sends').fill('5');
     await expect.poll(() => page.getByTestId('sequence-total-ms').textContent()).toBe('73.333 ms');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved · version 2').waitFor();
+    // sent separately, the PLC builds each send on its own: one FUNCTION per step
+    expect(await plc.getByTestId('plc-code-text').textContent()).toMatch(/separate sends: send what each function below builds, in order, pausing 5 ms between sends[\s\S]*_step_4 : STRING\(/);
 
     await visit(page, DRIVE);
     const item = page.locator(`[data-command="Four-move ${run}"]`);

@@ -128,7 +128,7 @@ export function ComposerCore({ initial, ports, readOnly, portSlot, footer, banne
             <PreviewPanel preview={preview} template={template} plcString={fit && fit.capacity !== null ? { capacity: fit.capacity, length: fit.length, longestLength: fit.longestLength } : null} />
           </Section>
           <Section title="PLC code" id="plc-code-panel">
-            <PlcCodeSection template={template} name={draft.name} />
+            <PlcCodeSection source={{ kind: 'command', template }} name={draft.name} />
           </Section>
           <Section title="Timing" id="timing">
             <TimingPanel timing={timing} />

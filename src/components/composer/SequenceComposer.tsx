@@ -9,7 +9,7 @@ import { lazy, Suspense, useMemo, useState } from 'react';
 import { api } from '../../lib/client/api';
 import { same } from '../../lib/client/conflict';
 import { commandKeys } from '../../lib/client/keys';
-import { assembleSaved, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
+import { assembleSaved, sequenceInputs, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
 import { defaultPortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
 import { QueryProvider } from '../QueryProvider';
@@ -20,6 +20,7 @@ import { PortPicker } from './PortPicker';
 import { sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
 import { SequencePreview } from './SequencePreview';
 import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
+import { PlcCodeSection } from './PlcCodeSection';
 import { SequenceSaveBar, type SavedSequenceCommand } from './SequenceSaveBar';
 import { SequenceSteps as SequenceStepsNow, type KeyedStep } from './SequenceSteps';
 import { Later } from './Later';
@@ -117,6 +118,8 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
   const templates = previewed.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
   const replies = previewed.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
   const names = s.info.map((i) => i.name);
+  const plcGap = problems[0] ?? s.info.find((i) => i.gap)?.gap;
+  const plcSource = { kind: 'sequence' as const, mode, delayMs: sequence.delayMs, steps: sequenceInputs(previewed, lookup).map((x) => ({ template: x.template, values: x.values ?? {} })), ...(plcGap ? { gap: plcGap } : {}) };
   const moves = details.movesMachinery || sequence.steps.some((x) => x.commandId && (lib.live ?? []).find((c) => c.id === x.commandId)?.movesMachinery);
   const errors = s.findings.filter((f) => f.severity === 'error');
   const draft: SequenceDraft = sequenceDraftOf({ ...details, sequence });
@@ -159,6 +162,9 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
         <div className="grid gap-4 min-w-0">
           <Section title="Preview" id="preview">
             {lib.live ? <SequencePreview s={s} info={s.info} templates={templates} /> : <p className="text-sm">Loading the library…</p>}
+          </Section>
+          <Section title="PLC code" id="plc-code-panel">
+            <PlcCodeSection source={plcSource} name={details.name} />
           </Section>
         </div>
       </div>
