@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { browserPool, DESKTOP, PHONE, shot, signIn, visit } from './helpers/browser';
+import { browserPool, DESKTOP, hydrated, PHONE, shot, signIn, visit } from './helpers/browser';
 import { runSt } from '../plc/st-eval';
 
 const browser = browserPool();
@@ -211,5 +211,29 @@ describe('saved sequences in the browser', () => {
     await page.getByText('In the trash (', { exact: false }).click();
     await page.getByRole('listitem').filter({ hasText: `Velocity ${run}` }).getByRole('button', { name: 'Restore' }).click();
     await expect.poll(() => steps.locator('li').first().textContent()).toBe(`Velocity ${run}`);
+  });
+
+  it('keeps what was typed into the name and purpose before the page became interactive', async () => {
+    const b = await browser({ viewport: PHONE });
+    const page = b.page;
+    await signIn(page, 'engineer@fernhollow.test');
+    const run = Date.now().toString(36);
+    // Hold the page's scripts (as a slow phone on plant Wi-Fi would) until the fields are filled.
+    let release!: () => void;
+    const held = new Promise<void>((r) => { release = r; });
+    await page.route('**/_astro/**/*.js', async (route) => { await held; await route.continue(); });
+    await page.goto(`${DRIVE}/new?kind=sequence`, { waitUntil: 'commit' });
+    await page.getByLabel('Purpose').waitFor();
+    expect(await page.locator('astro-island[ssr]').count()).toBeGreaterThan(0);
+    await page.getByLabel('Command name').fill(`Typed early ${run}`);
+    await page.getByLabel('Purpose').fill('before the scripts came');
+    release();
+    await hydrated(page);
+    await page.getByTestId('add-step-command').selectOption({ index: 1 });
+    await page.getByRole('button', { name: 'Add step', exact: true }).click();
+    await page.getByTestId('sequence-step').first().waitFor();
+    expect(await page.getByLabel('Command name').inputValue()).toBe(`Typed early ${run}`);
+    expect(await page.getByLabel('Purpose').inputValue()).toBe('before the scripts came');
+    await page.unroute('**/_astro/**/*.js');
   });
 });
