@@ -35,6 +35,20 @@ async function noOverflow(page: Page, what: string) {
   expect(scroll, `${what}: page ${scroll} px wide in a ${width} px window`).toBeLessThanOrEqual(width);
 }
 
+/** Through the API: a velocity command and a two-step sequence of it and an inline 45° distance, sent as one string. */
+async function twoStep(page: Page, run: string) {
+  const origin = new URL(page.url()).origin;
+  const post = async (data: object) => {
+    const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
+    expect(res.status(), await res.text()).toBe(201);
+    return (await res.json()) as { id: string };
+  };
+  const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
+  const steps = [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }];
+  const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', delayMs: 0, steps } });
+  return { speed, steps, seq };
+}
+
 describe('saved sequences in the browser', () => {
   it('builds the four-command string from library commands, copies its PLC literal, saves it and lists it', async () => {
     const b = await browser({ viewport: DESKTOP });
@@ -133,14 +147,7 @@ describe('saved sequences in the browser', () => {
     await signIn(page, 'engineer@fernhollow.test');
     const origin = new URL(page.url()).origin;
     const run = Date.now().toString(36);
-    const post = async (data: object) => {
-      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
-      expect(res.status(), await res.text()).toBe(201);
-      return (await res.json()) as { id: string };
-    };
-    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
-    const steps = [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }];
-    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', delayMs: 0, steps } });
+    const { speed, steps, seq } = await twoStep(page, run);
 
     await visit(page, `${DRIVE}/${seq.id}`);
     await page.getByText('Saved · version 1').waitFor();
@@ -181,15 +188,8 @@ describe('saved sequences in the browser', () => {
     const b = await browser({ viewport: DESKTOP });
     const page = b.page;
     await signIn(page, 'engineer@fernhollow.test');
-    const origin = new URL(page.url()).origin;
     const run = Date.now().toString(36);
-    const post = async (data: object) => {
-      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
-      expect(res.status(), await res.text()).toBe(201);
-      return (await res.json()) as { id: string };
-    };
-    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
-    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', steps: [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }] } });
+    const { seq } = await twoStep(page, run);
 
     await visit(page, DRIVE);
     // The server's first answer to the move is the 409 naming the sequences (the question that follows is the point).
