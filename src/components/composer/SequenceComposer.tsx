@@ -17,10 +17,10 @@ import { Caution } from '../ui/Caution';
 import { Section } from '../ui/Section';
 import { CommandDetails } from './CommandDetails';
 import { PortPicker } from './PortPicker';
-import { sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
+import { sequenceCompare, sequenceDraftOf, type SavedSequenceCommand, type SequenceDraft } from './sequence-conflict';
 import { SequencePreview } from './SequencePreview';
 import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
-import { SequenceSaveBar, type SavedSequenceCommand } from './SequenceSaveBar';
+import { SaveBar } from './SaveBar';
 import { SequenceSteps as SequenceStepsNow, type KeyedStep } from './SequenceSteps';
 import { Later } from './Later';
 import type { LibraryCommand } from './sequence-types';
@@ -38,6 +38,7 @@ export interface SequenceComposerProps {
 
 const EMPTY: Template = { version: 1, segments: [] };
 const History = /* @__PURE__ */ lazy(() => import('./History'));
+const SequenceConflict = /* @__PURE__ */ lazy(() => import('./SequenceConflict'));
 // Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
 const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : /* @__PURE__ */ lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
 const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : /* @__PURE__ */ lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
@@ -167,8 +168,9 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
       </Section>
       {!readOnly && (
         <Section title="Save" id="save">
-          <SequenceSaveBar draft={draft} base={base} saved={saved} owner={owner} composerHref={(id) => `${basePath}/${id}`}
-            onSaved={onSaved} onLoad={onLoad} dirty={dirty} valid={valid} errors={errors} nameOf={(id) => lookup(id)?.name}
+          <SaveBar noun="sequence" compare={sequenceCompare} draft={draft} base={base} saved={saved} owner={owner} composerHref={(id) => `${basePath}/${id}`}
+            onSaved={onSaved} onLoad={onLoad} dirty={dirty} valid={valid} errors={errors}
+            notice={(c, actions) => <SequenceConflict version={c.version} rows={c.rows} nameOf={(id) => lookup(id)?.name} {...actions} />}
             invalidReason={problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'} />
         </Section>
       )}
