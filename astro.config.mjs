@@ -14,6 +14,23 @@ import { buildServiceWorker } from './scripts/service-worker-build.mjs';
  */
 const config = parseBuildConfig(process.env);
 
+/**
+ * The browser build treats the pure folders (src/lib/frame, composer, schemas: definitions only, no effects on
+ * import, as the layer rules keep them) as free of side effects, so a module imported only for the server's
+ * render of a part that the browser loads later (src/components/composer/Later.tsx) leaves nothing behind in the
+ * browser's first load: without this, Rollup keeps a bare `import` of each such module because it builds zod
+ * schemas at its top level, and with it zod itself (composer JavaScript budget, issue 16).
+ */
+const PURE_MODULES = /\/src\/lib\/(frame|composer|schemas)\//;
+const pureModules = {
+  name: 'baudbook-pure-modules',
+  /** @param {import('vite').UserConfig} _ @param {import('vite').ConfigEnv} env */
+  config(_, env) {
+    if (env.isSsrBuild) return;
+    return { build: { rollupOptions: { treeshake: { moduleSideEffects: (/** @type {string} */ id) => !PURE_MODULES.test(id) } } } };
+  },
+};
+
 export default defineConfig({
   output: 'server',
   // Middleware mode: the built entry only exports a handler; server/serve.mjs owns the socket, the client
@@ -38,5 +55,5 @@ export default defineConfig({
   session: { driver: 'null' },
   // Hashes every script Astro emits into the page's CSP header, so script-src needs no 'unsafe-inline'.
   experimental: { csp: { algorithm: 'SHA-256' } },
-  vite: { plugins: [tailwindcss()] },
+  vite: { plugins: [tailwindcss(), pureModules] },
 });

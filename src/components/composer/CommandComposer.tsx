@@ -4,6 +4,7 @@ import { lazy, Suspense, useState } from 'react';
 import { api } from '../../lib/client/api';
 import { QueryProvider } from '../QueryProvider';
 import { ComposerCore } from './Composer';
+import { commandCompare } from './command-conflict';
 import { SaveBar } from './SaveBar';
 import { Section } from '../ui/Section';
 import { draftOf, type CommandDraft, type NamedPort } from './types';
@@ -22,6 +23,7 @@ export interface CommandComposerProps {
 }
 
 const History = /* @__PURE__ */ lazy(() => import('./History'));
+const CommandConflict = /* @__PURE__ */ lazy(() => import('./CommandConflict'));
 
 function CopyHere({ commandId, deviceId, basePath }: { commandId: string; deviceId: string; basePath: string }) {
   const m = useMutation({
@@ -61,10 +63,11 @@ function Inner({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStr
           <>
             {!readOnly && (
               <Section title="Save" id="save">
-                <SaveBar draft={draft} base={base} saved={saved} owner={owner} valid={valid} errors={errors} composerHref={(id) => `${basePath}/${id}`}
-                  dirty={dirty}
+                <SaveBar noun="command" compare={commandCompare} draft={draftOf(draft)} base={base} saved={saved} owner={owner} valid={valid} errors={errors}
+                  composerHref={(id) => `${basePath}/${id}`} dirty={dirty} invalidReason="Fix the template problems above before saving."
                   onSaved={(c) => { setSaved({ id: c.id, version: c.version }); setBase(draftOf(c)); }}
-                  onLoad={load} />
+                  onLoad={load}
+                  notice={(c, actions) => <CommandConflict version={c.version} rows={c.rows} base={c.base} mine={c.mine} theirs={draftOf(c.current)} {...actions} />} />
               </Section>
             )}
             {saved && (

@@ -5,27 +5,21 @@
  * composer carries none of it.
  */
 import { useQuery } from '@tanstack/react-query';
-import { lazy, Suspense, useMemo, useState } from 'react';
+import { lazy, useState } from 'react';
 import { api } from '../../lib/client/api';
 import { same } from '../../lib/client/conflict';
 import { commandKeys } from '../../lib/client/keys';
-import { assembleSaved, sequenceInputs, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
-import { defaultPortSettings } from '../../lib/frame/port-settings';
-import { templateSchema, type Template } from '../../lib/frame/template';
+import type { SavedSequence } from '../../lib/composer/saved-sequence';
 import { QueryProvider } from '../QueryProvider';
 import { Caution } from '../ui/Caution';
 import { Section } from '../ui/Section';
 import { CommandDetails } from './CommandDetails';
-import { PortPicker } from './PortPicker';
-import { sequenceDraftOf, type SequenceDraft } from './sequence-conflict';
-import { SequencePreview } from './SequencePreview';
-import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
-import { PlcCodeSection } from './PlcCodeSection';
-import { SequenceSaveBar, type SavedSequenceCommand } from './SequenceSaveBar';
-import { SequenceSteps as SequenceStepsNow, type KeyedStep } from './SequenceSteps';
+import { sequenceDraftOf, type SavedSequenceCommand, type SequenceDraft } from './sequence-conflict';
+import SequenceBodyNow, { type SequenceDetails } from './SequenceBody';
+import type { KeyedStep } from './SequenceSteps';
 import { Later } from './Later';
 import type { LibraryCommand } from './sequence-types';
-import { draftOf, type CommandDraft, type NamedPort } from './types';
+import type { CommandDraft, NamedPort } from './types';
 
 export interface SequenceComposerProps {
   command: CommandDraft & { id?: string; version?: number; sequence: SavedSequence | null };
@@ -37,12 +31,9 @@ export interface SequenceComposerProps {
   plcStringCapacity?: number | null;
 }
 
-const EMPTY: Template = { version: 1, segments: [] };
-const History = /* @__PURE__ */ lazy(() => import('./History'));
-// Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
-const SequenceSteps = import.meta.env.SSR ? SequenceStepsNow : /* @__PURE__ */ lazy(() => import('./SequenceSteps').then((m) => ({ default: m.SequenceSteps })));
-const SequenceReplies = import.meta.env.SSR ? SequenceRepliesNow : /* @__PURE__ */ lazy(() => import('./SequenceReplies').then((m) => ({ default: m.SequenceReplies })));
-type Details = Pick<CommandDraft, 'name' | 'purpose' | 'notes' | 'movesMachinery' | 'portName'>;
+// Everything that needs the frame engine or zod: rendered by the server at once, loaded by the browser after this
+// shell is interactive (see Later). Keep this module's imports free of the engine and of any module that builds a schema.
+const SequenceBody = import.meta.env.SSR ? SequenceBodyNow : /* @__PURE__ */ lazy(() => import('./SequenceBody'));
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
 
@@ -79,52 +70,17 @@ interface EditorProps extends SequenceComposerProps {
 
 function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcStringCapacity = null, saved, base, onSaved, onLoad }: EditorProps) {
   const { sequence: opened, ...openedDetails } = base;
-  const [details, setDetails] = useState<Details>(openedDetails);
+  const [details, setDetails] = useState<SequenceDetails>(openedDetails);
   const [steps, setSteps] = useState<KeyedStep[]>(() => keyed(opened));
   const [mode, setMode] = useState(opened.mode);
   const [delayMs, setDelayMs] = useState(opened.delayMs);
-  const [showHistory, setShowHistory] = useState(false);
   const readOnly = !canEdit || !!inheritedFrom;
 
   const lib = useLibrary(owner);
-  // Single commands kept on this very device or profile: the ones a step may use.
-  const library = useMemo(() => (lib.live ?? []).filter((c) => !c.inherited && !c.sequence && c.id !== saved?.id), [lib.live, saved]);
-  const lookup = useMemo(() => {
-    const map = new Map<string, StepCommand>();
-    // Inherited ones too: a profile's sequence seen from one of its devices refers to the profile's commands.
-    for (const c of lib.live ?? []) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: false });
-    for (const c of lib.trashed) map.set(c.id, { ...c, isSequence: !!c.sequence, trashed: true });
-    return (id: string) => map.get(id);
-  }, [lib.live, lib.trashed]);
-
   const sequence: SavedSequence = { mode, delayMs: mode === 'separate' ? delayMs : 0, steps: steps.map((s) => s.step) };
-  const port = ports.find((p) => p.name === details.portName) ?? ports[0];
-  const settings = port?.settings ?? defaultPortSettings;
-  // An inline step's template as its segment editor leaves it may not be whole yet: previewed empty until it is.
-  const problems = sequence.steps.flatMap((x, i) => (['template', 'replyTemplate'] as const).flatMap((k) => {
-    const t = x[k];
-    const r = t ? templateSchema.safeParse(t) : null;
-    return r && !r.success ? [`Step ${i + 1}${k === 'replyTemplate' ? ', expected reply' : ''}: ${r.error.issues[0]!.path.join('.')}: ${r.error.issues[0]!.message}`] : [];
-  }));
-  const parsed = (t: Template) => { const r = templateSchema.safeParse(t); return r.success ? r.data : null; };
-  const previewed: SavedSequence = { ...sequence, steps: sequence.steps.map((x) => ({
-    ...x,
-    ...(x.template ? { template: parsed(x.template) ?? EMPTY } : {}),
-    ...(x.replyTemplate ? { replyTemplate: parsed(x.replyTemplate) } : {}),
-  })) };
-  const s = useMemo(() => assembleSaved(previewed, lookup, { settings, ...(plcStringCapacity ? { plcStringCapacity } : {}) }),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [JSON.stringify(previewed), lookup, settings, plcStringCapacity]);
-  const templates = previewed.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
-  const replies = previewed.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
-  const names = s.info.map((i) => i.name);
-  const plcGap = problems[0] ?? s.info.find((i) => i.gap)?.gap;
-  const plcSource = { kind: 'sequence' as const, mode, delayMs: sequence.delayMs, steps: sequenceInputs(previewed, lookup).map((x) => ({ template: x.template, values: x.values ?? {} })), ...(plcGap ? { gap: plcGap } : {}) };
   const moves = details.movesMachinery || sequence.steps.some((x) => x.commandId && (lib.live ?? []).find((c) => c.id === x.commandId)?.movesMachinery);
-  const errors = s.findings.filter((f) => f.severity === 'error');
   const draft: SequenceDraft = sequenceDraftOf({ ...details, sequence });
   const dirty = !same(draft, base);
-  const valid = !!details.name.trim() && steps.length > 0 && problems.length === 0;
 
   return (
     <div className="grid gap-4" data-testid="sequence-composer">
@@ -133,64 +89,11 @@ function Editor({ command, ports, owner, basePath, canEdit, inheritedFrom, plcSt
       <Section title="Sequence" id="details">
         <CommandDetails draft={{ ...command, ...details }} onChange={(p) => setDetails((d) => ({ ...d, ...p }))} readOnly={readOnly} sequence />
       </Section>
-      <div className="grid gap-4 lg:grid-cols-2 items-start">
-        <div className="grid gap-4 min-w-0">
-          <Section title="Port" id="port">
-            <PortPicker ports={ports} value={details.portName} readOnly={readOnly} onChange={(portName) => setDetails((d) => ({ ...d, portName }))} />
-          </Section>
-          <Section title="How it is sent" id="send-mode">
-            <fieldset className="grid gap-2 text-sm" disabled={readOnly}>
-              <legend className="sr-only">How the steps are sent</legend>
-              <label className="flex items-center gap-2"><input type="radio" name="seq-mode" checked={mode === 'one-string'} onChange={() => setMode('one-string')} /> As one string (each step keeps its own terminator)</label>
-              <label className="flex items-center gap-2"><input type="radio" name="seq-mode" checked={mode === 'separate'} onChange={() => setMode('separate')} /> As separate sends, one per step</label>
-              {mode === 'separate' && (
-                <label className="flex flex-wrap items-center gap-2">Pause between sends
-                  <input type="number" min={0} max={60000} className="input !py-1 !w-24" value={delayMs} onChange={(e) => setDelayMs(Math.max(0, Number(e.target.value) || 0))} /> ms
-                </label>
-              )}
-            </fieldset>
-          </Section>
-          <Section title="Steps" id="steps">
-            {lib.error && <p className="notice notice-bad text-sm" role="alert">{lib.error.message}</p>}
-            {problems.map((p) => <p key={p} className="notice notice-bad text-sm mb-2" role="alert">{p}</p>)}
-            <Later loading="Loading the steps…">
-              <SequenceSteps steps={steps} onChange={setSteps} library={library} info={s.info} assembled={s.steps} separate={mode === 'separate'}
-                rules={settings.frameRules ?? {}} protocol={settings.protocol} readOnly={readOnly} />
-            </Later>
-          </Section>
-        </div>
-        <div className="grid gap-4 min-w-0">
-          <Section title="Preview" id="preview">
-            {lib.live ? <SequencePreview s={s} info={s.info} templates={templates} /> : <p className="text-sm">Loading the library…</p>}
-          </Section>
-          <Section title="PLC code" id="plc-code-panel">
-            <PlcCodeSection source={plcSource} name={details.name} />
-          </Section>
-        </div>
-      </div>
-      <Section title="Replies" id="reply">
-        <Later loading="Loading the reply reader…"><SequenceReplies replies={replies} names={names} /></Later>
-      </Section>
-      {!readOnly && (
-        <Section title="Save" id="save">
-          <SequenceSaveBar draft={draft} base={base} saved={saved} owner={owner} composerHref={(id) => `${basePath}/${id}`}
-            onSaved={onSaved} onLoad={onLoad} dirty={dirty} valid={valid} errors={errors} nameOf={(id) => lookup(id)?.name}
-            invalidReason={problems.length ? 'Fix the step templates above before saving.' : 'Name the sequence and give it at least one step before saving.'} />
-        </Section>
-      )}
-      {saved && (
-        <Section title="History" id="history-panel">
-          {showHistory ? (
-            <Suspense fallback={<p className="text-sm">Loading history…</p>}>
-              {/* A restored version replaces the steps wholesale: the page reloads to show it as saved. */}
-              <History key={saved.version} commandId={saved.id} canRestore={!readOnly} seen={{ version: saved.version, draft: draftOf({ ...command, ...details }) }}
-                onRestored={() => location.reload()} onKeep={() => location.reload()} />
-            </Suspense>
-          ) : (
-            <button type="button" className="btn btn-quiet btn-sm" onClick={() => setShowHistory(true)}>Show history (version {saved.version})</button>
-          )}
-        </Section>
-      )}
+      <Later loading="Loading the sequence composer…">
+        <SequenceBody command={command} ports={ports} owner={owner} basePath={basePath} readOnly={readOnly} plcStringCapacity={plcStringCapacity}
+          saved={saved} base={base} onSaved={onSaved} onLoad={onLoad} details={details} setDetails={setDetails} steps={steps} setSteps={setSteps}
+          mode={mode} setMode={setMode} delayMs={delayMs} setDelayMs={setDelayMs} lib={lib} draft={draft} dirty={dirty} />
+      </Later>
     </div>
   );
 }

@@ -5,7 +5,8 @@ import { notationRows } from '../../lib/composer/notations';
 import { NotationList } from './NotationList';
 import { Section } from '../ui/Section';
 
-const ALGORITHMS = listChecksumAlgorithms();
+// Marked pure: the workbench imports this module for the server's render only, and the browser loads it later (see Later).
+const ALGORITHMS = /* @__PURE__ */ listChecksumAlgorithms();
 
 export function Tools() {
   const input = useBytesInput();

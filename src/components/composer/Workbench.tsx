@@ -1,25 +1,30 @@
 /** Island for the public /workbench: the same composer with its own port settings, the live link (loaded when opened), tools, and saving for signed-in users. */
 import { lazy, Suspense, useEffect, useState } from 'react';
-import { defaultPortSettings } from '../../lib/frame/port-settings';
-import { starterTemplate } from '../../lib/composer/segments';
+import type { PortSettings } from '../../lib/frame/port-settings';
 import { QueryProvider } from '../QueryProvider';
 import { ComposerCore } from './Composer';
-import { PortQuick } from './PortQuick';
+import { Later } from './Later';
+import { PortQuick as PortQuickNow } from './PortQuick';
 import { Section } from '../ui/Section';
-import { Tools } from './Tools';
+import { Tools as ToolsNow } from './Tools';
 import { WorkbenchLiveLink } from './WorkbenchLiveLink';
 import type { CommandDraft } from './types';
 
-interface Props { signedIn: boolean; canSave: boolean; signInHref: string }
-
-const blank: CommandDraft = {
-  name: 'One-off command', purpose: '', notes: '', movesMachinery: false, safeToRepeat: false, setsUpDevice: false, template: starterTemplate({ terminator: '0D' }),
-  fieldValues: {}, replyTemplate: null, portName: '', rawUnits: {}, presets: [],
-};
+interface Props {
+  signedIn: boolean;
+  canSave: boolean;
+  signInHref: string;
+  /** The command it opens with and the port settings it starts from (made by the page, so this island's first load carries no engine). */
+  blank: CommandDraft;
+  settings: PortSettings;
+}
 
 const SaveToDevice = /* @__PURE__ */ lazy(() => import('./SaveToDevice'));
+// Rendered by the server at once; in the browser each loads after the island is interactive (see Later).
+const PortQuick = import.meta.env.SSR ? PortQuickNow : /* @__PURE__ */ lazy(() => import('./PortQuick').then((m) => ({ default: m.PortQuick })));
+const Tools = import.meta.env.SSR ? ToolsNow : /* @__PURE__ */ lazy(() => import('./Tools').then((m) => ({ default: m.Tools })));
 
-export default function Workbench({ signedIn, canSave, signInHref }: Props) {
+export default function Workbench({ signedIn, canSave, signInHref, blank, settings }: Props) {
   // The device picker is a lazy chunk: rendered on the server it would suspend, and React would then throw
   // away the server's HTML for the whole boundary (a recoverable error, and an inline script the CSP refuses).
   const [mounted, setMounted] = useState(false);
@@ -27,8 +32,8 @@ export default function Workbench({ signedIn, canSave, signInHref }: Props) {
   return (
     <QueryProvider>
       <div className="grid gap-4">
-        <ComposerCore initial={blank} ports={[{ name: 'Workbench', settings: defaultPortSettings }]} readOnly={false}
-          portSlot={(s, set) => <PortQuick settings={s} onChange={set} />}
+        <ComposerCore initial={blank} ports={[{ name: 'Workbench', settings }]} readOnly={false}
+          portSlot={(s, set) => <Later loading="Loading the port settings…"><PortQuick settings={s} onChange={set} /></Later>}
           footer={(draft, valid, _replace, errors, now) => (
             <>
             <WorkbenchLiveLink settings={now.settings} command={{ ...draft, template: now.template, replyTemplate: now.replyTemplate }} />
@@ -41,7 +46,7 @@ export default function Workbench({ signedIn, canSave, signInHref }: Props) {
             </Section>
             </>
           )} />
-        <Tools />
+        <Later loading="Loading the tools…"><Tools /></Later>
       </div>
     </QueryProvider>
   );

@@ -4,7 +4,9 @@
  * as the segment editor edits it; its order apart).
  */
 import { keyed, mergedList, reordered, same, type ConflictRow, type Path } from '../../lib/client/conflict';
+import type { OpenConflict } from '../../lib/client/use-conflict';
 import type { Segment, Template } from '../../lib/frame/template';
+import type { DraftCompare } from './SaveBar';
 import { DRAFT_KEYS, draftOf, type CommandDraft } from './types';
 
 export type Segments = Record<string, Segment>;
@@ -51,3 +53,17 @@ export function orderRows(base: CommandDraft, mine: CommandDraft, theirs: Comman
     return [{ path: [k, ORDER], base: b, mine: m, theirs: t, mineChanged, theirsChanged, clash }];
   });
 }
+
+/** A command as the API answers it. */
+export type SavedCommand = CommandDraft & { id: string; version: number };
+
+/** How the save bar compares and saves a command: segment by segment, a re-apply rebuilt in the merged order. */
+export const commandCompare: DraftCompare<CommandDraft, SavedCommand, CommandShape> = {
+  shapeOf: commandShape,
+  isLeaf: segmentIsLeaf,
+  changed: changedDraftFields,
+  reapply(c: OpenConflict<CommandDraft, SavedCommand, CommandShape>) {
+    const theirs = draftOf(c.current);
+    return { base: theirs, mine: mergedDraft(c.merged, c.base, c.mine, theirs) };
+  },
+};

@@ -7,6 +7,8 @@
  */
 import { same } from '../../lib/client/conflict';
 import type { SavedSequence } from '../../lib/composer/saved-sequence';
+import type { Template } from '../../lib/frame/template';
+import type { DraftCompare } from './SaveBar';
 
 /** The editable part of a sequence, as the sequence composer holds it. */
 export interface SequenceDraft {
@@ -42,3 +44,16 @@ export function sequenceDraftOf(c: Omit<SequenceDraft, 'sequence'> & { sequence:
 export function changedSequenceFields(base: SequenceDraft, draft: SequenceDraft): Partial<SequenceDraft> {
   return Object.fromEntries(SEQUENCE_DRAFT_KEYS.filter((k) => !same(base[k], draft[k])).map((k) => [k, draft[k]]));
 }
+
+/** A sequence as the API answers it. */
+export type SavedSequenceCommand = Omit<SequenceDraft, 'sequence'> & { id: string; version: number; sequence: SavedSequence | null };
+
+const NO_TEMPLATE: Template = { version: 1, segments: [] };
+
+/** How the save bar compares and saves a sequence: part by part, a new one with an empty request template. */
+export const sequenceCompare: DraftCompare<SequenceDraft, SavedSequenceCommand, SequenceDraft> = {
+  shapeOf: sequenceDraftOf,
+  changed: changedSequenceFields,
+  reapply: (c) => ({ base: c.theirs, mine: c.merged }),
+  createDefaults: { template: NO_TEMPLATE },
+};
