@@ -22,6 +22,7 @@ const ENDED: Record<Exchange['endedBy'], string> = {
   length: 'ended at the reply template length',
   silence: 'ended at a silence',
   timeout: 'no reply',
+  'none-expected': 'no reply expected',
 };
 
 function Notations({ bytes, testId }: { bytes: Uint8Array; testId: string }) {
