@@ -95,8 +95,9 @@ export interface StepProgress {
   index: number;
   name: string;
   outcome: StepOutcome;
-  /** Separate sends: the step's own exchange. */
+  /** Separate sends: the step's own exchange, and when it was sent (ms since the link opened). */
   exchange?: Exchange;
+  sentAtMs?: number;
   /** The timeout the step waited for its reply, ms (separate sends). */
   timeoutMs?: number;
   /** One string: the step's part of the whole reply, decoded against its reply template. */
@@ -192,6 +193,7 @@ async function separately(link: LiveLink, seq: LiveSequence, run: SequenceRun, t
     tell();
     const timeoutMs = step.waitForReplyMs ?? link.settings.responseTimeoutMs;
     let x: Exchange;
+    p.sentAtMs = link.elapsed();
     try {
       x = await link.exchange(step.bytes, stepLabel(seq, step), step.replyTemplate, { timeoutMs, expectReply: step.replyTemplate !== null });
     } catch (e) {
