@@ -67,6 +67,56 @@ describe('live link', () => {
     expect(text).toMatch(/RX {3}31 3D 49 44 58 3A 4F 4B 2A 36 37 0D/);
   });
 
+  it('sends the demo sequence separately and as one string after the machinery caution; each step\'s reply decoded with a good checksum', async () => {
+    const b = await driveWithFakeSerial();
+    const { live, page } = b;
+    // The demo drive's "Index and report": the index move as saved, then the status query (demo syntax, worked by hand
+    // in tests/live/sequence-send.test.ts), saved as separate sends 50 ms apart.
+    const INDEX = '1!IDX:+4500/R180000/F180000/S18000\r';
+    const STATUS = '1?STA*48\r';
+    const hex = (s: string) => ascii(s).map((c) => c.toString(16).toUpperCase().padStart(2, '0')).join(' ');
+    const form = live.getByTestId('live-sequence');
+    await form.getByLabel('Sequence', { exact: true }).selectOption({ label: 'Index and report (moves machinery)' });
+    expect(await form.getByTestId('live-sequence-steps').locator('li').allTextContents()).toEqual([
+      `Index 45° (moves machinery), expects a reply (waits 500 ms): ${hex(INDEX)}`,
+      `Status query, expects a reply: ${hex(STATUS)}`,
+    ]);
+    expect(await form.getByLabel('Send the steps').inputValue()).toBe('separate');
+    await form.getByRole('button', { name: 'Send the sequence', exact: true }).click();
+    await form.getByTestId('live-sequence-confirm').getByRole('note').waitFor();
+    expect(await form.getByTestId('live-sequence-confirm').textContent()).toContain('"Index and report" moves machinery (Index 45°)');
+    expect((await evidence(b)).written).toEqual([]);
+    await form.getByRole('button', { name: 'Send the sequence: the machine is safe to move' }).click();
+    let run = live.locator('[data-testid="live-sequence-run"][data-mode="separate"]');
+    await expect.poll(() => run.getAttribute('data-running')).toBe('false');
+    const outcomes = (r: typeof run) => r.getByTestId('live-sequence-step').evaluateAll((els) => els.map((e) => e.getAttribute('data-outcome')));
+    expect(await outcomes(run)).toEqual(['answered', 'answered']);
+    // "1=IDX:OK*67" CR and "1=STA:+0004500,R*14" CR: XOR-8 checks worked by hand in tests/live/simulator.test.ts.
+    expect(await run.getByTestId('live-reply').locator('[data-notation="hex"]').allTextContents()).toEqual([hex('1=IDX:OK*67\r'), hex('1=STA:+0004500,R*14\r')]);
+    expect(await run.getByTestId('live-checksum').evaluateAll((els) => els.map((e) => e.getAttribute('data-ok')))).toEqual(['true', 'true']);
+    expect((await evidence(b)).written.map(text)).toEqual([INDEX, STATUS]);
+    await shot(page, 'live-link-sequence-separate');
+
+    await form.getByLabel('Send the steps').selectOption('one-string');
+    await form.getByRole('button', { name: 'Send the sequence', exact: true }).click();
+    await form.getByRole('button', { name: 'Send the sequence: the machine is safe to move' }).click();
+    run = live.locator('[data-testid="live-sequence-run"][data-mode="one-string"]');
+    await expect.poll(() => run.getAttribute('data-running')).toBe('false');
+    expect(await outcomes(run)).toEqual(['answered', 'answered']);
+    // The whole reply, split per step: each step's checksum verdict and fields.
+    expect(await run.getByTestId('live-checksum').evaluateAll((els) => els.map((e) => e.getAttribute('data-ok')))).toEqual(['true', 'true']);
+    expect(await run.getByTestId('live-fields').allTextContents()).toEqual([expect.stringContaining('accepted'), expect.stringContaining('ready')]);
+    expect(await run.getByTestId('live-reply').locator('[data-notation="hex"]').textContent()).toBe(hex('1=IDX:OK*67\r1=STA:+0004500,R*14\r'));
+    // 44 characters out and 32 back, 10 bits each at 9600 bit/s: 79.167 ms on the wire.
+    expect(await run.getByTestId('live-round-trip').textContent()).toMatch(/Round trip measured \d+\.\d+ ms; on the wire alone 79\.167 ms/);
+    expect((await evidence(b)).written.map(text)).toEqual([INDEX, STATUS, INDEX + STATUS]);
+    // Every byte is in the exchange log, so the communication-verified evidence includes the sequence.
+    const log = await live.getByTestId('live-exchange-log').textContent();
+    expect(log).toContain(hex(INDEX + STATUS));
+    expect(log).toContain('Sequence "Index and report" (one string): step 1 answered, step 2 answered.');
+    await shot(page, 'live-link-sequence-one-string');
+  });
+
   it('says when nothing comes back within the response timeout, with the causes to check', async () => {
     const { live } = await driveWithFakeSerial({ fault: 'no-reply' });
     await live.getByLabel('Command', { exact: true }).selectOption({ label: 'Status query' });

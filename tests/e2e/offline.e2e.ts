@@ -9,6 +9,8 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { browserPool, PHONE, shot, signIn, visit } from './helpers/browser';
 
 const MACHINE = 'mach_demo_kiln';
+/** A 1×1 PNG (valid signature and chunks), as in tests/integration/field-fixtures.ts. */
+const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8DwHwAFBQIAX8jx0gAAAABJRU5ErkJggg==', 'base64');
 const openInPool = browserPool();
 
 async function cutNetwork(context: BrowserContext) {
@@ -103,6 +105,43 @@ describe('field cards kept on a phone', () => {
     await cutNetwork(b.context);
     await expect(b.page.goto(cardPath)).rejects.toThrow(/ERR_INTERNET_DISCONNECTED/);
     await restoreNetwork(b.context);
+  });
+
+  it('keeps the photos already in a kept card\'s field log: offline the card shows them; sign-out removes them', async () => {
+    const b = await openInPool({ viewport: PHONE });
+    b.allow('ERR_INTERNET_DISCONNECTED', 'net::ERR_FAILED');
+    await signIn(b.page, 'technician@fernhollow.test');
+    await visit(b.page, `/field/machines/${MACHINE}`);
+    await workerInCharge(b.page);
+    const deviceId = (await b.page.locator('[data-testid="field-card"]').first().getAttribute('data-device-id'))!;
+    // A photo in the device's field log, logged before the card is kept (a 1×1 PNG).
+    const origin = new URL(b.page.url()).origin;
+    const up = await b.page.request.post('/api/attachments', { headers: { origin }, multipart: { ownerType: 'device', ownerId: deviceId, kind: 'photo', file: { name: 'cabinet-before.png', mimeType: 'image/png', buffer: PNG } } });
+    expect(up.status(), await up.text()).toBe(201);
+    const photo = await up.json();
+    const entry = await b.page.request.post(`/api/devices/${deviceId}/field-log`, { headers: { origin }, data: { kind: 'verified', note: 'Photo of the cabinet before the work', photoIds: [photo.id] } });
+    expect(entry.status(), await entry.text()).toBe(201);
+
+    await b.page.getByRole('button', { name: 'Keep on this phone' }).click();
+    await b.page.getByText(/^Kept on this phone, brought up to date/).waitFor();
+    const kept = await b.page.evaluate(async (url) => {
+      for (const name of await caches.keys()) if (name.startsWith('baudbook-kept-') && await (await caches.open(name)).match(url)) return name;
+      return null;
+    }, photo.url);
+    expect(kept).toBe('baudbook-kept-team_demo_fernhollow');
+
+    await cutNetwork(b.context);
+    await visit(b.page, `/field/devices/${deviceId}`);
+    await b.page.getByTestId('kept-copy').waitFor();
+    const thumb = b.page.locator(`img[data-testid="thumb"][src="${photo.url}"]`).first();
+    await thumb.scrollIntoViewIfNeeded();
+    // The kept photo loads with no network: the 1×1 PNG decodes to one pixel.
+    await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth), { timeout: 10_000 }).toBe(1);
+    await restoreNetwork(b.context);
+
+    await b.page.getByRole('button', { name: 'Sign out' }).click();
+    await b.page.waitForURL('**/sign-in');
+    expect(await b.page.evaluate(() => caches.keys())).toEqual([]);
   });
 
   it('switching team on the phone drops the cards kept for the other team: offline they are not there', async () => {

@@ -8,7 +8,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import { createTeamWithRoles, TestClient, type TeamFixture } from '../helpers/client';
 import { expectOk, makeDevice, makeMachine, makeSite } from './vault-fixtures';
-import { PNG_BYTES, upload } from './field-fixtures';
+import { logEntry, PNG_BYTES, upload } from './field-fixtures';
 
 let team: TeamFixture;
 let other: TeamFixture;
@@ -106,6 +106,33 @@ describe('cards kept on a phone', () => {
     expect(list.scopes.map((s: { id: string }) => s.id)).toEqual([ours.id]);
     expect(JSON.stringify(list.urls)).not.toContain(theirDevice.id);
     expect(JSON.stringify(list.urls)).not.toContain(theirs.id);
+  });
+
+  it('keeps the photos already in a kept card\'s field log, this team\'s only; not unused uploads, other files or share links', async () => {
+    const tech = team.members.technician;
+    const m = await makeMachine(team.members.engineer);
+    const d = await makeDevice(team.members.engineer, m.id);
+    const photo = (name: string) => upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'photo' }, PNG_BYTES, name, 'image/png');
+    const inLog = await photo('in-the-log.png');
+    const unused = await photo('not-in-an-entry.png');
+    const cfg = await upload(tech, { ownerType: 'device', ownerId: d.id, kind: 'config' }, PNG_BYTES, 'drive.cfg');
+    for (const r of [inLog, unused, cfg]) expect(r.status, JSON.stringify(r.body)).toBe(201);
+    await logEntry(tech, d.id, { kind: 'verified', note: 'Photo of the new unit', photoIds: [inLog.body.id] });
+    // Another team's photo in its own field log: never in this team's list, even when asked for its machine.
+    const theirMachine = await makeMachine(other.members.owner);
+    const theirDevice = await makeDevice(other.members.owner, theirMachine.id);
+    const theirs = await upload(other.members.technician, { ownerType: 'device', ownerId: theirDevice.id, kind: 'photo' }, PNG_BYTES, 'theirs.png', 'image/png');
+    await logEntry(other.members.technician, theirDevice.id, { kind: 'verified', photoIds: [theirs.body.id] });
+
+    const list = expectOk(await tech.get(`/api/field/kept?machine=${m.id}&machine=${theirMachine.id}`));
+    const photos = list.urls.filter((u: string) => /^\/api\/attachments\/[^?]+$/.test(u));
+    expect(photos).toEqual([`/api/attachments/${inLog.body.id}`]);
+    expect(JSON.stringify(list.urls)).not.toContain(theirs.body.id);
+    expect(list.urls.some((u: string) => u.startsWith('/s/'))).toBe(false);
+    // What the phone fetches is the photo itself, answered to this team's members.
+    const got = await tech.get(photos[0]);
+    expect(got.status).toBe(200);
+    expect(got.headers.get('content-type')).toBe('image/png');
   });
 
   it('answers no-store like every signed-in answer: only the Cache API keeps a copy, on the phone\'s request (decisions 007 and 017)', async () => {

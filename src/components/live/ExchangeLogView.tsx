@@ -8,9 +8,9 @@ const DIR = { sent: 'TX', received: 'RX', 'line-error': 'ERR', note: '—' } as 
 export function ExchangeLogView({ entries }: { entries: readonly ExchangeLogEntry[] }) {
   return (
     <div className="grid gap-2">
-      <h3>ExchangeLog</h3>
+      <h3>Exchange log</h3>
       {entries.length === 0 ? <p className="text-sm text-muted">Nothing sent or received yet.</p> : (
-        <div className="overflow-x-auto max-h-80 overflow-y-auto border border-line rounded">
+        <div className="overflow-x-auto max-h-80 overflow-y-auto border border-line rounded" tabIndex={0} role="region" aria-label="Exchange log entries">
           <table className="table text-sm" data-testid="live-exchange-log">
             <thead><tr><th>ms</th><th>Dir</th><th>Bytes</th></tr></thead>
             <tbody>

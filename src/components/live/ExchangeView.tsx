@@ -6,6 +6,8 @@ import type { Template } from '../../lib/frame/template';
 import { ms } from '../../lib/composer/format';
 import { LINE_ERROR_TEXT, type Exchange } from '../../lib/live/session';
 import { FindingsList } from '../composer/FindingsList';
+import type { ChecksumVerdict, DecodedField } from '../../lib/frame/decode-reply';
+import type { Finding } from '../../lib/frame/findings';
 
 /** What to check, in order, when a device does not answer (common practice). */
 export const NO_REPLY_CAUSES = [
@@ -22,6 +24,7 @@ const ENDED: Record<Exchange['endedBy'], string> = {
   length: 'ended at the reply template length',
   silence: 'ended at a silence',
   timeout: 'no reply',
+  'none-expected': 'no reply expected',
 };
 
 function Notations({ bytes, testId }: { bytes: Uint8Array; testId: string }) {
@@ -51,7 +54,9 @@ export function ExchangeView({ x, atMs, replyTemplate, responseTimeoutMs }: { x:
       {x.lineErrors.length > 0 && (
         <p className="notice notice-bad" role="alert" data-testid="live-line-error">{LINE_ERROR_TEXT} ({x.lineErrors.length} {x.lineErrors.length === 1 ? 'error' : 'errors'}; the link carries on.)</p>
       )}
-      {x.reply.length === 0 ? (
+      {x.reply.length === 0 && x.endedBy === 'none-expected' ? (
+        <p className="text-sm text-muted" data-testid="live-none-expected">No reply expected, and none came.</p>
+      ) : x.reply.length === 0 ? (
         <div className="notice notice-bad" role="alert" data-testid="live-timeout">
           <p className="font-semibold">No reply within the response timeout ({responseTimeoutMs} ms). Check, in this order:</p>
           <ol className="list-decimal pl-5 text-sm">{NO_REPLY_CAUSES.map((c) => <li key={c}>{c}</li>)}</ol>
@@ -66,31 +71,36 @@ export function ExchangeView({ x, atMs, replyTemplate, responseTimeoutMs }: { x:
           </p>
         </>
       )}
-      {decoded && replyTemplate && (
-        <div className="grid gap-2" data-testid="live-decoded">
-          {decoded.checksums.map((c) => {
-            const seg = replyTemplate.segments.find((s) => s.id === c.segmentId);
-            const width = (seg?.type === 'checksum' ? resolveChecksum(seg)?.width : undefined) ?? 8;
-            return (
-              <p key={c.segmentId} className={`notice ${c.ok ? 'notice-ok' : 'notice-bad'}`} data-testid="live-checksum" data-ok={c.ok}>
-                <b>{c.ok ? 'Checksum good' : 'Checksum wrong'}</b> · {c.algorithm}: expected <span className="mono">{formatChecksumValue(c.expected, width)}</span>, received{' '}
-                <span className="mono">{c.received === null ? 'unreadable' : formatChecksumValue(c.received, width)}</span>
-              </p>
-            );
-          })}
-          {Object.keys(decoded.fields).length > 0 && (
-            <table className="table" data-testid="live-fields">
-              <thead><tr><th>Field</th><th>Received</th><th>Value</th></tr></thead>
-              <tbody>
-                {Object.entries(decoded.fields).map(([name, f]) => (
-                  <tr key={name}><td className="mono">{name}</td><td className="mono">{f.text}</td><td className="mono">{String(f.value ?? '–')}</td></tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-          <FindingsList findings={decoded.findings} empty="The reply matches the reply template." />
-        </div>
-      )}
+      {decoded && replyTemplate && <DecodedView decoded={decoded} template={replyTemplate} />}
     </li>
+  );
+}
+
+/** A reply read against its template: each checksum's verdict, the fields, the findings. */
+export function DecodedView({ decoded, template }: { decoded: { checksums: ChecksumVerdict[]; fields: Record<string, DecodedField>; findings: Finding[] }; template: Template }) {
+  return (
+    <div className="grid gap-2" data-testid="live-decoded">
+      {decoded.checksums.map((c) => {
+        const seg = template.segments.find((s) => s.id === c.segmentId);
+        const width = (seg?.type === 'checksum' ? resolveChecksum(seg)?.width : undefined) ?? 8;
+        return (
+          <p key={c.segmentId} className={`notice ${c.ok ? 'notice-ok' : 'notice-bad'}`} data-testid="live-checksum" data-ok={c.ok}>
+            <b>{c.ok ? 'Checksum good' : 'Checksum wrong'}</b> · {c.algorithm}: expected <span className="mono">{formatChecksumValue(c.expected, width)}</span>, received{' '}
+            <span className="mono">{c.received === null ? 'unreadable' : formatChecksumValue(c.received, width)}</span>
+          </p>
+        );
+      })}
+      {Object.keys(decoded.fields).length > 0 && (
+        <table className="table" data-testid="live-fields">
+          <thead><tr><th>Field</th><th>Received</th><th>Value</th></tr></thead>
+          <tbody>
+            {Object.entries(decoded.fields).map(([name, f]) => (
+              <tr key={name}><td className="mono">{name}</td><td className="mono">{f.text}</td><td className="mono">{String(f.value ?? '–')}</td></tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      <FindingsList findings={decoded.findings} empty="The reply matches the reply template." />
+    </div>
   );
 }

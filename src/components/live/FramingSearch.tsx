@@ -23,11 +23,15 @@ interface Props {
   /** Closes the link before the search and reopens it after (at the stored settings), noting what happened. */
   pause: () => Promise<void>;
   resume: (note: string | null) => Promise<void>;
+  /** Why a search cannot start now (a command or sequence is on the line), or null. */
+  blocked?: string | null;
+  /** Told when a search or setup starts and ends, so nothing else is sent meanwhile. */
+  onActive?: (active: boolean) => void;
 }
 
 const hex = (b: Uint8Array) => [...b].map((x) => x.toString(16).toUpperCase().padStart(2, '0')).join(' ');
 
-export function FramingSearch({ commands, port, settings, pause, resume }: Props) {
+export function FramingSearch({ commands, port, settings, pause, resume, blocked = null, onActive }: Props) {
   const queries = searchQueries(commands);
   const setups = setupCommands(commands);
   const [commandId, setCommandId] = useState(queries[0]?.id ?? '');
@@ -46,7 +50,8 @@ export function FramingSearch({ commands, port, settings, pause, resume }: Props
   const found = answered.find((r) => r.shorthand === foundAt) ?? answered[0] ?? null;
 
   const run = async () => {
-    if (!query) return;
+    if (!query || blocked) return;
+    onActive?.(true);
     setError(null);
     setResults(null);
     setSetup(null);
@@ -65,11 +70,13 @@ export function FramingSearch({ commands, port, settings, pause, resume }: Props
     } finally {
       setRunning(null);
       await resume(note).catch((e) => setError(`The port could not be opened again at the stored settings: ${e instanceof Error ? e.message : String(e)}`));
+      onActive?.(false);
     }
   };
 
   const sendSetup = async () => {
-    if (!query || !found) return;
+    if (!query || !found || blocked) return;
+    onActive?.(true);
     setConfirming(false);
     setError(null);
     setSettingUp(true);
@@ -85,6 +92,7 @@ export function FramingSearch({ commands, port, settings, pause, resume }: Props
     } finally {
       setSettingUp(false);
       await resume(note).catch((e) => setError(`The port could not be opened again at the stored settings: ${e instanceof Error ? e.message : String(e)}`));
+      onActive?.(false);
     }
   };
 
@@ -104,7 +112,8 @@ export function FramingSearch({ commands, port, settings, pause, resume }: Props
             <select id="live-search-command" className="input" value={commandId} onChange={(e) => setCommandId(e.target.value)}>
               {queries.map((q) => <option key={q.id} value={q.id}>{q.name}</option>)}
             </select></div>
-          <div><button className="btn btn-quiet" disabled={!!running || settingUp}>{running ? `Trying ${running.done + 1} of ${running.total}…` : 'Search'}</button></div>
+          {blocked && !running && <p className="text-sm text-muted">{blocked}</p>}
+          <div><button className="btn btn-quiet" disabled={!!running || settingUp || !!blocked}>{running ? `Trying ${running.done + 1} of ${running.total}…` : 'Search'}</button></div>
         </form>
       )}
       {error && <p className="notice notice-bad" role="alert">{error}</p>}

@@ -11,6 +11,9 @@ import type { Template } from '../../lib/frame/template';
 import { createFakeSerial, type FakeSerial } from '../../lib/live/fake-serial';
 import { openPlan, serialUnavailable, type SerialLike, type SerialPortLike } from '../../lib/live/serial';
 import { LiveLink, type Exchange } from '../../lib/live/session';
+import { liveSequences, runSequence, type LiveSequence, type SequenceRun } from '../../lib/live/sequence-send';
+import type { SequenceMode } from '../../lib/frame/sequence-limits';
+import { SequenceRunView } from './SequenceRunView';
 import { exchangeLogText } from '../../lib/live/exchange-log';
 import { ControlLines } from './ControlLines';
 import { ExchangeView } from './ExchangeView';
@@ -24,7 +27,7 @@ import { ExchangeLogView } from './ExchangeLogView';
 type Through = 'port' | 'simulator';
 const THROUGH_TEXT: Record<Through, string> = { port: 'a serial port', simulator: 'the simulated device (no hardware)' };
 
-interface Sent { x: Exchange; atMs: number; replyTemplate: Template | null }
+type Sent = { id: number; atMs: number } & ({ x: Exchange; replyTemplate: Template | null } | { run: SequenceRun });
 
 /** `navigator.serial` where the browser has it (typed here: the DOM library of this project does not declare it). */
 function browserSerial(): { serial: SerialLike | undefined; secure: boolean } {
@@ -58,6 +61,11 @@ export function LinkPanel({ label, ports, commands, commandsNoun, fieldLog }: Li
   const [error, setError] = useState<string | null>(null);
   const [sent, setSent] = useState<Sent[]>([]);
   const [busy, setBusy] = useState(false);
+  const [searching, setSearching] = useState(false);
+  const [runningSequence, setRunningSequence] = useState(false);
+  const stopSequence = useRef<AbortController | null>(null);
+  const nextId = useRef(0);
+  const sequences = useMemo(() => liveSequences(library), [library]);
   const [, redraw] = useReducer((n: number) => n + 1, 0);
 
   useEffect(() => link?.subscribe(redraw), [link]);
@@ -111,10 +119,32 @@ export function LinkPanel({ label, ports, commands, commandsNoun, fieldLog }: Li
     try {
       const atMs = link.elapsed();
       const x = await link.exchange(bytes, label, replyTemplate);
-      setSent((list) => [{ x, atMs, replyTemplate }, ...list]);
+      setSent((list) => [{ id: nextId.current++, x, atMs, replyTemplate }, ...list]);
     } catch (e) {
       setError(e instanceof Error ? e.message : String(e));
     } finally {
+      setBusy(false);
+    }
+  };
+
+  /** Sends a saved sequence (after the caller's machinery confirmation); its entry in the replies follows each step. */
+  const sendSequence = async (seq: LiveSequence, mode: SequenceMode) => {
+    if (!link || busy || searching) return;
+    setBusy(true);
+    setError(null);
+    const id = nextId.current++;
+    const atMs = link.elapsed();
+    const stop = new AbortController();
+    stopSequence.current = stop;
+    setRunningSequence(mode === 'separate');
+    const show = (run: SequenceRun) => setSent((list) => (list.some((s) => s.id === id) ? list.map((s) => (s.id === id ? { id, atMs, run } : s)) : [{ id, atMs, run }, ...list]));
+    try {
+      await runSequence(link, seq, { mode, signal: stop.signal, progress: show });
+    } catch (e) {
+      setError(e instanceof Error ? e.message : String(e));
+    } finally {
+      stopSequence.current = null;
+      setRunningSequence(false);
       setBusy(false);
     }
   };
@@ -164,12 +194,18 @@ export function LinkPanel({ label, ports, commands, commandsNoun, fieldLog }: Li
           {settingsChanged && <p className="notice notice-warn text-sm" role="status" data-testid="live-settings-changed">The port settings changed since the link opened; disconnect and connect again to use them.</p>}
           {/* Keyed by the link: a setup command may have changed the simulator's framing while the link was closed. */}
           {fake && through === 'simulator' && <SimulatorControls key={link.openedAt.getTime()} fake={fake} commands={library} />}
-          <SendPanel commands={library} busy={busy} send={(b, l, t) => void send(b, l, t)} />
+          <SendPanel library={library} busy={busy || searching} send={(b, l, t) => void send(b, l, t)}
+            sequences={{
+              sequences, running: runningSequence, blocked: searching ? 'A framing search has the port; send the sequence when it is done.' : null,
+              send: (s, m) => void sendSequence(s, m), stop: () => stopSequence.current?.abort(),
+            }} />
           {sent.length > 0 && (
             <div className="grid gap-2">
               <h3>Replies</h3>
               <ul className="grid gap-2" aria-live="polite">
-                {sent.map((s, i) => <ExchangeView key={sent.length - i} x={s.x} atMs={s.atMs} replyTemplate={s.replyTemplate} responseTimeoutMs={link.settings.responseTimeoutMs} />)}
+                {sent.map((s) => ('run' in s
+                  ? <SequenceRunView key={s.id} run={s.run} atMs={s.atMs} responseTimeoutMs={link.settings.responseTimeoutMs} />
+                  : <ExchangeView key={s.id} x={s.x} atMs={s.atMs} replyTemplate={s.replyTemplate} responseTimeoutMs={link.settings.responseTimeoutMs} />))}
               </ul>
             </div>
           )}
@@ -179,6 +215,8 @@ export function LinkPanel({ label, ports, commands, commandsNoun, fieldLog }: Li
               commands={library}
               port={serialPort.current}
               settings={link.settings}
+              blocked={busy ? 'Wait for what is on the line to finish first.' : null}
+              onActive={setSearching}
               pause={() => link.close()}
               resume={async (note) => {
                 const l = await start(serialPort.current!);

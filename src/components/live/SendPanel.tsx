@@ -1,5 +1,6 @@
-/** Send a library command (saved values or a preset) or typed bytes; commands that move machinery ask first. */
-import { useEffect, useState } from 'react';
+/** Send a library command (saved values or a preset), a saved sequence, or typed bytes; whatever moves machinery asks first. */
+import { type ComponentProps, useEffect, useMemo, useState } from 'react';
+import { SequenceSend } from './SequenceSend';
 import { Caution } from '../ui/Caution';
 import { BytesInput, useBytesInput } from '../composer/BytesInput';
 import { commandRequest, simulatedCommands, type LibraryCommand } from './library';
@@ -7,12 +8,16 @@ import { recognise } from '../../lib/live/simulator';
 import type { Template } from '../../lib/frame/template';
 
 interface Props {
-  commands: LibraryCommand[];
+  /** The library: single commands and saved sequences. */
+  library: LibraryCommand[];
   busy: boolean;
   send: (bytes: Uint8Array, label: string, replyTemplate: Template | null) => void;
+  /** Sending a saved sequence (its own form below the commands). */
+  sequences: Omit<ComponentProps<typeof SequenceSend>, 'busy'>;
 }
 
-export function SendPanel({ commands, busy, send }: Props) {
+export function SendPanel({ library, busy, send, sequences }: Props) {
+  const commands = useMemo(() => library.filter((c) => !c.sequence), [library]);
   const [commandId, setCommandId] = useState(commands[0]?.id ?? '');
   const [preset, setPreset] = useState<string>('');
   const [confirming, setConfirming] = useState(false);
@@ -74,6 +79,7 @@ export function SendPanel({ commands, busy, send }: Props) {
         )}
         {!confirming && command && <div><button type="submit" className="btn" disabled={busy || !request?.ok}>{busy ? 'Waiting for the reply…' : 'Send'}</button></div>}
       </form>
+      <SequenceSend {...sequences} busy={busy} />
       <form className="grid gap-2" onSubmit={(e) => { e.preventDefault(); sendTyped(); }} aria-label="Send typed bytes">
         <h3>Send typed bytes</h3>
         <BytesInput input={input} id="live-typed" label="Bytes to send" placeholder="e.g. 1?STA*48$0D or 31 3F 53 54 41 2A 34 38 0D" showLength />

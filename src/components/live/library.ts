@@ -5,6 +5,7 @@ import { presetValues, type CommandPreset } from '../../lib/composer/presets';
 import type { SimulatedCommand } from '../../lib/live/simulator';
 import { setupValues } from '../../lib/live/setup';
 import type { LineSettings } from '../../lib/frame/port-settings';
+import type { SavedSequence, StepInfo } from '../../lib/composer/saved-sequence';
 
 export interface LibraryCommand {
   id: string;
@@ -15,7 +16,9 @@ export interface LibraryCommand {
   /** A setup command, offered after a framing search. */
   setsUpDevice: boolean;
   /** Set for a sequence (its own template is empty). */
-  sequence?: unknown;
+  sequence?: SavedSequence | null;
+  /** A sequence's steps as the server sees them: names, and the gap where a step's command is in the trash or purged. */
+  steps?: StepInfo[];
   template: Template;
   fieldValues: FieldValues;
   presets: CommandPreset[];
@@ -30,8 +33,9 @@ export function commandRequest(c: LibraryCommand, preset: string | null): { byte
   return { bytes: frame.bytes, label: p ? `${c.name}: ${p.name}` : c.name, ok: frame.ok };
 }
 
+/** The simulated device knows the single commands (a sequence is its steps' commands, sent one after another). */
 export const simulatedCommands = (list: readonly LibraryCommand[]): SimulatedCommand[] =>
-  list.map((c) => ({ id: c.id, name: c.name, template: c.template, replyTemplate: c.replyTemplate, ...(c.setsUpDevice ? { setsUpDevice: true } : {}) }));
+  list.filter((c) => !c.sequence).map((c) => ({ id: c.id, name: c.name, template: c.template, replyTemplate: c.replyTemplate, ...(c.setsUpDevice ? { setsUpDevice: true } : {}) }));
 
 /** A setup command as sent to a replacement: its saved values, with its line fields set from the stored framing. */
 export function setupRequest(c: LibraryCommand, line: LineSettings): { bytes: Uint8Array; ok: boolean } {

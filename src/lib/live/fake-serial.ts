@@ -4,8 +4,9 @@
  * `readable`/`writable` streams, `setSignals`, `getSignals`, `close`) and its far end is the simulated device.
  * Used by "try it without hardware" and by the browser tests; it keeps what was opened and written as evidence.
  *
- * Each write is one request. The reply arrives in one chunk when its last byte would have: after the request's
- * time on the wire, the simulator's response delay and the reply's time on the wire. At a character read with a
+ * A write may hold several requests (a sequence sent as one string): the device reads them one per terminator
+ * (`answerWrite`) and answers each in turn, each reply after its request has arrived, the reply before it has
+ * gone out, and the response delay. A reply arrives in one chunk when its last byte would have. At a character read with a
  * framing or parity error, the bytes before it are delivered, then the readable stream errors with a
  * `FramingError` / `ParityError` DOMException and `readable` is replaced by a new stream that carries on with
  * the bad character and the rest, as Web Serial does (the character itself is passed on, as most drivers do). Control lines behave like a
@@ -14,7 +15,7 @@
 import type { LineSettings } from '../frame/port-settings';
 import { charTimeMs } from '../frame/timing';
 import type { InputSignals, LinkOpenOptions, OutputSignals, SerialLike, SerialPortLike } from './serial';
-import { answer, type SimulatorAnswer, type SimulatorSettings } from './simulator';
+import { answerWrite, type SimulatorAnswer, type SimulatorSettings } from './simulator';
 
 export interface FakeSerialEvidence {
   opened: LinkOpenOptions[];
@@ -66,13 +67,24 @@ class FakePort implements SerialPortLike {
     const bytes = Uint8Array.from(chunk);
     this.owner.evidence.written.push([...bytes]);
     const opener = lineOf(this.options);
-    const a = answer(this.owner.sim(), bytes, opener);
-    this.owner.evidence.answers.push({ command: a.command, silence: a.silence, framingErrors: a.framingErrors, parityErrors: a.parityErrors });
-    // The reply above went out at the old framing; the next request meets the new one.
-    if (a.lineAfter) this.owner.configure({ line: a.lineAfter });
-    if (this.out.break || !a.received.length) return;
+    const answers = answerWrite(this.owner.sim(), bytes, opener);
+    // The device's line is free again (ms from the write) once its last reply has gone out.
+    let free = 0;
+    for (const { end, answer: a } of answers) {
+      this.owner.evidence.answers.push({ command: a.command, silence: a.silence, framingErrors: a.framingErrors, parityErrors: a.parityErrors });
+      // The reply above went out at the old framing; the next request meets the new one.
+      if (a.lineAfter) this.owner.configure({ line: a.lineAfter });
+      if (this.out.break || !a.received.length) continue;
+      const start = Math.max(end * charTimeMs(opener), free) + a.delayMs;
+      free = start + a.replyWireMs;
+      this.deliver(a, start);
+    }
+  }
+
+  /** Delivers a reply whose first bit leaves `startMs` after the write. */
+  private deliver(a: SimulatorAnswer, startMs: number) {
     const last = a.received[a.received.length - 1]!;
-    const at = bytes.length * charTimeMs(opener) + a.delayMs + last.atUs / 1000;
+    const at = startMs + last.atUs / 1000;
     // Web Serial delivers what arrived before a bad character, then errors the stream; reading goes on in a new one.
     const parts: { bytes: number[]; error: string | null }[] = [{ bytes: [], error: null }];
     for (const c of a.received) {

@@ -7,7 +7,7 @@
 import type { PortSettings } from '../frame/port-settings';
 import type { Template } from '../frame/template';
 import { lineTiming } from '../frame/timing';
-import { replyComplete, replySilenceMs, type ReplyEnd } from './reply-end';
+import { replyComplete, replySilenceMs, stepsReplyProgress, type ReplyEnd } from './reply-end';
 import { type InputSignals, type LinkOpenOptions, type OutputSignals, type SerialPortLike, isRecoverableReadError, openPlan } from './serial';
 
 export type ExchangeLogEntry =
@@ -29,10 +29,27 @@ export interface Exchange {
   lineErrors: string[];
 }
 
+/** The replies of a sequence sent as one string: each step's reply template in step order, null for a step that expects none. */
+export interface StepReplies {
+  steps: readonly (Template | null)[];
+}
+
+export interface ExchangeOptions {
+  /** Milliseconds to wait for the first byte after the request's own time on the wire (default: the port's response timeout). */
+  timeoutMs?: number;
+  /**
+   * False: no reply is expected (a sequence step without a reply template). The exchange then waits only for the
+   * request's time on the wire and a silence, keeps whatever arrives meanwhile, and ends `none-expected` when nothing did.
+   */
+  expectReply?: boolean;
+}
+
 interface Pending {
   label: string;
   request: Uint8Array;
   template: Template | null;
+  steps: StepReplies | null;
+  timeoutMs: number;
   startMs: number;
   chunks: number[];
   lastMs: number | null;
@@ -127,9 +144,19 @@ export class LiveLink {
     if (p) {
       p.chunks.push(...bytes);
       p.lastMs = atMs;
-      const whole = replyComplete(p.template, this.settings, Uint8Array.from(p.chunks));
-      if (whole !== null) this.finish(p, p.template?.segments.some((s) => s.type === 'terminator') || (!p.template && this.settings.frameRules.terminator) ? 'terminator' : 'length');
-      else this.arm(p, replySilenceMs(this.settings), 'silence');
+      const got = Uint8Array.from(p.chunks);
+      if (p.steps) {
+        const progress = stepsReplyProgress(p.steps.steps, got);
+        const last = [...p.steps.steps].reverse().find((t) => t) ?? null;
+        if (progress.whole !== null) this.finish(p, last?.segments.some((s) => s.type === 'terminator') ? 'terminator' : 'length');
+        // One step's reply is whole and the device is working on the next: wait for it as for a first byte.
+        else if (progress.between) this.arm(p, p.timeoutMs, 'silence');
+        else this.arm(p, replySilenceMs(this.settings), 'silence');
+      } else {
+        const whole = replyComplete(p.template, this.settings, got);
+        if (whole !== null) this.finish(p, p.template?.segments.some((s) => s.type === 'terminator') || (!p.template && this.settings.frameRules.terminator) ? 'terminator' : 'length');
+        else this.arm(p, replySilenceMs(this.settings), 'silence');
+      }
     }
     this.changed();
   }
@@ -153,7 +180,7 @@ export class LiveLink {
     const reply = Uint8Array.from(p.chunks);
     const t = lineTiming(this.settings, p.request.length, reply.length);
     p.done({
-      label: p.label, request: p.request, reply, endedBy: reply.length ? endedBy : 'timeout',
+      label: p.label, request: p.request, reply, endedBy: reply.length || endedBy === 'none-expected' ? endedBy : 'timeout',
       roundTripMs: p.lastMs === null ? null : p.lastMs - p.startMs, wireMs: t.frameTimeMs + t.replyTimeMs, lineErrors: p.lineErrors,
     });
     this.changed();
@@ -165,18 +192,23 @@ export class LiveLink {
 
   /**
    * Sends `request` and waits for its reply: until the reply is whole (terminator or length), until a silence
-   * after its last byte, or until the port's response timeout passes without a byte (after the request's own
-   * time on the wire).
+   * after its last byte, or until the response timeout passes without a byte (after the request's own time on
+   * the wire). `reply` is the reply template, or for a sequence sent as one string each step's (`StepReplies`):
+   * the reply is whole when every step that expects one has its whole reply, in order.
    */
-  async exchange(request: Uint8Array, label: string, replyTemplate: Template | null): Promise<Exchange> {
+  async exchange(request: Uint8Array, label: string, reply: Template | StepReplies | null, options: ExchangeOptions = {}): Promise<Exchange> {
     if (this.pending) throw new Error('Wait for the reply to the last request first.');
     const writable = this.port.writable;
     if (!writable) throw new Error('The port is closed.');
+    const steps = reply && 'steps' in reply ? reply : null;
+    const template = reply && !('steps' in reply) ? reply : null;
+    const expectReply = options.expectReply !== false && (!steps || steps.steps.some((t) => t));
+    const timeoutMs = options.timeoutMs ?? this.settings.responseTimeoutMs;
     const bytes = Uint8Array.from(request);
     const startMs = this.elapsed();
     let done: (e: Exchange) => void = () => undefined;
     const result = new Promise<Exchange>((resolve) => { done = resolve; });
-    const p: Pending = { label, request: bytes, template: replyTemplate, startMs, chunks: [], lastMs: null, lineErrors: [], timer: null, done };
+    const p: Pending = { label, request: bytes, template, steps: expectReply ? steps : null, timeoutMs, startMs, chunks: [], lastMs: null, lineErrors: [], timer: null, done };
     this.pending = p;
     this.exchangeLog.push({ kind: 'sent', atMs: startMs, bytes, label });
     this.changed();
@@ -187,7 +219,9 @@ export class LiveLink {
       writer.releaseLock();
     }
     if (this.pending === p && p.chunks.length === 0) {
-      this.arm(p, this.settings.responseTimeoutMs + lineTiming(this.settings, bytes.length).frameTimeMs, 'timeout');
+      const onWire = lineTiming(this.settings, bytes.length).frameTimeMs;
+      if (expectReply) this.arm(p, timeoutMs + onWire, 'timeout');
+      else this.arm(p, onWire + replySilenceMs(this.settings), 'none-expected');
     }
     return result;
   }

@@ -11,6 +11,7 @@ import { decodeReply } from '../frame/decode-reply';
 import type { LineSettings } from '../frame/port-settings';
 import { isField, type FieldValues, type Template } from '../frame/template';
 import { charTimeMs } from '../frame/timing';
+import { templateFrameEnd } from './reply-end';
 import { type ReceivedChar, receiveAs, sameFraming } from './uart';
 
 export interface SimulatedCommand {
@@ -176,4 +177,62 @@ export function answer(settings: SimulatorSettings, request: Uint8Array, opener:
     command: { id: command.id, name: command.name }, silence: null, sent, received: read.value.chars, delayMs,
     replyWireMs: sent.length * charTimeMs(settings.line), framingErrors: read.value.framingErrors, parityErrors: read.value.parityErrors, lineAfter,
   };
+}
+
+/**
+ * The requests in one write, as a device that reads one command per terminator takes them (a sequence sent as
+ * one string): from the start, the shortest frame a library template both completes (`templateFrameEnd`) and
+ * recognises; failing that, the bytes up to the first terminator of any library template (a request the
+ * device does not know); failing that, the rest as one request.
+ */
+export function splitRequests(commands: readonly SimulatedCommand[], bytes: Uint8Array): Uint8Array[] {
+  const out: Uint8Array[] = [];
+  let rest = bytes;
+  while (rest.length) {
+    let end: number | null = null;
+    for (const c of commands) {
+      const n = templateFrameEnd(c.template, rest);
+      if (n !== null && n > 0 && (end === null || n < end) && decodeReply(c.template, rest.subarray(0, n)).ok) end = n;
+    }
+    if (end === null) {
+      for (const c of commands) {
+        if (!c.template.segments.some((s) => s.type === 'terminator')) continue;
+        const n = templateFrameEnd(c.template, rest);
+        if (n !== null && n > 0 && (end === null || n < end)) end = n;
+      }
+    }
+    if (end === null || end >= rest.length) {
+      out.push(rest);
+      break;
+    }
+    out.push(rest.subarray(0, end));
+    rest = rest.subarray(end);
+  }
+  return out;
+}
+
+/** One request of a write and the simulator's answer to it; `end` is where the request ends in the write (bytes). */
+export interface WriteAnswer {
+  request: Uint8Array;
+  end: number;
+  answer: SimulatorAnswer;
+}
+
+/**
+ * What the simulator does with one write: each request in it (`splitRequests`) answered in turn, a setup
+ * command's new framing applying to the requests after it. Garbled bytes (a framing mismatch with
+ * `hearsAnyFraming: false`) are split as the simulator's own UART reads them.
+ */
+export function answerWrite(settings: SimulatorSettings, bytes: Uint8Array, opener: LineSettings): WriteAnswer[] {
+  if (settings.hearsAnyFraming === false && !sameFraming(opener, settings.line)) {
+    return [{ request: bytes, end: bytes.length, answer: answer(settings, bytes, opener) }];
+  }
+  let sim = settings;
+  let end = 0;
+  return splitRequests(settings.commands, bytes).map((request) => {
+    const a = answer(sim, request, opener);
+    if (a.lineAfter) sim = { ...sim, line: a.lineAfter };
+    end += request.length;
+    return { request, end, answer: a };
+  });
 }

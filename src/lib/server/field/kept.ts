@@ -1,12 +1,12 @@
 /**
  * What a phone fetches to keep a machine's or a site's field cards for use without a network
  * (docs/decisions/017-offline-cards.md): the card pages (their QR links), the field-log and file lists the cards
- * read, the list page of kept cards and the sign-out page. Only the active team's live records: another team's ids and records in
+ * read, the photos in the kept devices' field logs, the list page of kept cards and the sign-out page. Only the active team's live records: another team's ids and records in
  * the trash come back as `missing`, with nothing to fetch.
  */
-import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from 'drizzle-orm';
 import { db } from '../../../db/client';
-import { device, machine } from '../../../db/schema';
+import { attachment, device, machine } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { can } from '../../permissions';
 import { Invalid, NotFound } from '../errors';
@@ -37,6 +37,28 @@ async function machinesWithDevices(ctx: TeamContext, ms: { id: string; name: str
     id: m.id, name: m.name, cardsUrl: `/field/machines/${m.id}`,
     devices: devices.filter((d) => d.machineId === m.id).map((d) => ({ id: d.id, tag: d.tag, name: d.name, cardUrl: `/field/devices/${d.id}` })),
   }));
+}
+
+/** Most bytes of field-log photos one phone keeps, newest first; older photos beyond it load only online. */
+export const KEPT_MAX_PHOTO_BYTES = 50 * 1024 * 1024;
+
+/**
+ * The photos already in these devices' field logs (claimed by an entry), this team's only, newest first, as long
+ * as they fit in KEPT_MAX_PHOTO_BYTES together. Unclaimed uploads and other files are not kept.
+ */
+async function fieldLogPhotos(ctx: TeamContext, deviceIds: string[]): Promise<string[]> {
+  if (!deviceIds.length) return [];
+  const rows = await db.select({ id: attachment.id, size: attachment.size }).from(attachment)
+    .where(and(eq(attachment.teamId, ctx.team.id), eq(attachment.ownerType, 'device'), inArray(attachment.ownerId, deviceIds), isNotNull(attachment.entryId), eq(attachment.kind, 'photo')))
+    .orderBy(desc(attachment.createdAt), desc(attachment.id));
+  const urls: string[] = [];
+  let bytes = 0;
+  for (const r of rows) {
+    if (bytes + r.size > KEPT_MAX_PHOTO_BYTES) break;
+    bytes += r.size;
+    urls.push(`/api/attachments/${r.id}`);
+  }
+  return urls;
 }
 
 async function orMissing<T>(load: () => Promise<T>): Promise<T | null> {
@@ -72,5 +94,6 @@ export async function keptCards(ctx: TeamContext, wanted: { machine: string[]; s
   const urls = ['/field/kept', '/sign-out'];
   for (const m of machines.values()) urls.push(m.cardsUrl, `/api/attachments?ownerType=machine&ownerId=${m.id}`);
   for (const d of devices.values()) urls.push(d.cardUrl, `/api/devices/${d.id}/field-log`, `/api/attachments?ownerType=device&ownerId=${d.id}`);
+  urls.push(...await fieldLogPhotos(ctx, [...devices.keys()]));
   return { teamId: ctx.team.id, userId: ctx.user.id, at: now.toISOString(), scopes, missing, urls, canLog: can(ctx.role, 'fieldLog:create') };
 }

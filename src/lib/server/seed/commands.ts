@@ -37,6 +37,11 @@ const commands = [
   { id: 'cmd_demo_drv501_line', name: 'Set service line', purpose: 'Bring a replacement drive from its factory framing to the service port\'s stored settings', template: lineSetupTemplate,
     fieldValues: { address: 1, baud: 9600, parity: 'none', dataBits: 8, stopBits: 1 }, replyTemplate: lineAckTemplate, movesMachinery: false, setsUpDevice: true, rawUnits: {},
     notes: 'The drive acknowledges with 1=LIN:OK*79 then CR at the framing it heard, then changes its own.' },
+  // A saved sequence of the two above: the index move (acknowledged), then the status query to see where it arrived.
+  { id: 'cmd_demo_drv501_index_report', name: 'Index and report', purpose: 'Index one station, then ask the position to see that the turret arrived',
+    template: { version: 1, segments: [] }, fieldValues: {}, movesMachinery: true, rawUnits: {},
+    sequence: { mode: 'separate', delayMs: 50, steps: [{ commandId: 'cmd_demo_drv501_index', values: {}, waitForReplyMs: 500 }, { commandId: 'cmd_demo_drv501_status', values: {} }] },
+    notes: 'Sent separately: the status query goes 50 ms after the index acknowledgement. The acknowledgement comes when the move starts, so the position may still be on its way.' },
 ];
 
 export async function seedCommands(ids: Record<Role, string>): Promise<void> {
