@@ -7,7 +7,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { browserPool, DESKTOP, PHONE, shot, signIn, visit } from './helpers/browser';
+import { browserPool, DESKTOP, hydrated, PHONE, shot, signIn, visit } from './helpers/browser';
+import { runSt } from '../plc/st-eval';
 
 const browser = browserPool();
 const DEVICE = 'dev_demo_drv501';
@@ -32,6 +33,20 @@ const distance = {
 async function noOverflow(page: Page, what: string) {
   const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: window.innerWidth }));
   expect(scroll, `${what}: page ${scroll} px wide in a ${width} px window`).toBeLessThanOrEqual(width);
+}
+
+/** Through the API: a velocity command and a two-step sequence of it and an inline 45° distance, sent as one string. */
+async function twoStep(page: Page, run: string) {
+  const origin = new URL(page.url()).origin;
+  const post = async (data: object) => {
+    const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
+    expect(res.status(), await res.text()).toBe(201);
+    return (await res.json()) as { id: string };
+  };
+  const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
+  const steps = [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }];
+  const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', delayMs: 0, steps } });
+  return { speed, steps, seq };
 }
 
 describe('saved sequences in the browser', () => {
@@ -84,12 +99,21 @@ describe('saved sequences in the browser', () => {
     await page.getByText('Saved · version 1').waitFor();
     const url = page.url();
     expect(await page.getByTestId('notation-iecLiteral').textContent()).toBe(`'${MOVE}'`);
+    // Its PLC code: one FUNCTION joining the four steps; with the steps' values written as constants it builds
+    // exactly the string above (run in the test evaluator, tests/plc/st-eval.ts).
+    const plc = page.getByTestId('plc-code');
+    await plc.getByText('Structured Text that builds this sequence from its fields at run time').click();
+    await plc.getByLabel("Write each step's values as constants (otherwise every field is an input)").check();
+    await expect.poll(() => plc.getByTestId('plc-code-text').textContent()).toMatch(new RegExp(`FUNCTION Four_move_${run} : STRING\\(`, 'i'));
+    expect(runSt((await plc.getByTestId('plc-code-text').textContent())!, {}).result).toBe(MOVE.replaceAll('$0D', '\r'));
     // sent separately with a 5 ms pause: python3: 58.333 + 3 × 5 = 73.333 ms from the first byte to the last
     await page.getByLabel('As separate sends, one per step').check();
     await page.getByLabel('Pause between sends').fill('5');
     await expect.poll(() => page.getByTestId('sequence-total-ms').textContent()).toBe('73.333 ms');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved · version 2').waitFor();
+    // sent separately, the PLC builds each send on its own: one FUNCTION per step
+    expect(await plc.getByTestId('plc-code-text').textContent()).toMatch(/separate sends: send what each function below builds, in order, pausing 5 ms between sends[\s\S]*_step_4 : STRING\(/);
 
     await visit(page, DRIVE);
     const item = page.locator(`[data-command="Four-move ${run}"]`);
@@ -123,14 +147,7 @@ describe('saved sequences in the browser', () => {
     await signIn(page, 'engineer@fernhollow.test');
     const origin = new URL(page.url()).origin;
     const run = Date.now().toString(36);
-    const post = async (data: object) => {
-      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
-      expect(res.status(), await res.text()).toBe(201);
-      return (await res.json()) as { id: string };
-    };
-    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
-    const steps = [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }];
-    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', delayMs: 0, steps } });
+    const { speed, steps, seq } = await twoStep(page, run);
 
     await visit(page, `${DRIVE}/${seq.id}`);
     await page.getByText('Saved · version 1').waitFor();
@@ -171,15 +188,8 @@ describe('saved sequences in the browser', () => {
     const b = await browser({ viewport: DESKTOP });
     const page = b.page;
     await signIn(page, 'engineer@fernhollow.test');
-    const origin = new URL(page.url()).origin;
     const run = Date.now().toString(36);
-    const post = async (data: object) => {
-      const res = await page.request.fetch('/api/commands', { method: 'POST', headers: { origin }, data: { deviceId: DEVICE, portName: PORT, ...data } });
-      expect(res.status(), await res.text()).toBe(201);
-      return (await res.json()) as { id: string };
-    };
-    const speed = await post({ name: `Velocity ${run}`, template: setting('S', 'speed', 'Velocity', 'rev/s', 10), fieldValues: { address: 1, speed: 0.5 } });
-    const seq = await post({ name: `Two-step ${run}`, template: { version: 1, segments: [] }, sequence: { mode: 'one-string', steps: [{ commandId: speed.id, values: {} }, { template: distance, values: { address: 1, angle: 45 } }] } });
+    const { seq } = await twoStep(page, run);
 
     await visit(page, DRIVE);
     // The server's first answer to the move is the 409 naming the sequences (the question that follows is the point).
@@ -201,5 +211,29 @@ describe('saved sequences in the browser', () => {
     await page.getByText('In the trash (', { exact: false }).click();
     await page.getByRole('listitem').filter({ hasText: `Velocity ${run}` }).getByRole('button', { name: 'Restore' }).click();
     await expect.poll(() => steps.locator('li').first().textContent()).toBe(`Velocity ${run}`);
+  });
+
+  it('keeps what was typed into the name and purpose before the page became interactive', async () => {
+    const b = await browser({ viewport: PHONE });
+    const page = b.page;
+    await signIn(page, 'engineer@fernhollow.test');
+    const run = Date.now().toString(36);
+    // Hold the page's scripts (as a slow phone on plant Wi-Fi would) until the fields are filled.
+    let release!: () => void;
+    const held = new Promise<void>((r) => { release = r; });
+    await page.route('**/_astro/**/*.js', async (route) => { await held; await route.continue(); });
+    await page.goto(`${DRIVE}/new?kind=sequence`, { waitUntil: 'commit' });
+    await page.getByLabel('Purpose').waitFor();
+    expect(await page.locator('astro-island[ssr]').count()).toBeGreaterThan(0);
+    await page.getByLabel('Command name').fill(`Typed early ${run}`);
+    await page.getByLabel('Purpose').fill('before the scripts came');
+    release();
+    await hydrated(page);
+    await page.getByTestId('add-step-command').selectOption({ index: 1 });
+    await page.getByRole('button', { name: 'Add step', exact: true }).click();
+    await page.getByTestId('sequence-step').first().waitFor();
+    expect(await page.getByLabel('Command name').inputValue()).toBe(`Typed early ${run}`);
+    expect(await page.getByLabel('Purpose').inputValue()).toBe('before the scripts came');
+    await page.unroute('**/_astro/**/*.js');
   });
 });

@@ -7,7 +7,7 @@ import { describe, expect, inject, test } from 'vitest';
 import { createTeamWithRoles } from '../helpers/client';
 import { runSt } from '../plc/st-eval';
 import { jogTemplate, makeCommand } from './command-fixtures';
-import { makeDevice } from './vault-fixtures';
+import { makeDevice, makeMachine } from './vault-fixtures';
 
 const post = async (body: unknown) => {
   const res = await fetch(`${inject('baseUrl')}/api/tools/st`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
@@ -77,5 +77,35 @@ describe('GET /api/devices/{id}/plc-code', () => {
     const pou = text.slice(text.indexOf('FUNCTION L1_Jog_Plus_1_Back'), text.lastIndexOf('END_FUNCTION') + 'END_FUNCTION'.length);
     expect(runSt(pou, {}).result).toBe('1!JOG:-100\r');
     expect((await owner.request('GET', `/api/devices/${device.id}/plc-code?prefix=a__b`)).status).toBe(422);
+  });
+});
+
+describe('a sequence and a machine in the .st files', () => {
+  test("the device's file builds a sequence from its steps; the machine's file has every device, named by tag", async () => {
+    const team = await createTeamWithRoles();
+    const owner = team.members.owner;
+    const machine = await makeMachine(owner);
+    const a = await makeDevice(owner, machine.id);
+    const b = await makeDevice(owner, machine.id);
+    const jog = await makeCommand(owner, { deviceId: a.id }, { name: 'Nudge' });
+    await makeCommand(owner, { deviceId: b.id }, { name: 'Nudge' });
+    const seq = await owner.post('/api/commands', { deviceId: a.id, name: 'Out and back', template: { version: 1, segments: [] },
+      sequence: { mode: 'one-string', steps: [{ commandId: jog.id, values: { angle: 2 } }, { commandId: jog.id, values: { angle: -3 } }] } });
+    expect(seq.status, JSON.stringify(seq.body)).toBe(201);
+
+    const file = (await team.members.viewer.request('GET', `/api/devices/${a.id}/plc-code`)).body as string;
+    const pou = (name: string) => file.slice(file.indexOf(`FUNCTION ${name} :`), file.indexOf('END_FUNCTION', file.indexOf(`FUNCTION ${name} :`)) + 12);
+    // Worked by hand: 2° → +200 steps, −3° → −300 steps, each step with its own CR.
+    expect(runSt(pou('Out_and_back_as_saved'), {}).result).toBe('1!JOG:+200\r1!JOG:-300\r');
+    expect(runSt(pou('Out_and_back'), { angle: 100, angle_2: -100 }).result).toBe('1!JOG:+100\r1!JOG:-100\r');
+
+    const res = await team.members.technician.request('GET', `/api/machines/${machine.id}/plc-code?prefix=K1_`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="Line-[A-Za-z0-9-]+\.st"$/);
+    const all = res.body as string;
+    expect(all.match(/CAUTION/g)).toHaveLength(1);
+    for (const d of [a, b]) expect(all).toContain(`FUNCTION K1_${d.tag.replace(/-/g, '_')}_Nudge : STRING(`);
+    expect(all).toContain(`FUNCTION K1_${a.tag.replace(/-/g, '_')}_Out_and_back_as_saved : STRING(`);
+    expect((await owner.request('GET', `/api/machines/${machine.id}/plc-code?prefix=9x`)).status).toBe(422);
   });
 });

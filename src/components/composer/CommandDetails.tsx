@@ -1,24 +1,40 @@
+import { useEffect, useRef } from 'react';
 import type { CommandDraft } from './types';
+
+type Typed = 'name' | 'purpose' | 'notes';
 
 /**
  * Name, purpose, notes and the marks: moves machinery, and for a single command the live link's two (safe to
  * repeat in a framing search, setup command after one). A command that moves machinery cannot be safe to repeat.
  */
 export function CommandDetails({ draft, onChange, readOnly, sequence = false }: { draft: CommandDraft; onChange: (patch: Partial<CommandDraft>) => void; readOnly: boolean; sequence?: boolean }) {
+  // Text typed into the server-rendered fields before the island hydrated is in the page but not in the draft:
+  // take it into the draft once, at mount, before a later render would put the draft's text back.
+  const fields = useRef<Partial<Record<Typed, HTMLInputElement | HTMLTextAreaElement | null>>>({});
+  useEffect(() => {
+    if (readOnly) return;
+    const typed: Partial<CommandDraft> = {};
+    for (const k of ['name', 'purpose', 'notes'] as const) {
+      const el = fields.current[k];
+      if (el && el.value !== draft[k]) typed[k] = el.value;
+    }
+    if (Object.keys(typed).length) onChange(typed);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
   return (
     <div className="grid gap-3 sm:grid-cols-2">
       <div>
         <label htmlFor="cmd-name" className="label">Command name</label>
-        <input id="cmd-name" className="input" value={draft.name} readOnly={readOnly} aria-invalid={!draft.name.trim()} onChange={(e) => onChange({ name: e.target.value })} />
+        <input id="cmd-name" ref={(el) => { fields.current.name = el; }} className="input" value={draft.name} readOnly={readOnly} aria-invalid={!draft.name.trim()} onChange={(e) => onChange({ name: e.target.value })} />
         {!draft.name.trim() && <p className="field-error">Enter a command name.</p>}
       </div>
       <div>
         <label htmlFor="cmd-purpose" className="label">Purpose</label>
-        <input id="cmd-purpose" className="input" value={draft.purpose} readOnly={readOnly} onChange={(e) => onChange({ purpose: e.target.value })} />
+        <input id="cmd-purpose" ref={(el) => { fields.current.purpose = el; }} className="input" value={draft.purpose} readOnly={readOnly} onChange={(e) => onChange({ purpose: e.target.value })} />
       </div>
       <div className="sm:col-span-2">
         <label htmlFor="cmd-notes" className="label">Notes</label>
-        <textarea id="cmd-notes" className="input" rows={2} value={draft.notes} readOnly={readOnly} onChange={(e) => onChange({ notes: e.target.value })} />
+        <textarea id="cmd-notes" ref={(el) => { fields.current.notes = el; }} className="input" rows={2} value={draft.notes} readOnly={readOnly} onChange={(e) => onChange({ notes: e.target.value })} />
       </div>
       <label className="flex items-center gap-2 text-sm sm:col-span-2">
         <input type="checkbox" checked={draft.movesMachinery} disabled={readOnly}

@@ -108,7 +108,7 @@ export default function ComposerBody({ draft, patch, replace, formKey, ports, re
             <PreviewPanel preview={preview} template={template} plcString={fit && fit.capacity !== null ? { capacity: fit.capacity, length: fit.length, longestLength: fit.longestLength } : null} />
           </Section>
           <Section title="PLC code" id="plc-code-panel">
-            <PlcCodeSection template={template} name={draft.name} />
+            <PlcCodeSection source={{ kind: 'command', template }} name={draft.name} />
           </Section>
           <Section title="Timing" id="timing">
             <TimingPanel timing={timing} />

@@ -5,12 +5,13 @@
  * budget, issue 16).
  */
 import { lazy, Suspense, useMemo, useState, type Dispatch, type SetStateAction } from 'react';
-import { assembleSaved, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
+import { assembleSaved, sequenceInputs, type SavedSequence, type StepCommand } from '../../lib/composer/saved-sequence';
 import { defaultPortSettings } from '../../lib/frame/port-settings';
 import { templateSchema, type Template } from '../../lib/frame/template';
 import { Section } from '../ui/Section';
 import { PortPicker } from './PortPicker';
 import { sequenceCompare, type SavedSequenceCommand, type SequenceDraft } from './sequence-conflict';
+import { PlcCodeSection } from './PlcCodeSection';
 import { SequencePreview } from './SequencePreview';
 import { SequenceReplies as SequenceRepliesNow } from './SequenceReplies';
 import { SaveBar } from './SaveBar';
@@ -89,6 +90,8 @@ export default function SequenceBody(props: SequenceBodyProps) {
   const templates = previewed.steps.map((x) => (x.commandId ? lookup(x.commandId)?.template : x.template));
   const replies = previewed.steps.map((x, i) => (s.info[i]?.gap ? null : x.commandId ? lookup(x.commandId)?.replyTemplate ?? null : x.replyTemplate ?? null));
   const names = s.info.map((i) => i.name);
+  const plcGap = problems[0] ?? s.info.find((i) => i.gap)?.gap;
+  const plcSource = { kind: 'sequence' as const, mode, delayMs: sequence.delayMs, steps: sequenceInputs(previewed, lookup).map((x) => ({ template: x.template, values: x.values ?? {} })), ...(plcGap ? { gap: plcGap } : {}) };
   const errors = s.findings.filter((f) => f.severity === 'error');
   const valid = !!details.name.trim() && steps.length > 0 && problems.length === 0;
 
@@ -123,6 +126,9 @@ export default function SequenceBody(props: SequenceBodyProps) {
         <div className="grid gap-4 min-w-0">
           <Section title="Preview" id="preview">
             {lib.live ? <SequencePreview s={s} info={s.info} templates={templates} /> : <p className="text-sm">Loading the library…</p>}
+          </Section>
+          <Section title="PLC code" id="plc-code-panel">
+            <PlcCodeSection source={plcSource} name={details.name} />
           </Section>
         </div>
       </div>

@@ -49,6 +49,13 @@ export function jsonText(text: string, status = 200, headers: HeadersInit = {}):
   });
 }
 
+/** A Structured Text file to download (never cached: it is the library as it stands). */
+export function stFile(file: { name: string; text: string }): Response {
+  return new Response(file.text, {
+    headers: { 'content-type': 'text/plain; charset=utf-8', 'content-disposition': `attachment; filename="${file.name}"`, 'cache-control': 'no-store' },
+  });
+}
+
 /** Reads a JSON body of at most `limit` bytes; throws TooLarge / BadRequest / Unsupported. */
 export async function readJson(request: Request, limit = DEFAULT_BODY_LIMIT): Promise<unknown> {
   const type = request.headers.get('content-type') ?? '';

@@ -1,6 +1,7 @@
 /** Role matrix cases for the command library routes. */
 import type { TeamFixture } from '../../helpers/client';
 import { jogBody, makeCommand, makeDevice } from '../command-fixtures';
+import { makeMachine } from '../vault-fixtures';
 import type { RouteCase } from './types';
 
 const ALL = ['owner', 'admin', 'engineer', 'technician', 'viewer'] as const;
@@ -29,6 +30,11 @@ export const commandCases: RouteCase[] = [
     method: 'GET', route: '/api/devices/[id]/plc-code', allowed: ALL,
     prepare: async (t) => ({ path: `/api/devices/${(await makeDevice(owner(t))).id}/plc-code` }),
     otherTeam: async (_t, o) => ({ path: `/api/devices/${(await makeDevice(owner(o))).id}/plc-code` }),
+  },
+  {
+    method: 'GET', route: '/api/machines/[id]/plc-code', allowed: ALL,
+    prepare: async (t) => ({ path: `/api/machines/${(await makeMachine(owner(t))).id}/plc-code` }),
+    otherTeam: async (_t, o) => ({ path: `/api/machines/${(await makeMachine(owner(o))).id}/plc-code` }),
   },
   {
     method: 'GET', route: '/api/commands', allowed: ALL,

@@ -5,4 +5,4 @@ export {
 export { IEC_RESERVED_WORDS, identifierProblem, isReservedWord, toIdentifier } from './identifiers';
 export { type NumberPlan, planNumber } from './number-plan';
 export { type PlcCodeRequest, plcCodeRequestSchema } from './schema';
-export { type PlcFileCommand, plcFileForCommands } from './device-file';
+export { type PlcFileCommand, type PlcFileSequence, type PlcSequenceCode, plcCodeForSequence, plcFileForCommands, plcFileForDevices } from './device-file';
