@@ -33,7 +33,12 @@ export interface SequenceComposerProps {
 
 // Everything that needs the frame engine or zod: rendered by the server at once, loaded by the browser after this
 // shell is interactive (see Later). Keep this module's imports free of the engine and of any module that builds a schema.
-const SequenceBody = import.meta.env.SSR ? SequenceBodyNow : /* @__PURE__ */ lazy(() => import('./SequenceBody'));
+// The steps and replies load after the body (see SequenceBody); their download starts with the body's.
+const SequenceBody = import.meta.env.SSR ? SequenceBodyNow : /* @__PURE__ */ lazy(() => {
+  void import('./SequenceSteps');
+  void import('./SequenceReplies');
+  return import('./SequenceBody');
+});
 // Keys of the saved steps are their positions, alike on the server and in the browser (ids must match on hydration).
 const keyed = (seq: SavedSequence | null): KeyedStep[] => (seq?.steps ?? []).map((step, i) => ({ key: `saved${i}`, step, epoch: 0 }));
 
