@@ -120,6 +120,35 @@ describe('CSV import and export', () => {
     expect(again.errors.some((e: { message: string }) => /already on/.test(e.message))).toBe(true);
   });
 
+  it('checks the vault again at the apply when the same body was previewed: a device added meanwhile is refused or left out', async () => {
+    // The preview's reading of the rows is kept for an apply of the same body; what depends on the vault is not.
+    const eng = source.members.engineer;
+    const m = await makeMachine(eng);
+    const csv = header + ['PV-1,Drive one,Quillmoor,Bus,9600 8-E-1,3,yes', 'PV-2,Drive two,Quillmoor,Bus,9600 8-E-1,4,no', 'PV-3,Drive three,Quillmoor,Bus,19200 8-N-1,5,no'].join('\n');
+    expect(expectOk(await eng.post('/api/import/csv', { machineId: m.id, csv, mapping }))).toMatchObject({ devices: 3, errorCount: 0 });
+    await makeDevice(eng, m.id, { tag: 'pv-2' });
+    const refused = await eng.post('/api/import/csv', { machineId: m.id, csv, mapping, apply: true });
+    expect(refused.status, JSON.stringify(refused.body)).toBe(422);
+    expect(refused.body.preview.errors).toEqual([{ row: 3, column: 'Tag', message: expect.stringMatching(/PV-2 is already on/) }]);
+    expect(expectOk(await eng.get(`/api/devices?machineId=${m.id}`)).total).toBe(1);
+
+    // Previewed again, then the machine goes to the trash before the apply.
+    expect(expectOk(await eng.post('/api/import/csv', { machineId: m.id, csv, mapping })).errorCount).toBe(1);
+    expectOk(await eng.del(`/api/machines/${m.id}`));
+    expect((await eng.post('/api/import/csv', { machineId: m.id, csv, mapping, apply: true, skipInvalid: true })).status).toBe(404);
+
+    // Previewed into another machine, whose clashing device is moved to the trash before the apply: all three go in.
+    const other = await makeMachine(eng);
+    const clash = await makeDevice(eng, other.id, { tag: 'PV-3' });
+    expect(expectOk(await eng.post('/api/import/csv', { machineId: other.id, csv, mapping })).errorCount).toBe(1);
+    expectOk(await eng.del(`/api/devices/${clash.id}`));
+    const done = expectOk(await eng.post('/api/import/csv', { machineId: other.id, csv, mapping, apply: true, skipInvalid: true }), 201);
+    expect(done).toMatchObject({ applied: true, devices: 3, ports: 3, errorCount: 0 });
+    const list = expectOk(await eng.get(`/api/devices?machineId=${other.id}&sort=tag`));
+    expect(list.items.map((d: { tag: string }) => d.tag)).toEqual(['PV-1', 'PV-2', 'PV-3']);
+    expect(list.items.map((d: { ports: { shorthand: string }[] }) => d.ports[0]!.shorthand)).toEqual(['9600 8-E-1', '9600 8-E-1', '19200 8-N-1']);
+  });
+
   it('refuses a mapping to a missing column', async () => {
     const m = await makeMachine(source.members.engineer);
     const res = await source.members.engineer.post('/api/import/csv', { machineId: m.id, csv: header + 'X,,,,,,\n', mapping: { tag: 'Device tag' } });

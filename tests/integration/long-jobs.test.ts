@@ -98,6 +98,26 @@ async function countRows(sql: string, args: string[]): Promise<number> {
 }
 
 
+/** Everything a reader can see of an import's rows, read while it stages them; `answeredBy` is when the last answer came. */
+async function readWhileStaging(eng: TestClient, viewer: TestClient, machineId: string, jobId: string, prefix: string) {
+  const db = testDb();
+  try {
+    const hiddenDevices = await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [machineId, jobId]);
+    const hiddenPorts = await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [jobId]);
+    const searchRows = await count(db, `SELECT count(*) AS n FROM device_search WHERE tag LIKE '${prefix}-%'`, []);
+    const listTotal = expectOk(await viewer.get(`/api/devices?machineId=${machineId}&pageSize=5`)).total;
+    const filteredTotal = expectOk(await viewer.get(`/api/devices?q=${prefix}-000001&pageSize=5`)).total;
+    const searchItems = expectOk(await viewer.get(`/api/devices/search?q=${prefix}-000001`)).items.length;
+    const searchTotal = expectOk(await viewer.get(`/api/devices/search?q=${prefix}`)).total;
+    const inTrash = expectOk(await eng.get('/api/trash')).items.some((i: { label: string }) => i.label.startsWith(`${prefix}-`));
+    const portsCsv = String((await eng.get(`/api/export/csv?table=ports&machineId=${machineId}`)).body);
+    const inExport = expectOk(await eng.get(`/api/export`)).devices.some((d: { tag: string }) => d.tag.startsWith(`${prefix}-`));
+    return { prefix, hiddenDevices, hiddenPorts, searchRows, listTotal, filteredTotal, searchItems, searchTotal, inTrash, portsCsv, inExport, answeredBy: Date.now() };
+  } finally {
+    db.close();
+  }
+}
+
 describe('all rows or none', () => {
   it('an import whose final check fails (a clashing device added meanwhile) writes nothing and clears its staged rows', async () => {
     const eng = team.members.engineer;
@@ -177,48 +197,61 @@ describe('all rows or none', () => {
 
 describe('records written before the final transaction', () => {
   it('stay out of sight of every list, search, export and the trash until the import commits, then all show with their history', async () => {
-    const eng = team.members.engineer;
-    const viewer = team.members.viewer;
-    const m = await makeMachine(eng);
-    const known = await jobIds(eng);
-    const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'OS'), mapping, apply: true });
-    const job = await untilStaging(team.members.admin, ROWS + ROWS / 2, known);
-    const db = testDb();
-    try {
-      // Half the file is written, out of sight: stamped with the job's id like the trash stamps a record.
-      expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(ROWS / 4);
-      expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBeGreaterThan(ROWS / 4);
-      // Their search rows are written with them (so showing them adds none); a search reads live devices only.
-      expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBeGreaterThan(ROWS / 4);
-    } finally {
-      db.close();
+    // A team of its own, so the export read meanwhile holds this import alone.
+    const own = await createTeamWithRoles('out-of-sight');
+    const eng = own.members.engineer;
+    const viewer = own.members.viewer;
+    // What every reader sees while the import stages its rows. The checks count only if all of them were answered
+    // before the final transaction began (the job's finish time is stamped inside it, before its commit); an
+    // import quick enough to commit meanwhile proves nothing, so a larger one is tried.
+    let seen: Awaited<ReturnType<typeof readWhileStaging>> | undefined;
+    let rows = ROWS;
+    let m!: { id: string };
+    let jobId = '';
+    for (let attempt = 0; attempt < 3 && !seen; attempt++, rows *= 2) {
+      m = await makeMachine(eng);
+      const known = await jobIds(eng);
+      const importing = eng.post('/api/import/csv', { machineId: m.id, csv: bigCsv(rows, `O${attempt}`), mapping, apply: true });
+      const job = await untilStaging(own.members.admin, rows + rows / 4, known).catch(() => null);
+      const read = job ? await readWhileStaging(eng, viewer, m.id, job.id, `O${attempt}`) : null;
+      expectOk(await importing, 201);
+      if (!job || !read) continue;
+      if (read.answeredBy < await countRows('SELECT finished_at AS n FROM job WHERE id = ?', [job.id])) {
+        seen = read;
+        jobId = job.id;
+      }
     }
-    expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`)).total).toBe(0);
-    expect(expectOk(await viewer.get('/api/devices?q=OS-000001&pageSize=5')).total).toBe(0);
-    expect(expectOk(await viewer.get('/api/devices/search?q=OS-000001')).items).toHaveLength(0);
-    expect(expectOk(await viewer.get('/api/devices/search?q=OS')).total).toBe(0);
-    expect(expectOk(await eng.get('/api/trash')).items.some((i: { label: string }) => i.label.startsWith('OS-'))).toBe(false);
-    const exported = expectOk(await eng.get(`/api/export`));
-    expect(exported.devices.some((d: { tag: string }) => d.tag.startsWith('OS-'))).toBe(false);
-    const csvPorts = await eng.get(`/api/export/csv?table=ports&machineId=${m.id}`);
-    expect(String(csvPorts.body)).not.toMatch(/OS-0/);
+    if (!seen) throw new Error('every import committed before the checks were done; none could be checked');
+    const prefix = seen.prefix;
+    rows /= 2;
+    // A quarter of the file is written, out of sight: stamped with the job's id like the trash stamps a record.
+    expect(seen.hiddenDevices).toBeGreaterThanOrEqual(rows / 4);
+    expect(seen.hiddenPorts).toBeGreaterThanOrEqual(rows / 4);
+    // Their search rows are written with them (so showing them adds none); a search reads live devices only.
+    expect(seen.searchRows).toBeGreaterThanOrEqual(rows / 4);
+    expect(seen.listTotal).toBe(0);
+    expect(seen.filteredTotal).toBe(0);
+    expect(seen.searchItems).toBe(0);
+    expect(seen.searchTotal).toBe(0);
+    expect(seen.inTrash).toBe(false);
+    expect(seen.inExport).toBe(false);
+    expect(seen.portsCsv).not.toMatch(new RegExp(`${prefix}-0`));
 
-    expectOk(await importing, 201);
     expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`))).toMatchObject({ total: 1000, totalCapped: true });
-    expect(expectOk(await viewer.get('/api/devices?q=OS-000001&pageSize=5')).total).toBe(1);
+    expect(expectOk(await viewer.get(`/api/devices?q=${prefix}-000001&pageSize=5`)).total).toBe(1);
     const after = testDb();
     try {
-      expect(await count(after, 'SELECT count(*) AS n FROM device WHERE trash_id = ? OR (machine_id = ? AND deleted_at IS NOT NULL)', [job.id, m.id])).toBe(0);
+      expect(await count(after, 'SELECT count(*) AS n FROM device WHERE trash_id = ? OR (machine_id = ? AND deleted_at IS NOT NULL)', [jobId, m.id])).toBe(0);
       // Every device and port has its creation revision by the time the request is answered; the stage is empty.
-      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN device d ON d.id = r.entity_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
-      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN port p ON p.id = r.entity_id JOIN device d ON d.id = p.device_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(ROWS);
-      expect(await count(after, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN device d ON d.id = r.entity_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(rows);
+      expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN port p ON p.id = r.entity_id JOIN device d ON d.id = p.device_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(rows);
+      expect(await count(after, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [jobId])).toBe(0);
       // One search row per device: written while staging, none added when shown.
-      expect(await count(after, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'OS-%'", [])).toBe(ROWS);
+      expect(await count(after, `SELECT count(*) AS n FROM device_search WHERE tag LIKE '${prefix}-%'`, [])).toBe(rows);
     } finally {
       after.close();
     }
-  }, 90_000);
+  }, 180_000);
 
   it('a committed import whose server stopped before its history was recorded gets it at the next start', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'long-jobs-history-'));

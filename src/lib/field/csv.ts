@@ -85,8 +85,35 @@ export interface CsvRowResult {
 }
 export type CsvRowError = { column: string; message: string };
 
-/** One CSV row (header → cell) read through the mapping; errors name the CSV column at fault. */
-export function readCsvRow(row: Record<string, string | undefined>, mapping: CsvMapping): { ok: true; value: CsvRowResult } | { ok: false; errors: CsvRowError[] } {
+type PortSettingsRead = NonNullable<CsvRowResult['port']>['settings'];
+/** A settings check's outcome: the settings as the schema gives them back (frozen: rows share them), or its issues. */
+type SettingsCheck = { ok: true; settings: PortSettingsRead } | { ok: false; issues: { field: CsvField | '_'; message: string }[] };
+/**
+ * Settings already checked while reading one file, by the settings' text. The rows of a file often share their
+ * settings, and the schema's check is most of the cost of a row; the outcome depends on the settings alone.
+ */
+export type SettingsChecks = Map<string, SettingsCheck>;
+
+function deepFreeze<T>(v: T): T {
+  if (v && typeof v === 'object' && !Object.isFrozen(v)) {
+    Object.freeze(v);
+    for (const x of Object.values(v)) deepFreeze(x);
+  }
+  return v;
+}
+
+function checkSettings(settings: Record<string, unknown>): SettingsCheck {
+  const parsed = portSettingsInputSchema.safeParse(settings);
+  return parsed.success
+    ? { ok: true, settings: parsed.data }
+    : { ok: false, issues: parsed.error.issues.map((i) => ({ field: (i.path[0] as CsvField) ?? '_', message: i.message })) };
+}
+
+/**
+ * One CSV row (header → cell) read through the mapping; errors name the CSV column at fault. `checks`, when given,
+ * keeps each distinct settings check for the next rows (their settings objects are then shared and frozen).
+ */
+export function readCsvRow(row: Record<string, string | undefined>, mapping: CsvMapping, checks?: SettingsChecks): { ok: true; value: CsvRowResult } | { ok: false; errors: CsvRowError[] } {
   const errors: CsvRowError[] = [];
   const cell = (k: CsvField) => (mapping[k] ? unguardCell(row[mapping[k]!] ?? '').trim() : '');
   const fail = (k: CsvField | '_', message: string) => errors.push({ column: k === '_' ? '' : (mapping[k as CsvField] ?? k), message });
@@ -123,9 +150,14 @@ export function readCsvRow(row: Record<string, string | undefined>, mapping: Csv
   const portName = cell('portName') || (Object.keys(settings).length ? 'Port 1' : '');
   let port: CsvRowResult['port'] = null;
   if (portName && !errors.length) {
-    const parsed = portSettingsInputSchema.safeParse(settings);
-    if (!parsed.success) for (const i of parsed.error.issues) fail((i.path[0] as CsvField) ?? '_', i.message);
-    else port = { name: portName.slice(0, 60), settings: parsed.data, bridgedTo: cell('bridgedTo').slice(0, 60) };
+    const key = checks && JSON.stringify(settings);
+    let checked = key === undefined ? undefined : checks!.get(key);
+    if (!checked) {
+      checked = checkSettings(settings);
+      if (key !== undefined) checks!.set(key, deepFreeze(checked));
+    }
+    if (!checked.ok) for (const i of checked.issues) fail(i.field, i.message);
+    else port = { name: portName.slice(0, 60), settings: checked.settings, bridgedTo: cell('bridgedTo').slice(0, 60) };
   }
   const text = (k: CsvField, max: number) => {
     const v = cell(k);

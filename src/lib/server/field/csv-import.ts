@@ -5,16 +5,15 @@ import { device, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
 import { nameKey } from '../../schemas/vault';
-import { CSV_FIELDS, readCsvRow, type CsvMapping, type CsvRowError, type CsvRowResult } from '../../field/csv';
+import type { CsvMapping, CsvRowError, CsvRowResult } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
 import { creationRevisions } from './import-write';
-import { parseCsvInSlices } from './csv-parse';
+import { checkFile, keepChecked, takeChecked, type CheckedFile } from './csv-file-check';
 import { inSlices } from '../jobs/turns';
 import { runStagedJob, type Progress } from '../jobs/jobs';
-import { Conflict, Invalid, TooLarge } from '../errors';
+import { Conflict, Invalid } from '../errors';
 
-export const CSV_MAX_ROWS = 50_000;
 const ERRORS_SHOWN = 200;
 
 export interface CsvPreview {
@@ -30,28 +29,23 @@ export interface CsvPreview {
 
 interface Planned { device: CsvRowResult['device']; ports: (NonNullable<CsvRowResult['port']> & { row: number })[] }
 
-/** Rows checked between turns for other requests. */
-const CHECK_SLICE = 250;
+/** Rows gone through between turns for other requests. */
+const CHECK_SLICE = 1000;
 
-async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress?: Progress) {
+/**
+ * The import worked out against the vault as it is now: the machine, the tags already on it, and the file's rows
+ * (read here, or taken from `file` when a preview of the same body read them).
+ */
+async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress?: Progress, file?: CheckedFile) {
   const m = await liveMachine(ctx, req.machineId, q);
-  const parsed = await parseCsvInSlices(req.csv);
-  const headers = parsed.fields;
+  const checked = file ?? await checkFile(req, progress);
   const mapping = req.mapping as CsvMapping;
-  const known = new Set<string>(CSV_FIELDS.map((f) => f.key));
-  for (const [field, column] of Object.entries(mapping)) {
-    if (!known.has(field)) throw new Invalid(`mapping.${field}: unknown field`, { fields: { [`mapping.${field}`]: 'Not a field of the import.' } });
-    if (!headers.includes(column)) throw new Invalid(`mapping.${field}: the file has no column "${column}"`, { fields: { [`mapping.${field}`]: `No column "${column}" in the file.` } });
-  }
-  if (!mapping.tag) throw new Invalid('mapping.tag: choose the column with the device tag', { fields: { 'mapping.tag': 'Choose the column with the device tag.' } });
-  if (parsed.data.length > CSV_MAX_ROWS) throw new TooLarge(`At most ${CSV_MAX_ROWS} rows per file; split the file.`);
   const existing = await existingTags(q, ctx, m.id);
   const errors: CsvPreview['errors'] = [];
   const devices = new Map<string, Planned>();
-  for (const e of parsed.errors) if (e.row !== undefined) errors.push({ row: e.row + 2, column: '', message: e.message });
-  await inSlices(parsed.data, CHECK_SLICE, (raw, i) => {
+  for (const e of checked.parseErrors) if (e.row !== undefined) errors.push({ row: e.row + 2, column: '', message: e.message });
+  await inSlices(checked.rows, CHECK_SLICE, (r, i) => {
     const row = i + 2;
-    const r = readCsvRow(raw, mapping);
     if (!r.ok) return errors.push(...r.errors.map((e) => ({ ...e, row })));
     const key = nameKey(r.value.device.tag);
     if (existing.has(key)) return errors.push({ row, column: mapping.tag!, message: `Device ${r.value.device.tag} is already on ${m.name}; this import adds new devices only.` });
@@ -64,10 +58,9 @@ async function plan(q: DbOrTx, ctx: TeamContext, req: CsvImportRequest, progress
       d.ports.push({ ...r.value.port, row });
     }
     devices.set(key, d);
-    if ((i + 1) % CHECK_SLICE === 0) void progress?.(i + 1, parsed.data.length * 2);
   });
   for (const d of devices.values()) for (const [row, message] of bridgeProblems(d)) errors.push({ row, column: mapping.bridgedTo ?? '', message });
-  return { machine: m, rows: parsed.data.length, devices: [...devices.values()], errors };
+  return { machine: m, rows: checked.rows.length, devices: [...devices.values()], errors, file: checked };
 }
 
 /** A converter's "Bridged to" cells: each names another of its ports in the file, and no port is in two bridges. */
@@ -116,12 +109,15 @@ function preview(p: Awaited<ReturnType<typeof plan>>, applied: boolean): CsvPrev
   };
 }
 
+/** The preview; its reading of the file is kept for an apply of the same body (`checkFile`). */
 export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest): Promise<CsvPreview> {
-  return preview(await plan(db, ctx, req), false);
+  const p = await plan(db, ctx, req);
+  keepChecked(ctx.team.id, ctx.user.id, req, p.file);
+  return preview(p, false);
 }
 
-/** Devices staged per batch (with their ports and creation revisions). */
-const STAGE_DEVICES = 100;
+/** Devices staged per short write, with their ports and creation revisions (500 revisions: one statement each). */
+const STAGE_DEVICES = 250;
 
 /**
  * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.
@@ -131,7 +127,7 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
   let p: Awaited<ReturnType<typeof plan>>;
   return runStagedJob(ctx, 'csv-import', {
     async stage(stage, progress) {
-      p = await plan(db, ctx, req, progress);
+      p = await plan(db, ctx, req, progress, takeChecked(ctx.team.id, ctx.user.id, req));
       if (p.errors.length && !req.skipInvalid) throw new Invalid(`${p.errors.length} rows have errors; fix them or choose to leave them out.`, { preview: preview(p, false) });
       const stamp = { teamId: ctx.team.id, updatedBy: ctx.user.id };
       const summary = 'Imported from CSV';
@@ -144,9 +140,7 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
         const devices = slice.map((d, i) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds[i]!) }));
         const ports = slice.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: portIds[i]![position]!, deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
         stage.report(p.rows + Math.round((p.rows * (lo + slice.length)) / p.devices.length), p.rows * 2);
-        await stage.add(device, devices);
-        await stage.add(port, ports);
-        await stage.add(revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]);
+        await stage.addTogether([[device, devices], [port, ports], [revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]]]);
       }
     },
     async verify(tx) {

@@ -27,6 +27,23 @@ export function diffSnapshots(before: Record<string, unknown>, after: Record<str
   return out;
 }
 
+/**
+ * `diffSnapshots({}, after)` without comparing each value's JSON with nothing: every field set to a value that is
+ * not null (by its JSON: NaN counts as null, as it is stored), from null. Imports build thousands of these.
+ */
+export function changesFromNothing(after: Record<string, unknown>): FieldChange[] {
+  const out: FieldChange[] = [];
+  for (const [field, b] of Object.entries(after)) {
+    if (b === undefined || b === null || (typeof b === 'number' && !Number.isFinite(b))) continue;
+    const plain = typeof b === 'string' || typeof b === 'number' || typeof b === 'boolean' || Array.isArray(b)
+      || (typeof b === 'object' && [Object.prototype, null].includes(Object.getPrototypeOf(b)));
+    // Anything else (a date, a value with its own JSON) is compared as before.
+    if (!plain) return diffSnapshots({}, after);
+    out.push({ field, from: null, to: b });
+  }
+  return out;
+}
+
 /** The keys of `patch` that are present (PATCH semantics: absent means unchanged). */
 export function definedOnly<T extends Record<string, unknown>>(patch: T): Partial<T> {
   const out: Partial<T> = {};

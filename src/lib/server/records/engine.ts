@@ -10,7 +10,7 @@ import { revision, type FieldChange, type RecordType } from '../../../db/schema'
 import type { TeamContext } from '../guard';
 import { Conflict, Stale, notFound } from '../errors';
 import { newId } from '../ids';
-import { diffSnapshots } from './diff';
+import { changesFromNothing, diffSnapshots } from './diff';
 import { snapshotOf, type Entity, type VersionedRow, type VersionedTable } from './entity';
 
 export const now = () => new Date();
@@ -107,7 +107,7 @@ export function creationRevision<K extends string>(
   action: 'create' | 'copy' = 'create',
 ): RevisionInput {
   const snap = snapshotOf(entity, row);
-  return { type: entity.type, entityId: row.id, version: 1, action, changes: diffSnapshots({}, snap), snapshot: snap, summary };
+  return { type: entity.type, entityId: row.id, version: 1, action, changes: changesFromNothing(snap), snapshot: snap, summary };
 }
 
 /** Writes the creation revision of a record just inserted. */
