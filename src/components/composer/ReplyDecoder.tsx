@@ -1,10 +1,9 @@
 /** Paste a received reply in any notation: decoded fields, the checksum verdict and findings. */
 import { useEffect, useMemo, useState } from 'react';
 import type { decodeReply as DecodeReply } from '../../lib/frame/decode-reply';
-import { formatChecksumValue, resolveChecksum } from '../../lib/frame/checksum';
 import type { Template } from '../../lib/frame/template';
 import { BytesInput, useBytesInput } from './BytesInput';
-import { FindingsList } from './FindingsList';
+import { DecodedReply } from './DecodedReply';
 
 let loadedDecoder: typeof DecodeReply | null = null;
 
@@ -34,29 +33,7 @@ export function ReplyDecoder({ template }: { template: Template }) {
     <div className="grid gap-3">
       <BytesInput input={input} id="reply" label="Received reply" placeholder="e.g. 1=STA:+0004500,R*14$0D" />
       {decoded && (
-        <div className="grid gap-3" data-testid="reply-result">
-          {decoded.checksums.map((c) => {
-            const seg = template.segments.find((s) => s.id === c.segmentId);
-            const width = (seg?.type === 'checksum' ? resolveChecksum(seg)?.width : undefined) ?? 8;
-            return (
-              <p key={c.segmentId} className={`notice ${c.ok ? 'notice-ok' : 'notice-bad'}`} data-testid="checksum-verdict" data-ok={c.ok}>
-                <b>{c.ok ? 'Checksum good' : 'Checksum wrong'}</b> · {c.algorithm}: expected <span className="mono">{formatChecksumValue(c.expected, width)}</span>, received{' '}
-                <span className="mono">{c.received === null ? 'unreadable' : formatChecksumValue(c.received, width)}</span>
-              </p>
-            );
-          })}
-          {Object.keys(decoded.fields).length > 0 && (
-            <table className="table" data-testid="reply-fields">
-              <thead><tr><th>Field</th><th>Received</th><th>Value</th></tr></thead>
-              <tbody>
-                {Object.entries(decoded.fields).map(([name, f]) => (
-                  <tr key={name}><td className="mono">{name}</td><td className="mono">{f.text}</td><td className="mono">{String(f.value ?? '–')}</td></tr>
-                ))}
-              </tbody>
-            </table>
-          )}
-          <FindingsList findings={decoded.findings} empty="The reply matches the reply template." />
-        </div>
+        <DecodedReply decoded={decoded} template={template} testIds={{ root: 'reply-result', checksum: 'checksum-verdict', fields: 'reply-fields' }} />
       )}
     </div>
   );

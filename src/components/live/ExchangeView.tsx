@@ -1,13 +1,10 @@
 /** One request and what came back: every notation, the reply decoded with each checksum's verdict, round trip against the wire. */
 import { decodeReply } from '../../lib/frame/decode-reply';
-import { formatChecksumValue, resolveChecksum } from '../../lib/frame/checksum';
 import { renderAllNotations } from '../../lib/frame/notations';
 import type { Template } from '../../lib/frame/template';
 import { ms } from '../../lib/composer/format';
 import { LINE_ERROR_TEXT, type Exchange } from '../../lib/live/session';
-import { FindingsList } from '../composer/FindingsList';
-import type { ChecksumVerdict, DecodedField } from '../../lib/frame/decode-reply';
-import type { Finding } from '../../lib/frame/findings';
+import { DecodedReply, type DecodedReplyProps } from '../composer/DecodedReply';
 
 /** What to check, in order, when a device does not answer (common practice). */
 export const NO_REPLY_CAUSES = [
@@ -76,31 +73,7 @@ export function ExchangeView({ x, atMs, replyTemplate, responseTimeoutMs }: { x:
   );
 }
 
-/** A reply read against its template: each checksum's verdict, the fields, the findings. */
-export function DecodedView({ decoded, template }: { decoded: { checksums: ChecksumVerdict[]; fields: Record<string, DecodedField>; findings: Finding[] }; template: Template }) {
-  return (
-    <div className="grid gap-2" data-testid="live-decoded">
-      {decoded.checksums.map((c) => {
-        const seg = template.segments.find((s) => s.id === c.segmentId);
-        const width = (seg?.type === 'checksum' ? resolveChecksum(seg)?.width : undefined) ?? 8;
-        return (
-          <p key={c.segmentId} className={`notice ${c.ok ? 'notice-ok' : 'notice-bad'}`} data-testid="live-checksum" data-ok={c.ok}>
-            <b>{c.ok ? 'Checksum good' : 'Checksum wrong'}</b> · {c.algorithm}: expected <span className="mono">{formatChecksumValue(c.expected, width)}</span>, received{' '}
-            <span className="mono">{c.received === null ? 'unreadable' : formatChecksumValue(c.received, width)}</span>
-          </p>
-        );
-      })}
-      {Object.keys(decoded.fields).length > 0 && (
-        <table className="table" data-testid="live-fields">
-          <thead><tr><th>Field</th><th>Received</th><th>Value</th></tr></thead>
-          <tbody>
-            {Object.entries(decoded.fields).map(([name, f]) => (
-              <tr key={name}><td className="mono">{name}</td><td className="mono">{f.text}</td><td className="mono">{String(f.value ?? '–')}</td></tr>
-            ))}
-          </tbody>
-        </table>
-      )}
-      <FindingsList findings={decoded.findings} empty="The reply matches the reply template." />
-    </div>
-  );
+/** A reply read against its template, as the live link shows it. */
+export function DecodedView({ decoded, template }: Pick<DecodedReplyProps, 'decoded' | 'template'>) {
+  return <DecodedReply decoded={decoded} template={template} testIds={{ root: 'live-decoded', checksum: 'live-checksum', fields: 'live-fields' }} />;
 }
