@@ -116,8 +116,8 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
   return preview(p, false);
 }
 
-/** Devices staged per short write, with their ports and creation revisions (500 revisions: one statement each). */
-const STAGE_DEVICES = 250;
+/** Devices staged per short write, with their ports and creation revisions (each write is one stretch that other requests wait for). */
+const STAGE_DEVICES = 100;
 
 /**
  * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.
