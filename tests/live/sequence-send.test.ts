@@ -105,7 +105,8 @@ describe('sending a sequence to the simulated drive', () => {
     expect(run.whole!.endedBy).toBe('terminator');
     // 44 characters out and 32 back, 10 bits each at 9600 bit/s: 76 × 10 / 9600 s = 79.167 ms.
     expect(run.whole!.wireMs).toBeCloseTo(79.1667, 3);
-    expect(run.whole!.roundTripMs!).toBeGreaterThanOrEqual(79);
+    // The fake port delivers on timers that may fire up to a millisecond early against the clock the link reads.
+    expect(run.whole!.roundTripMs!).toBeGreaterThanOrEqual(78);
     expect(run.steps.map((s) => s.outcome)).toEqual(['answered', 'answered']);
     expect(run.steps.map((s) => s.reply!.checksums.map((c) => [c.algorithm, c.ok]))).toEqual([[['XOR-8', true]], [['XOR-8', true]]]);
     expect(run.steps[0]!.reply!.fields.result?.value).toBe('accepted');
