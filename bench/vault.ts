@@ -4,7 +4,7 @@
  * its own. The 100,000-device database is seeded once and kept (BENCH_DB_DIR, default /tmp/bench-db-100k): a copy
  * of it is migrated per set of migrations and copied again for each run. Also measured: signed-in vault pages, a
  * JSON export of the whole team (the server's memory while it runs) and the server's memory at rest and after load.
- * BENCH_SCALES=10000,100000 picks the sizes; BENCH_JSON=file writes the figures for scripts/perf-table.mjs.
+ * BENCH_SCALES=10000,100000 picks the sizes; BENCH_ENDPOINTS=search (say) only those endpoints, without the pages; BENCH_JSON=file writes the figures for scripts/perf-table.mjs.
  * Run: node_modules/.bin/tsx bench/vault.ts   (build first: node_modules/.bin/astro build)
  */
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -25,9 +25,11 @@ const SCALES = (process.env.BENCH_SCALES ?? '10000,100000').split(',').map(Numbe
 const DB_DIR = process.env.BENCH_DB_DIR ?? '/tmp/bench-db-100k';
 const LARGE = { teamId: 'team_large_10k', email: 'large@baudbook.test', password: 'baudbook-large-team' };
 
-// ---- baseline: the app's statements, straight through @libsql/client ----
-async function baseline(url: string, port: number, teamId: string) {
+// ---- baseline: the app's statements for each request (the session's read, then the page's), straight through @libsql/client ----
+async function baseline(url: string, port: number, teamId: string, secret: string) {
   const db = createClient({ url, timeout: 5000 });
+  const { SESSION_SQL } = await import('../src/lib/server/session-sql');
+  const { verifySignedValue } = await import('../src/lib/server/signed-cookie');
   // The app's per-connection settings (its page cache among them), so both read through the same cache size.
   const { CONNECTION_PRAGMAS } = await import('../src/db/connection-settings');
   for (const pragma of CONNECTION_PRAGMAS) await db.execute(pragma);
@@ -52,8 +54,23 @@ async function baseline(url: string, port: number, teamId: string) {
     const s = deviceSearchStatement(teamId, u.searchParams.get('q') ?? '', Number(u.searchParams.get('pageSize') ?? 20), 0);
     return s && toQuery(s);
   };
+  /**
+   * What the app reads for every signed-in request: the session cookie's token, its signature checked, and the
+   * app's session statement (src/lib/server/session-sql.ts: the session, its user and their teams). No session, 401.
+   */
+  const signedIn = async (cookie: string | undefined) => {
+    const m = /(?:^|;\s*)better-auth\.session_token=([^;]+)/.exec(cookie ?? '');
+    const token = m ? verifySignedValue(decodeURIComponent(m[1]!), secret) : null;
+    if (!token) return false;
+    const row = (await db.execute({ sql: SESSION_SQL, args: [token] })).rows[0];
+    return row !== undefined && Number(row.expiresAt) > Date.now() && (JSON.parse(row.teams as string) as { id: string }[]).some((t) => t.id === teamId);
+  };
   const server = createServer(async (req, res) => {
     const u = new URL(req.url!, 'http://x');
+    if (u.pathname.startsWith('/api/') && !(await signedIn(req.headers.cookie))) {
+      res.writeHead(401).end();
+      return;
+    }
     if (u.pathname === '/api/devices') {
       // The app's own statement (src/lib/server/vault/device-list-sql.ts), its JSON text sent as it comes.
       // That module opens no database, so this process keeps the plain client: no statement cache.
@@ -78,6 +95,7 @@ async function baseline(url: string, port: number, teamId: string) {
     res.writeHead(u.pathname === '/health' ? 200 : 404).end();
   });
   server.listen(port, '127.0.0.1');
+  process.on('SIGTERM', () => process.exit(0)); // exits, so that a CPU profile (BENCH_PROFILE) is written
 }
 
 
@@ -96,9 +114,16 @@ async function waitFor(url: string, child: ChildProcess, log: () => string) {
   }
 }
 
-interface Run { scale: number; endpoint: string; server: string; connections: number; rps: number; p50: number; p99: number; failed: number }
+interface Run { scale: number; endpoint: string; server: string; connections: number; rps: number; p50: number; p99: number; failed: number; cpuPerRequestMs: number }
 
-async function cannon(base: string, paths: string[], connections: number, duration: number, cookie?: string): Promise<Pick<Run, 'rps' | 'p50' | 'p99' | 'failed'>> {
+/** CPU time (user + system) a process has used, in ms: per request, less shaken than req/s by other work on the machine. */
+function cpuMs(pid: number): number {
+  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100; // utime, stime in clock ticks (100 a second on Linux)
+}
+
+async function cannon(base: string, paths: string[], connections: number, duration: number, cookie?: string, pid?: number): Promise<Pick<Run, 'rps' | 'p50' | 'p99' | 'failed' | 'cpuPerRequestMs'>> {
+  const cpu0 = pid ? cpuMs(pid) : 0;
   const r = await autocannon({
     url: base,
     connections,
@@ -108,7 +133,8 @@ async function cannon(base: string, paths: string[], connections: number, durati
     requests: paths.map((path) => ({ method: 'GET', path })),
   });
   // A non-2xx answer, an error or a timeout fails the figure (reported, not thrown, so the rest still runs).
-  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, failed: r.non2xx + r.errors + r.timeouts };
+  const cpuPerRequestMs = pid && r.requests.total ? (cpuMs(pid) - cpu0) / r.requests.total : NaN;
+  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, failed: r.non2xx + r.errors + r.timeouts, cpuPerRequestMs };
 }
 
 const run = (cmd: string, args: string[], env: NodeJS.ProcessEnv) => new Promise<void>((resolve, reject) => {
@@ -175,7 +201,7 @@ async function measureScale(devices: number): Promise<Scale> {
     const appPort = await freePort();
     const app = `http://127.0.0.1:${appPort}`;
     let appLog = '';
-    // BENCH_PROFILE=dir writes the app server's CPU profile there (node --cpu-prof), to see where a request's time goes.
+    // BENCH_PROFILE=dir writes the app server's and the baseline's CPU profiles there (node --cpu-prof), to see where a request's time goes.
     const profile = process.env.BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
     const server = spawn(process.execPath, [...profile, 'server/serve.mjs'], {
       env: { ...process.env, HOST: '127.0.0.1', PORT: String(appPort), BASE_URL: app, DATABASE_URL: url, SEED_DEMO: '0' },
@@ -188,7 +214,7 @@ async function measureScale(devices: number): Promise<Scale> {
 
     const basePort = await freePort();
     const base = `http://127.0.0.1:${basePort}`;
-    const bl = spawn(process.execPath, ['--import', 'tsx', 'bench/vault.ts', '--baseline', url, String(basePort), LARGE.teamId], { stdio: ['ignore', 'inherit', 'inherit'] });
+    const bl = spawn(process.execPath, [...profile, '--import', 'tsx', 'bench/vault.ts', '--baseline', url, String(basePort), LARGE.teamId], { stdio: ['ignore', 'inherit', 'inherit'] });
     children.push(bl);
     await waitFor(`${base}/health`, bl, () => '');
 
@@ -213,17 +239,20 @@ async function measureScale(devices: number): Promise<Scale> {
     }
     const searchPaths = SEARCHES.map((q) => `/api/devices/search?q=${encodeURIComponent(q)}&pageSize=20`);
     const runs: Run[] = [];
-    for (const [endpoint, paths] of [['list', listPaths], ['search', searchPaths]] as const) {
+    // BENCH_ENDPOINTS=search (say) measures only that endpoint, and no pages: for a profile of one endpoint.
+    const only = process.env.BENCH_ENDPOINTS?.split(',');
+    for (const [endpoint, paths] of ([['list', listPaths], ['search', searchPaths]] as const).filter(([e]) => !only || only.includes(e))) {
       for (const [connections, duration] of [[32, 10], [1, 5]] as const) {
-        for (const [name, target, c] of [['app', app, cookie], ['baseline', base, undefined]] as const) {
+        // Both get the session cookie: the baseline reads the session as the app does (the app's statement).
+        for (const [name, target, c, pid] of [['app', app, cookie, server.pid], ['baseline', base, cookie, bl.pid]] as const) {
           await cannon(target, paths, connections, 1, c); // warm-up
-          runs.push({ scale: devices, endpoint, server: name, connections, ...(await cannon(target, paths, connections, duration, c)) });
+          runs.push({ scale: devices, endpoint, server: name, connections, ...(await cannon(target, paths, connections, duration, c, pid)) });
         }
       }
     }
     // Signed-in vault pages, one connection: the vault home and a device page.
     const pages: Scale['pages'] = [];
-    for (const page of ['/vault', '/vault/devices/dev_large_4242']) {
+    for (const page of only ? [] : ['/vault', '/vault/devices/dev_large_4242']) {
       await cannon(app, [page], 1, 1, cookie);
       const r = await cannon(app, [page], 1, 5, cookie);
       pages.push({ page, p50: r.p50, p99: r.p99, failed: r.failed });
@@ -267,10 +296,10 @@ interface Figure { figure: string; target: string; measured: string; baseline: s
 function report(scales: Scale[]): Figure[] {
   const figures: Figure[] = [];
   const at = (n: number) => scales.find((s) => s.scale === n);
-  const find = (s: Scale, e: string, server: string, c: number) => s.runs.find((r) => r.endpoint === e && r.server === server && r.connections === c)!;
+  const find = (s: Scale, e: string, server: string, c: number) => s.runs.find((r) => r.endpoint === e && r.server === server && r.connections === c);
   const fmt = (n: number) => n.toLocaleString('en', { maximumFractionDigits: 1 });
   console.log('\nAll runs:');
-  const rows = [['devices', 'endpoint', 'server', 'conns', 'req/s', 'p50 ms', 'p99 ms', 'failed'], ...scales.flatMap((s) => s.runs.map((r) => [fmt(r.scale), r.endpoint, r.server, String(r.connections), r.rps.toFixed(0), String(r.p50), String(r.p99), String(r.failed)]))];
+  const rows = [['devices', 'endpoint', 'server', 'conns', 'req/s', 'p50 ms', 'p99 ms', 'failed', 'server CPU ms/req'], ...scales.flatMap((s) => s.runs.map((r) => [fmt(r.scale), r.endpoint, r.server, String(r.connections), r.rps.toFixed(0), String(r.p50), String(r.p99), String(r.failed), r.cpuPerRequestMs.toFixed(2)]))];
   const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
   for (const r of rows) console.log(r.map((c, i) => c.padEnd(widths[i]!)).join('  '));
 
@@ -278,6 +307,7 @@ function report(scales: Scale[]): Figure[] {
     for (const e of ['list', 'search']) {
       const a = find(s, e, 'app', 32);
       const b = find(s, e, 'baseline', 32);
+      if (!a || !b) continue;
       figures.push({ figure: `${e}, ${fmt(s.scale)} devices, 32 connections: app against baseline`, target: '≥ 0.8× baseline req/s, none failed', measured: `${a.rps.toFixed(0)} req/s (p99 ${a.p99} ms, ${a.failed} failed)`, baseline: `${b.rps.toFixed(0)} req/s`, ratio: `${(a.rps / b.rps).toFixed(2)}×`, pass: a.rps >= 0.8 * b.rps && a.failed === 0 });
     }
   }
@@ -288,6 +318,7 @@ function report(scales: Scale[]): Figure[] {
       for (const c of [1, 32]) {
         const a = find(big, e, 'app', c);
         const b = find(small, e, 'app', c);
+        if (!a || !b) continue;
         figures.push({ figure: `${e}, ${c} connection${c > 1 ? 's' : ''}: 100,000 against 10,000 devices (app)`, target: '≥ 0.7× the req/s at 10,000, none failed', measured: `${a.rps.toFixed(0)} req/s (p50 ${a.p50} ms, p99 ${a.p99} ms)`, baseline: `${b.rps.toFixed(0)} req/s at 10,000`, ratio: `${(a.rps / b.rps).toFixed(2)}×`, pass: a.rps >= 0.7 * b.rps && a.failed === 0 });
       }
     }
@@ -296,6 +327,7 @@ function report(scales: Scale[]): Figure[] {
     for (const e of ['list', 'search']) {
       const a = find(big, e, 'app', 1);
       const b = find(big, e, 'baseline', 1);
+      if (!a || !b) continue;
       figures.push({ figure: `${e}, 100,000 devices, 1 connection: p50`, target: '≤ 5 ms', measured: `${a.p50} ms`, baseline: `${b.p50} ms`, ratio: `${(a.p50 / Math.max(b.p50, 0.01)).toFixed(2)}×`, pass: a.p50 <= 5 && a.failed === 0 });
     }
     for (const p of big.pages) figures.push({ figure: `page ${p.page}, 100,000 devices: p50 (loopback, 1 connection)`, target: '≤ 30 ms', measured: `${p.p50} ms (p99 ${p.p99} ms)`, baseline: '', ratio: '', pass: p.p50 <= 30 && p.failed === 0 });
@@ -314,7 +346,7 @@ function report(scales: Scale[]): Figure[] {
 
 // Last, so every declaration above is initialised before it runs.
 if (process.argv[2] === '--baseline') {
-  await baseline(process.argv[3]!, Number(process.argv[4]), process.argv[5]!);
+  await baseline(process.argv[3]!, Number(process.argv[4]), process.argv[5]!, process.env.BETTER_AUTH_SECRET!);
 } else {
   await main();
 }

@@ -41,6 +41,9 @@ const host = listenHost(config);
  */
 const outboxKey = config.outbox === 'local' ? config.outboxKey || randomBytes(18).toString('base64url') : undefined;
 
+// The server runs the libraries' production builds (React renders pages several times faster without its
+// development checks) unless NODE_ENV says otherwise; set before the app and its libraries are loaded.
+process.env.NODE_ENV ??= 'production';
 const { handler } = await import(pathToFileURL(entry).href);
 
 const ASSETS = '/_astro/';

@@ -1,9 +1,9 @@
-import { sql } from 'drizzle-orm';
 import { parseCookies } from 'better-auth/cookies';
-import { db } from '../../db/client';
+import { client } from '../../db/client';
 import type { Role } from '../permissions';
 import { auth, SESSION_EXPIRES_IN, SESSION_UPDATE_AGE } from './auth';
 import { verifySignedValue } from './signed-cookie';
+import { SESSION_SQL, type SessionRow } from './session-sql';
 
 export interface TeamOfUser {
   id: string;
@@ -42,12 +42,7 @@ async function sessionToken(headers: Headers): Promise<string | null> {
 export async function readSession(headers: Headers): Promise<CurrentSession | null> {
   const token = await sessionToken(headers);
   if (!token) return null;
-  const [row] = await db.all<{ sessionId: string; expiresAt: number; id: string; name: string; email: string; teams: string }>(sql`
-    SELECT s.id AS sessionId, s.expires_at AS expiresAt, u.id AS id, u.name AS name, u.email AS email,
-      (SELECT json_group_array(json_object('id', t.id, 'name', t.name, 'role', m.role) ORDER BY m.created_at, t.id)
-       FROM membership m JOIN team t ON t.id = m.team_id WHERE m.user_id = u.id) AS teams
-    FROM session s JOIN user u ON u.id = s.user_id
-    WHERE s.token = ${token}`);
+  const row = (await client.execute({ sql: SESSION_SQL, args: [token] })).rows[0] as unknown as SessionRow | undefined;
   const now = Date.now();
   if (!row || Number(row.expiresAt) <= now) return null;
   const current: CurrentSession = {
