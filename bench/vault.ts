@@ -114,7 +114,7 @@ async function waitFor(url: string, child: ChildProcess, log: () => string) {
   }
 }
 
-interface Run { scale: number; endpoint: string; server: string; connections: number; rps: number; p50: number; p99: number; failed: number; cpuPerRequestMs: number }
+interface Run { scale: number; endpoint: string; server: string; connections: number; rps: number; p50: number; p99: number; failed: number; cpuPerRequestMs: number; requests: number }
 
 /** CPU time (user + system) a process has used, in ms: per request, less shaken than req/s by other work on the machine. */
 function cpuMs(pid: number): number {
@@ -122,7 +122,7 @@ function cpuMs(pid: number): number {
   return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100; // utime, stime in clock ticks (100 a second on Linux)
 }
 
-async function cannon(base: string, paths: string[], connections: number, duration: number, cookie?: string, pid?: number): Promise<Pick<Run, 'rps' | 'p50' | 'p99' | 'failed' | 'cpuPerRequestMs'>> {
+async function cannon(base: string, paths: string[], connections: number, duration: number, cookie?: string, pid?: number): Promise<Pick<Run, 'rps' | 'p50' | 'p99' | 'failed' | 'cpuPerRequestMs' | 'requests'>> {
   const cpu0 = pid ? cpuMs(pid) : 0;
   const r = await autocannon({
     url: base,
@@ -134,7 +134,20 @@ async function cannon(base: string, paths: string[], connections: number, durati
   });
   // A non-2xx answer, an error or a timeout fails the figure (reported, not thrown, so the rest still runs).
   const cpuPerRequestMs = pid && r.requests.total ? (cpuMs(pid) - cpu0) / r.requests.total : NaN;
-  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, failed: r.non2xx + r.errors + r.timeouts, cpuPerRequestMs };
+  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, failed: r.non2xx + r.errors + r.timeouts, cpuPerRequestMs, requests: r.requests.total };
+}
+
+/** Rounds of one server as one figure: req/s and CPU per request over all of them, p50 their mean, p99 the worst. */
+function combine(rs: Awaited<ReturnType<typeof cannon>>[]): Awaited<ReturnType<typeof cannon>> {
+  const requests = rs.reduce((n, r) => n + r.requests, 0);
+  return {
+    rps: rs.reduce((n, r) => n + r.rps, 0) / rs.length,
+    p50: rs.reduce((n, r) => n + r.p50, 0) / rs.length,
+    p99: Math.max(...rs.map((r) => r.p99)),
+    failed: rs.reduce((n, r) => n + r.failed, 0),
+    cpuPerRequestMs: rs.reduce((n, r) => n + r.cpuPerRequestMs * r.requests, 0) / requests,
+    requests,
+  };
 }
 
 const run = (cmd: string, args: string[], env: NodeJS.ProcessEnv) => new Promise<void>((resolve, reject) => {
@@ -244,10 +257,17 @@ async function measureScale(devices: number): Promise<Scale> {
     for (const [endpoint, paths] of ([['list', listPaths], ['search', searchPaths]] as const).filter(([e]) => !only || only.includes(e))) {
       for (const [connections, duration] of [[32, 10], [1, 5]] as const) {
         // Both get the session cookie: the baseline reads the session as the app does (the app's statement).
-        for (const [name, target, c, pid] of [['app', app, cookie, server.pid], ['baseline', base, cookie, bl.pid]] as const) {
-          await cannon(target, paths, connections, 1, c); // warm-up
-          runs.push({ scale: devices, endpoint, server: name, connections, ...(await cannon(target, paths, connections, duration, c, pid)) });
+        const servers = [['app', app, cookie, server.pid], ['baseline', base, cookie, bl.pid]] as const;
+        for (const [, target, c] of servers) await cannon(target, paths, connections, 1, c); // warm-up
+        // Two rounds of half the time each, taking turns (app first, then the baseline first), so that a change in
+        // the machine's load meanwhile falls on both alike. req/s and CPU per request are over both rounds.
+        const rounds = new Map<string, Awaited<ReturnType<typeof cannon>>[]>();
+        for (const order of [servers, [...servers].reverse()]) {
+          for (const [name, target, c, pid] of order) {
+            rounds.set(name, [...(rounds.get(name) ?? []), await cannon(target, paths, connections, duration / 2, c, pid)]);
+          }
         }
+        for (const [name] of servers) runs.push({ scale: devices, endpoint, server: name, connections, ...combine(rounds.get(name)!) });
       }
     }
     // Signed-in vault pages, one connection: the vault home and a device page.
