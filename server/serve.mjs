@@ -10,7 +10,7 @@ import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import send from 'send';
 import { resolvePeer, scrubForwardingHeaders, trustedProxyPeers } from './peer.mjs';
-import { ConfigError, listenHost, loadConfig } from './config.mjs';
+import { ConfigError, listenHost, loadConfig, preferProductionBuilds } from './config.mjs';
 
 /** Every setting, parsed once (server/config.mjs); a bad one stops the server here with its message. */
 let config;
@@ -41,9 +41,8 @@ const host = listenHost(config);
  */
 const outboxKey = config.outbox === 'local' ? config.outboxKey || randomBytes(18).toString('base64url') : undefined;
 
-// The server runs the libraries' production builds (React renders pages several times faster without its
-// development checks) unless NODE_ENV says otherwise; set before the app and its libraries are loaded.
-process.env.NODE_ENV ??= 'production';
+// The libraries' production builds unless NODE_ENV says otherwise: decided before the app is loaded.
+preferProductionBuilds();
 const { handler } = await import(pathToFileURL(entry).href);
 
 const ASSETS = '/_astro/';

@@ -5,7 +5,7 @@
  * and is sent when the network returns, and after sign-out nothing is served from a cache.
  */
 import { describe, expect, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, CDPSession, Page } from 'playwright-core';
 import { browserPool, PHONE, shot, signIn, visit } from './helpers/browser';
 
 const MACHINE = 'mach_demo_kiln';
@@ -13,13 +13,32 @@ const MACHINE = 'mach_demo_kiln';
 const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8DwHwAFBQIAX8jx0gAAAABJRU5ErkJggg==', 'base64');
 const openInPool = browserPool();
 
-async function cutNetwork(context: BrowserContext) {
+/**
+ * Chromium applies the context's offline emulation to the network, but a document loaded while it is on starts
+ * with navigator.onLine true and never hears `offline`. So the page's own target is told again that it is offline
+ * at each document it loads, as a phone without a network reports from the start (and `online` when it returns).
+ */
+const conditions = (offline: boolean) => ({ offline, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+let cut: { page: Page; cdp: CDPSession; tell: () => Promise<unknown> } | null = null;
+
+async function cutNetwork(context: BrowserContext, page: Page) {
   await context.setOffline(true);
   await context.route('**/*', (route) => route.abort('internetdisconnected'));
+  const cdp = await context.newCDPSession(page);
+  const tell = () => cdp.send('Network.emulateNetworkConditions', conditions(true)).catch(() => undefined);
+  await tell();
+  page.on('domcontentloaded', tell);
+  cut = { page, cdp, tell };
 }
 async function restoreNetwork(context: BrowserContext) {
   await context.unroute('**/*');
   await context.setOffline(false);
+  if (!cut) return;
+  const { page, cdp, tell } = cut;
+  cut = null;
+  page.off('domcontentloaded', tell);
+  await cdp.send('Network.emulateNetworkConditions', conditions(false));
+  await cdp.detach();
 }
 /** The service worker is installed and controls the page (it claims open pages when it activates). */
 async function workerInCharge(page: Page) {
@@ -47,7 +66,7 @@ describe('field cards kept on a phone', () => {
     const cardPath = new URL(qrUrl).pathname;
     expect(cardPath).toBe(`/field/devices/${deviceId}`);
 
-    await cutNetwork(b.context);
+    await cutNetwork(b.context, b.page);
     await visit(b.page, cardPath);
     await b.page.getByTestId('kept-copy').waitFor();
     expect(await b.page.getByTestId('kept-copy').textContent()).toMatch(/No network: this is the copy kept on this phone, last brought up to date/);
@@ -102,7 +121,7 @@ describe('field cards kept on a phone', () => {
       databases: (await indexedDB.databases()).map((d) => d.name),
     }));
     expect(left).toEqual({ caches: [], workers: 0, databases: [] });
-    await cutNetwork(b.context);
+    await cutNetwork(b.context, b.page);
     await expect(b.page.goto(cardPath)).rejects.toThrow(/ERR_INTERNET_DISCONNECTED/);
     await restoreNetwork(b.context);
   });
@@ -130,7 +149,7 @@ describe('field cards kept on a phone', () => {
     }, photo.url);
     expect(kept).toBe('baudbook-kept-team_demo_fernhollow');
 
-    await cutNetwork(b.context);
+    await cutNetwork(b.context, b.page);
     await visit(b.page, `/field/devices/${deviceId}`);
     await b.page.getByTestId('kept-copy').waitFor();
     const thumb = b.page.locator(`img[data-testid="thumb"][src="${photo.url}"]`).first();
@@ -160,7 +179,7 @@ describe('field cards kept on a phone', () => {
     await b.page.waitForURL((url) => url.pathname === '/');
     await expect.poll(() => b.page.evaluate(() => caches.keys())).not.toContain('baudbook-kept-team_demo_fernhollow');
 
-    await cutNetwork(b.context);
+    await cutNetwork(b.context, b.page);
     await visit(b.page, cardPath);
     await b.page.getByRole('heading', { level: 1, name: 'No network, and this page is not kept on this phone' }).waitFor();
     await shot(b.page, 'offline-not-kept-phone');

@@ -51,6 +51,8 @@ export async function startServer(extraEnv: Record<string, string> = {}, root?: 
     ...(root ? { cwd: root } : {}),
     env: {
       ...process.env,
+      // As the server runs for its users (server/serve.mjs): the libraries' production builds, not vitest's NODE_ENV.
+      NODE_ENV: 'production',
       HOST: '127.0.0.1',
       PORT: String(port),
       BASE_URL: baseUrl,
