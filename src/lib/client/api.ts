@@ -10,13 +10,22 @@ export class ApiError extends Error {
   }
 }
 
+/** What a call says when the request never reached the server (no network, or the server down). */
+export const NO_NETWORK = 'The server could not be reached (no network?): nothing was sent. Try again when the network returns.';
+
 export async function api<T = unknown>(path: string, init: { method?: string; body?: unknown } = {}): Promise<T> {
-  const res = await fetch(path, {
-    method: init.method ?? (init.body === undefined ? 'GET' : 'POST'),
-    headers: init.body === undefined ? {} : { 'content-type': 'application/json' },
-    body: init.body === undefined ? undefined : JSON.stringify(init.body),
-    credentials: 'same-origin',
-  });
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      method: init.method ?? (init.body === undefined ? 'GET' : 'POST'),
+      headers: init.body === undefined ? {} : { 'content-type': 'application/json' },
+      body: init.body === undefined ? undefined : JSON.stringify(init.body),
+      credentials: 'same-origin',
+    });
+  } catch {
+    // fetch rejects only when no answer came at all; the browser's own words ("Failed to fetch") say nothing useful.
+    throw new ApiError(0, NO_NETWORK);
+  }
   const text = await res.text();
   let data: any = null;
   try {
