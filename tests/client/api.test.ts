@@ -7,7 +7,7 @@ afterEach(() => vi.unstubAllGlobals());
 describe('api()', () => {
   it('says the server could not be reached when fetch rejects (no network), not the browser\'s "Failed to fetch"', async () => {
     vi.stubGlobal('fetch', async () => { throw new TypeError('Failed to fetch'); });
-    const err = await api('/api/devices/dev_1/field-log', { body: { kind: 'verified' } }).catch((e) => e);
+    const err = await api('/api/devices/dev_1/field-log', { body: { kind: 'verified' } }).catch((e: unknown) => e as ApiError);
     expect(err).toBeInstanceOf(ApiError);
     expect(err.status).toBe(0);
     expect(err.message).toBe(NO_NETWORK);
@@ -15,7 +15,7 @@ describe('api()', () => {
 
   it('carries the server\'s message and fields on a refusal', async () => {
     vi.stubGlobal('fetch', async () => new Response(JSON.stringify({ error: 'Check the fields.', fields: { note: 'Too long.' } }), { status: 422 }));
-    const err = await api('/api/devices', { body: {} }).catch((e) => e);
+    const err = await api('/api/devices', { body: {} }).catch((e: unknown) => e as ApiError);
     expect(err).toBeInstanceOf(ApiError);
     expect([err.status, err.message, err.fields]).toEqual([422, 'Check the fields.', { note: 'Too long.' }]);
   });
