@@ -10,7 +10,8 @@
  * modulepreload links, then the static imports of each served file, transitively; what a page imports
  * dynamically, on demand, is not), each file gzipped, and the total per page printed beside the baseline's
  * with the ratio and PASS/FAIL against the budget. A page without islands must load no React at all. Then, in
- * Debian's Chromium, keystroke to preview on the saved index command, on both builds in turns (both servers up, the
+ * Debian's Chromium, keystroke to preview on the saved index command (once a build's service worker is in charge),
+ * on both builds in turns (both servers up, the
  * order alternating each round, so that a change of load on the machine falls on both alike): it must not get slower.
  * BENCH_JSON=file writes the figures for scripts/perf-table.mjs.
  */
@@ -153,6 +154,10 @@ async function keystrokes(server: RunningServer, cookie: string): Promise<number
     const page = context.pages()[0] ?? (await context.newPage());
     await page.goto(COMPOSER);
     await page.waitForFunction(() => !document.querySelector('astro-island[ssr]') && !document.querySelector('[data-later="loading"]'));
+    // A build with a service worker installs it on the first visit, fetching every built file (docs/decisions/017):
+    // keys are typed once it is in charge, as on every later visit, so that the install's fetches (served by the
+    // same two cores) do not count as typing time.
+    if ((await page.request.get('/sw.js')).ok()) await page.waitForFunction(() => !!navigator.serviceWorker.controller, undefined, { timeout: 60_000 });
     const input = page.getByLabel('Index angle (°)');
     await input.waitFor();
     await page.evaluate(() => {

@@ -1,6 +1,6 @@
 /**
  * Runs on every signed-in page (AppLayout): registers the service worker where the browser allows one (https or
- * localhost), records who is signed in and in which team for the worker, drops what was kept for another user or
+ * localhost) once the page has loaded, records who is signed in and in which team for the worker, drops what was kept for another user or
  * team, sends waiting field-log entries (now and on every `online` event) and brings kept cards up to date when
  * they are older than REFRESH_AFTER_MS.
  */
@@ -10,9 +10,19 @@ import { flushOutbox } from './outbox';
 
 const REFRESH_AFTER_MS = 15 * 60 * 1000;
 
+/**
+ * Registers the worker once the page has loaded: its first install fetches every built file (precache), which
+ * should not compete with the page's own loading and hydration (on later visits it is installed already).
+ */
+function registerWhenLoaded(): void {
+  const register = () => void navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
+  if (document.readyState === 'complete') register();
+  else window.addEventListener('load', register, { once: true });
+}
+
 export async function bootOffline(scope: Scope): Promise<void> {
   if (!offlineSupported()) return;
-  navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined);
+  registerWhenLoaded();
   const before = await currentScope();
   if (before && (before.userId !== scope.userId || before.teamId !== scope.teamId)) await forgetKept(before.teamId);
   await setScope(scope);
