@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Writes the table of docs/performance.md from the figures the benchmarks left in bench/.out/*.json (`npm run bench`
 // writes them; BENCH_JSON=file does for a single benchmark). Only the part between the two table markers changes;
-// the notes around it are kept. `--keep N` also keeps the previous run's measured column (two runs side by side).
+// the notes around it (the runs quoted side by side among them) are kept by hand.
 import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import os from 'node:os';

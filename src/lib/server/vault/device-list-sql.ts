@@ -3,6 +3,8 @@
  * runs exactly this statement through a bare client.
  */
 import { sql, type SQL } from 'drizzle-orm';
+import type { InArgs } from '@libsql/client';
+import { ShapedStatements } from './shaped-sql';
 import type { DEVICE_ROLES } from '../../schemas/vault';
 import { teamFtsQuery } from './fts';
 import { PARITY_LETTERS, SHORTHAND_PIECES, type ShorthandPiece } from '../../frame/port-text';
@@ -76,6 +78,24 @@ const piecesSql = (pieces: readonly ShorthandPiece[]) => sql.join(pieces.map(pie
  */
 export const PORT_SHORTHAND_SQL = sql`CASE WHEN ${setting('interface')} = 'tcp' THEN ${piecesSql(SHORTHAND_PIECES.tcp)} ELSE ${piecesSql(SHORTHAND_PIECES.serial)} END`;
 
+/** What decides a list statement's text: the order, and which filters and which paging it has. */
+interface ListShape { sort: (typeof DEVICE_SORTS)[number]; desc: boolean; after: boolean; machine: boolean; site: boolean; role: boolean; match: boolean }
+/** What a list statement takes as parameters: values, or drizzle placeholders of the same names. */
+type ListValues = Record<'teamId' | 'machineId' | 'siteId' | 'role' | 'match' | 'afterKey' | 'afterId' | 'limit' | 'offset' | 'page' | 'pageSize' | 'lastOnPage' | 'sort' | 'dir', unknown>;
+
+function listShape(teamId: string, opts: DeviceListOptions): { shape: ListShape; values: ListValues } {
+  const match = opts.q ? teamFtsQuery(teamId, opts.q) : null;
+  const sort = (Object.hasOwn(SORT_SQL, opts.sort) ? opts.sort : 'tag') as ListShape['sort'];
+  return {
+    shape: { sort, desc: opts.dir === 'desc', after: !!opts.after, machine: !!opts.machineId, site: !!opts.siteId, role: !!opts.role, match: !!match },
+    values: {
+      teamId, machineId: opts.machineId, siteId: opts.siteId, role: opts.role, match, afterKey: opts.after?.[0], afterId: opts.after?.[1],
+      limit: opts.pageSize + 1, offset: opts.after ? 0 : (opts.page - 1) * opts.pageSize, page: opts.after ? null : opts.page,
+      pageSize: opts.pageSize, lastOnPage: opts.pageSize - 1, sort: opts.sort, dir: opts.dir,
+    },
+  };
+}
+
 /**
  * The statement behind `listDevicesJson` (one row, one column: `page`); the vault benchmark's baseline runs it too.
  * Its cost does not grow with the team: the page is read off an index that serves the order (`device_team_*_idx`,
@@ -83,28 +103,30 @@ export const PORT_SHORTHAND_SQL = sql`CASE WHEN ${setting('interface')} = 'tcp' 
  * links; its cost grows with the page number); the total is counted up to TOTAL_CAP rows.
  */
 export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQL {
-  const match = opts.q ? teamFtsQuery(teamId, opts.q) : null;
-  const order = SORT_SQL[opts.sort as (typeof DEVICE_SORTS)[number]] ?? SORT_SQL.tag;
-  const desc = opts.dir === 'desc';
-  const dir = sql.raw(desc ? 'DESC' : 'ASC');
+  const { shape, values } = listShape(teamId, opts);
+  return listSql(shape, values);
+}
+
+function listSql(shape: ListShape, v: ListValues): SQL {
+  const order = SORT_SQL[shape.sort];
+  const dir = sql.raw(shape.desc ? 'DESC' : 'ASC');
   const filters = [
-    sql`device.team_id = ${teamId} AND device.deleted_at IS NULL`,
-    opts.machineId ? sql`device.machine_id = ${opts.machineId}` : undefined,
-    opts.siteId ? sql`machine.site_id = ${opts.siteId}` : undefined,
-    opts.role ? sql`device.role = ${opts.role}` : undefined,
-    match ? sql`device.id IN (SELECT device_id FROM device_search WHERE device_search MATCH ${match})` : undefined,
+    sql`device.team_id = ${v.teamId} AND device.deleted_at IS NULL`,
+    shape.machine ? sql`device.machine_id = ${v.machineId}` : undefined,
+    shape.site ? sql`machine.site_id = ${v.siteId}` : undefined,
+    shape.role ? sql`device.role = ${v.role}` : undefined,
+    shape.match ? sql`device.id IN (SELECT device_id FROM device_search WHERE device_search MATCH ${v.match})` : undefined,
   ].filter((c): c is SQL => c !== undefined);
   const where = sql.join(filters, sql` AND `);
-  const after = opts.after ? sql`AND (${order.key}, device.id) ${sql.raw(desc ? '<' : '>')} (${opts.after[0]}, ${opts.after[1]})` : sql``;
-  const offset = opts.after ? 0 : (opts.page - 1) * opts.pageSize;
-  const needsMachine = order.joins !== 'none' || !!opts.siteId;
+  const after = shape.after ? sql`AND (${order.key}, device.id) ${sql.raw(shape.desc ? '<' : '>')} (${v.afterKey}, ${v.afterId})` : sql``;
+  const needsMachine = order.joins !== 'none' || shape.site;
   const joins = sql.join([needsMachine ? JOIN_MACHINE : undefined, order.joins === 'site' ? JOIN_SITE : undefined].filter((j): j is SQL => !!j), sql` `);
-  const countJoins = opts.siteId ? JOIN_MACHINE : sql``;
+  const countJoins = shape.site ? JOIN_MACHINE : sql``;
   return sql`
     WITH rows AS MATERIALIZED (
       SELECT device.id AS id, ${order.key} AS k FROM device ${joins} WHERE ${where} ${after}
-      ORDER BY k ${dir}, device.id ${dir} LIMIT ${opts.pageSize + 1} OFFSET ${offset}
-    ), page AS MATERIALIZED (SELECT id, k FROM rows ORDER BY k ${dir}, id ${dir} LIMIT ${opts.pageSize}),
+      ORDER BY k ${dir}, device.id ${dir} LIMIT ${v.limit} OFFSET ${v.offset}
+    ), page AS MATERIALIZED (SELECT id, k FROM rows ORDER BY k ${dir}, id ${dir} LIMIT ${v.pageSize}),
     counted AS MATERIALIZED (SELECT count(*) AS n FROM (SELECT 1 FROM device ${countJoins} WHERE ${where} LIMIT ${TOTAL_CAP + 1}))
     SELECT json_object(
       'items', (SELECT json_group_array(json_object(
@@ -117,10 +139,22 @@ export function deviceListStatement(teamId: string, opts: DeviceListOptions): SQ
                    FROM port WHERE port.device_id = device.id AND port.deleted_at IS NULL)
        ) ORDER BY page.k ${dir}, page.id ${dir})
        FROM page JOIN device ON device.id = page.id ${JOIN_MACHINE} ${JOIN_SITE}),
-      'page', ${opts.after ? null : opts.page}, 'pageSize', ${opts.pageSize},
+      'page', ${v.page}, 'pageSize', ${v.pageSize},
       'total', min((SELECT n FROM counted), ${TOTAL_CAP}), 'totalCapped', json((SELECT CASE WHEN n > ${TOTAL_CAP} THEN 'true' ELSE 'false' END FROM counted)),
-      'next', CASE WHEN (SELECT count(*) FROM rows) > ${opts.pageSize}
-        THEN (SELECT json_array(k, id) || '' FROM page ORDER BY k ${dir}, id ${dir} LIMIT 1 OFFSET ${opts.pageSize - 1}) END,
-      'sort', ${opts.sort}, 'dir', ${opts.dir}
+      'next', CASE WHEN (SELECT count(*) FROM rows) > ${v.pageSize}
+        THEN (SELECT json_array(k, id) || '' FROM page ORDER BY k ${dir}, id ${dir} LIMIT 1 OFFSET ${v.lastOnPage}) END,
+      'sort', ${v.sort}, 'dir', ${v.dir}
     ) AS page`;
+}
+
+const shapes = new ShapedStatements<string>();
+const PLACEHOLDERS = Object.fromEntries(
+  (['teamId', 'machineId', 'siteId', 'role', 'match', 'afterKey', 'afterId', 'limit', 'offset', 'page', 'pageSize', 'lastOnPage', 'sort', 'dir'] as const)
+    .map((name) => [name, sql.placeholder(name)]),
+) as ListValues;
+
+/** `deviceListStatement` as the text and arguments the client runs, its text built once per shape (./shaped-sql.ts). */
+export function deviceListQuery(teamId: string, opts: DeviceListOptions): { sql: string; args: InArgs } {
+  const { shape, values } = listShape(teamId, opts);
+  return shapes.query(JSON.stringify(shape), () => listSql(shape, PLACEHOLDERS), values);
 }

@@ -1,7 +1,7 @@
 /** Devices and their ports: one transaction writes a device, its ports and their revisions. */
 import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { z } from 'zod';
-import { db, type DbOrTx } from '../../../db/client';
+import { client, db, type DbOrTx } from '../../../db/client';
 import { device, machine, port, site } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { newId } from '../ids';
@@ -10,7 +10,7 @@ import { findLive, recordCreated, updateVersioned, type Page } from './records';
 import { deviceEntity, machineEntity, portEntity, profileEntity, type DeviceRow, type PortRow } from '../records/entities';
 import { presentPort, type PortView } from './present';
 import { definedOnly } from '../records/diff';
-import { deviceListStatement, type DeviceListOptions } from './device-list-sql';
+import { deviceListQuery, type DeviceListOptions } from './device-list-sql';
 import { duplicateFrom, Invalid, notFound } from '../errors';
 import type { BridgePair } from '../../../db/schema';
 import { formerSerialsAfter } from '../../field/serials';
@@ -36,8 +36,8 @@ export interface DeviceView extends DeviceRow {
  * parsing or serialising in JavaScript (docs/vault.md, "Performance").
  */
 export async function listDevicesJson(ctx: TeamContext, opts: DeviceListOptions): Promise<string> {
-  const [row] = await db.all<{ page: string }>(deviceListStatement(ctx.team.id, opts));
-  return row!.page;
+  const { rows } = await client.execute(deviceListQuery(ctx.team.id, opts));
+  return rows[0]!.page as string;
 }
 
 /** What the device list says beside `Page`: whether `total` stopped at the cap, and the cursor of the next page. */

@@ -4,6 +4,8 @@
  * token, `teamFtsQuery`), and at most SEARCH_CAP + 1 matches are read and ordered (docs/api.md, "Search").
  */
 import { sql, type SQL } from 'drizzle-orm';
+import type { InArgs } from '@libsql/client';
+import { ShapedStatements } from './shaped-sql';
 import { RECORD_SEARCH_COLUMNS, teamFtsQuery } from './fts';
 
 /** Matches read per search; above it the answer says `totalCapped: true` and orders the first SEARCH_CAP found. */
@@ -16,22 +18,29 @@ export const SEARCH_CAP = 200;
  * team's word included, on every search, a cost that grows with the team.)
  */
 export function deviceSearchStatement(teamId: string, q: string, pageSize: number, offset: number): SQL | null {
+  const values = searchValues(teamId, q, pageSize, offset);
+  return values && searchSql(values);
+}
+
+/** What a device search takes as parameters (values, or drizzle placeholders of the same names); its text depends only on the number of words. */
+interface SearchValues { teamId: unknown; match: unknown; words: unknown[]; pageSize: unknown; offset: unknown }
+
+function searchValues(teamId: string, q: string, pageSize: number, offset: number): SearchValues | null {
   const match = teamFtsQuery(teamId, q);
   if (!match) return null;
-  const words = q.toLowerCase().match(/[\p{L}\p{N}]+/gu)!.slice(0, 8);
-  const inTag = sql.join(words.map((w) => sql`instr(lower(f.tag), ${w}) > 0`), sql` AND `);
-  // Ordered on the index rows' own columns, so only the page's devices are read from the device table (matches spread
-  // over a large table would each cost a page read). A long job's devices have their rows before they are shown
-  // (`searchRowsOf`): only while one of the team's jobs has devices out of sight is every match looked up to leave
-  // those out. A job's id is `job_` and URL-safe base64 (below `{`); the trash-stamp index holds only stamped rows.
+  return { teamId, match, words: q.toLowerCase().match(/[\p{L}\p{N}]+/gu)!.slice(0, 8), pageSize, offset };
+}
+
+function searchSql(v: SearchValues): SQL {
+  const inTag = sql.join(v.words.map((w) => sql`instr(lower(f.tag), ${w}) > 0`), sql` AND `);
   return sql`
     WITH hidden AS MATERIALIZED (
       SELECT EXISTS (SELECT 1 FROM device INDEXED BY device_trash_idx
-        WHERE trash_id > 'job_' AND trash_id < 'job_{' AND deleted_at IS NOT NULL AND team_id = ${teamId}) AS any
+        WHERE trash_id > 'job_' AND trash_id < 'job_{' AND deleted_at IS NOT NULL AND team_id = ${v.teamId}) AS any
     ), hits AS MATERIALIZED (
       SELECT f.device_id, CASE WHEN ${inTag} THEN 0 ELSE 1 END AS score, f.tag, f.name, f.role, f.maker, f.model, f.serial_number,
              f.former_serials, f.site_name, f.machine_name
-      FROM device_search f WHERE device_search MATCH ${match} LIMIT ${SEARCH_CAP + 1}
+      FROM device_search f WHERE device_search MATCH ${v.match} LIMIT ${SEARCH_CAP + 1}
     ), live AS MATERIALIZED (
       SELECT * FROM hits h WHERE NOT (SELECT any FROM hidden)
         OR EXISTS (SELECT 1 FROM device d WHERE d.id = h.device_id AND d.deleted_at IS NULL)
@@ -39,9 +48,24 @@ export function deviceSearchStatement(teamId: string, q: string, pageSize: numbe
     SELECT l.device_id AS id, l.tag, l.name, l.role, l.maker, l.model, l.serial_number AS serialNumber, d.former_serials AS formerSerials,
            l.machine_name AS machineName, l.site_name AS siteName, d.machine_id AS machineId, m.site_id AS siteId,
            (SELECT count(*) FROM hits) AS found, (SELECT count(*) FROM live) AS live
-    FROM (SELECT * FROM live ORDER BY score, tag, device_id LIMIT ${pageSize} OFFSET ${offset}) l
+    FROM (SELECT * FROM live ORDER BY score, tag, device_id LIMIT ${v.pageSize} OFFSET ${v.offset}) l
     JOIN device d ON d.id = l.device_id JOIN machine m ON m.id = d.machine_id
     ORDER BY l.score, l.tag, l.device_id`;
+}
+
+const shapes = new ShapedStatements<number>();
+
+/** `deviceSearchStatement` as the text and arguments the client runs, its text built once per number of words (./shaped-sql.ts). */
+export function deviceSearchQuery(teamId: string, q: string, pageSize: number, offset: number): { sql: string; args: InArgs } | null {
+  const v = searchValues(teamId, q, pageSize, offset);
+  if (!v) return null;
+  const n = v.words.length;
+  const named: Record<string, unknown> = { teamId: v.teamId, match: v.match, pageSize: v.pageSize, offset: v.offset };
+  v.words.forEach((w, i) => { named[`w${i}`] = w; });
+  return shapes.query(n, () => searchSql({
+    teamId: sql.placeholder('teamId'), match: sql.placeholder('match'), pageSize: sql.placeholder('pageSize'), offset: sql.placeholder('offset'),
+    words: Array.from({ length: n }, (_, i) => sql.placeholder(`w${i}`)),
+  }), named);
 }
 
 /**

@@ -1,10 +1,10 @@
 /** Team-wide device search over the FTS5 index `device_search` (kept current by triggers). */
 import { sql, type SQL } from 'drizzle-orm';
-import { db } from '../../../db/client';
+import { client, db } from '../../../db/client';
 import type { TeamContext } from '../guard';
 import type { Page } from './records';
 import { ftsQuery } from './fts';
-import { deviceSearchStatement, recordSearchStatement, SEARCH_CAP } from './search-sql';
+import { deviceSearchQuery, recordSearchStatement, SEARCH_CAP } from './search-sql';
 import { Invalid } from '../errors';
 
 export const SEARCH_FIELDS = ['tag', 'name', 'role', 'maker', 'model', 'serialNumber', 'formerSerials', 'siteName', 'machineName'] as const;
@@ -19,9 +19,9 @@ export interface SearchHit {
 }
 
 export async function searchDevices(ctx: TeamContext, q: string, page: number, pageSize: number): Promise<Page<SearchHit> & { q: string; totalCapped: boolean }> {
-  const statement = deviceSearchStatement(ctx.team.id, q, pageSize, (page - 1) * pageSize);
+  const statement = deviceSearchQuery(ctx.team.id, q, pageSize, (page - 1) * pageSize);
   if (!statement) throw new Invalid('q: type at least one letter or digit', { fields: { q: 'Type at least one letter or digit.' } });
-  const rows = await db.all<Record<string, string>>(statement);
+  const rows = (await client.execute(statement)).rows as unknown as Record<string, string>[];
   const words = ftsQuery(q)!.match(/"([^"]+)"/g)!.map((w) => w.slice(1, -1));
   // Each hit built field by field (a spread of the driver's row objects cost more than the rest of the mapping).
   const items = rows.map((r): SearchHit => ({
@@ -40,7 +40,7 @@ function capped(found: number, live: number) {
 
 /** A page past the last: the counts alone (the same statement, first row). */
 async function emptyPageTotal(teamId: string, q: string) {
-  const [row] = await db.all<{ found: number; live: number }>(deviceSearchStatement(teamId, q, 1, 0)!);
+  const [row] = (await client.execute(deviceSearchQuery(teamId, q, 1, 0)!)).rows;
   return row ? capped(Number(row.found), Number(row.live)) : { total: 0, totalCapped: false };
 }
 
