@@ -2,7 +2,8 @@
  * Vault endpoint benchmark (not a test): the built server (dist/) against a bare node:http +
  * @libsql/client baseline answering the same statements, at 10,000 and at 100,000 devices, each in a database of
  * its own. The 100,000-device database is seeded once and kept (BENCH_DB_DIR, default /tmp/bench-db-100k): a copy
- * of it is migrated per set of migrations and copied again for each run. Also measured: signed-in vault pages, a
+ * of it is migrated per set of migrations and copied again for each run. Both scales' servers are up at once and
+ * the endpoints are measured on all of them in turns (`measureEndpoints`). Then, one scale at a time: signed-in vault pages, a
  * JSON export of the whole team (the server's memory while it runs) and the server's memory at rest and after load.
  * BENCH_SCALES=10000,100000 picks the sizes; BENCH_ENDPOINTS=search (say) only those endpoints, without the pages; BENCH_JSON=file writes the figures for scripts/perf-table.mjs.
  * Run: node_modules/.bin/tsx bench/vault.ts   (build first: node_modules/.bin/astro build)
@@ -201,7 +202,13 @@ interface Scale {
   memory: { atRestMb: number; afterLoadMb: number }; exportRun?: { ms: number; bytes: number; rssBeforeMb: number; rssPeakMb: number; status: number };
 }
 
-async function measureScale(devices: number): Promise<Scale> {
+/** One scale's database, app server and baseline, up and signed in, with the paths each endpoint is measured on. */
+interface Started {
+  devices: number; dir: string; children: ChildProcess[]; app: string; base: string; appPid: number; basePid: number;
+  cookie: string; atRestMb: number; paths: { list: string[]; search: string[] };
+}
+
+async function startScale(devices: number): Promise<Started> {
   const dir = mkdtempSync(join(tmpdir(), 'baudbook-bench-'));
   const path = join(dir, 'bench.db');
   const url = `file:${path}`;
@@ -242,71 +249,102 @@ async function measureScale(devices: number): Promise<Scale> {
     const atRestMb = rssMb(server.pid!);
 
     // The first 20 pages of 50 by tag, as the device table reads them: each page from the previous page's cursor.
-    const listPaths: string[] = [];
+    const list: string[] = [];
     for (let after: string | null = null, i = 0; i < 20; i++) {
       const path: string = `/api/devices?pageSize=50&sort=tag&dir=asc${after ? `&after=${encodeURIComponent(after)}` : ''}`;
-      listPaths.push(path);
+      list.push(path);
       const page = (await (await fetch(`${app}${path}`, { headers: { cookie } })).json()) as { next: string | null };
       after = page.next;
       if (!after) break;
     }
-    const searchPaths = SEARCHES.map((q) => `/api/devices/search?q=${encodeURIComponent(q)}&pageSize=20`);
-    const runs: Run[] = [];
-    // BENCH_ENDPOINTS=search (say) measures only that endpoint, and no pages: for a profile of one endpoint.
-    const only = process.env.BENCH_ENDPOINTS?.split(',');
-    for (const [endpoint, paths] of ([['list', listPaths], ['search', searchPaths]] as const).filter(([e]) => !only || only.includes(e))) {
-      for (const [connections, duration] of [[32, 10], [1, 5]] as const) {
-        // Both get the session cookie: the baseline reads the session as the app does (the app's statement).
-        const servers = [['app', app, cookie, server.pid], ['baseline', base, cookie, bl.pid]] as const;
-        for (const [, target, c] of servers) await cannon(target, paths, connections, 1, c); // warm-up
-        // Two rounds of half the time each, taking turns (app first, then the baseline first), so that a change in
-        // the machine's load meanwhile falls on both alike. req/s and CPU per request are over both rounds.
-        const rounds = new Map<string, Awaited<ReturnType<typeof cannon>>[]>();
-        for (const order of [servers, [...servers].reverse()]) {
-          for (const [name, target, c, pid] of order) {
-            rounds.set(name, [...(rounds.get(name) ?? []), await cannon(target, paths, connections, duration / 2, c, pid)]);
-          }
-        }
-        for (const [name] of servers) runs.push({ scale: devices, endpoint, server: name, connections, ...combine(rounds.get(name)!) });
+    const search = SEARCHES.map((q) => `/api/devices/search?q=${encodeURIComponent(q)}&pageSize=20`);
+    return { devices, dir, children, app, base, appPid: server.pid!, basePid: bl.pid!, cookie, atRestMb, paths: { list, search } };
+  } catch (err) {
+    await stopScale({ dir, children });
+    throw err;
+  }
+}
+
+async function stopScale(s: Pick<Started, 'dir' | 'children'>) {
+  for (const c of s.children) c.kill('SIGTERM');
+  await new Promise((r) => setTimeout(r, process.env.BENCH_PROFILE ? 2500 : 300));
+  rmSync(s.dir, { recursive: true, force: true });
+}
+
+/**
+ * List and search at 32 connections and at 1, on every scale's app and baseline, all up at once. Two rounds of half
+ * the time each, taking turns (in order, then in reverse), so that a change in the machine's load meanwhile falls
+ * on all alike: the app against the baseline and 100,000 devices against 10,000 compare within the same minutes.
+ * req/s and CPU per request are over both rounds.
+ */
+async function measureEndpoints(scales: Started[]): Promise<Run[]> {
+  const runs: Run[] = [];
+  // BENCH_ENDPOINTS=search (say) measures only that endpoint, and no pages: for a profile of one endpoint.
+  const only = process.env.BENCH_ENDPOINTS?.split(',');
+  for (const endpoint of (['list', 'search'] as const).filter((e) => !only || only.includes(e))) {
+    for (const [connections, duration] of [[32, 10], [1, 5]] as const) {
+      // Both get the session cookie: the baseline reads the session as the app does (the app's statement).
+      const servers = scales.flatMap((s) => [
+        { scale: s.devices, name: 'app', target: s.app, pid: s.appPid, cookie: s.cookie, paths: s.paths[endpoint] },
+        { scale: s.devices, name: 'baseline', target: s.base, pid: s.basePid, cookie: s.cookie, paths: s.paths[endpoint] },
+      ]);
+      for (const t of servers) await cannon(t.target, t.paths, connections, 1, t.cookie); // warm-up
+      const rounds = new Map<(typeof servers)[number], Awaited<ReturnType<typeof cannon>>[]>();
+      for (const order of [servers, [...servers].reverse()]) {
+        for (const t of order) rounds.set(t, [...(rounds.get(t) ?? []), await cannon(t.target, t.paths, connections, duration / 2, t.cookie, t.pid)]);
       }
+      for (const t of servers) runs.push({ scale: t.scale, endpoint, server: t.name, connections, ...combine(rounds.get(t)!) });
     }
+  }
+  return runs;
+}
+
+/** A scale's signed-in pages, its export and its memory, measured alone; then its servers are stopped. */
+async function finishScale(s: Started, runs: Run[]): Promise<Scale> {
+  try {
+    const only = process.env.BENCH_ENDPOINTS;
     // Signed-in vault pages, one connection: the vault home and a device page.
     const pages: Scale['pages'] = [];
     for (const page of only ? [] : ['/vault', '/vault/devices/dev_large_4242']) {
-      await cannon(app, [page], 1, 1, cookie);
-      const r = await cannon(app, [page], 1, 5, cookie);
+      await cannon(s.app, [page], 1, 1, s.cookie);
+      const r = await cannon(s.app, [page], 1, 5, s.cookie);
       pages.push({ page, p50: r.p50, p99: r.p99, failed: r.failed });
     }
     await new Promise((r) => setTimeout(r, 1000));
-    const afterLoadMb = rssMb(server.pid!);
+    const afterLoadMb = rssMb(s.appPid);
 
     // The whole team as a JSON document, its memory sampled every 20 ms while it is written and read.
     let exportRun: Scale['exportRun'];
-    if (devices >= 100_000 || process.env.BENCH_EXPORT) {
-      const rssBeforeMb = rssMb(server.pid!);
+    if (s.devices >= 100_000 || process.env.BENCH_EXPORT) {
+      const rssBeforeMb = rssMb(s.appPid);
       let rssPeakMb = rssBeforeMb;
-      const sampler = setInterval(() => (rssPeakMb = Math.max(rssPeakMb, rssMb(server.pid!))), 20);
+      const sampler = setInterval(() => (rssPeakMb = Math.max(rssPeakMb, rssMb(s.appPid))), 20);
       const e0 = performance.now();
-      const res = await fetch(`${app}/api/export`, { headers: { cookie } });
+      const res = await fetch(`${s.app}/api/export`, { headers: { cookie: s.cookie } });
       let bytes = 0;
       for await (const chunk of res.body!) bytes += (chunk as Uint8Array).byteLength;
       const ms = performance.now() - e0;
       clearInterval(sampler);
       exportRun = { ms, bytes, rssBeforeMb, rssPeakMb, status: res.status };
     }
-    return { scale: devices, runs, pages, memory: { atRestMb, afterLoadMb }, exportRun };
+    return { scale: s.devices, runs: runs.filter((r) => r.scale === s.devices), pages, memory: { atRestMb: s.atRestMb, afterLoadMb }, exportRun };
   } finally {
-    for (const c of children) c.kill('SIGTERM');
-    await new Promise((r) => setTimeout(r, process.env.BENCH_PROFILE ? 2500 : 300));
-    rmSync(dir, { recursive: true, force: true });
+    await stopScale(s);
   }
 }
 
 async function main() {
   if (!existsSync('dist/server/entry.mjs')) throw new Error('Build first: node_modules/.bin/astro build');
   process.env.BETTER_AUTH_SECRET ??= 'bench-secret-not-for-production-0123456789abcdef';
+  const started: Started[] = [];
   const scales: Scale[] = [];
-  for (const n of SCALES) scales.push(await measureScale(n));
+  try {
+    for (const n of SCALES) started.push(await startScale(n));
+    const runs = await measureEndpoints(started);
+    while (started.length) scales.push(await finishScale(started.shift()!, runs));
+  } finally {
+    for (const s of started) await stopScale(s);
+  }
   const figures = report(scales);
   if (process.env.BENCH_JSON) writeFileSync(process.env.BENCH_JSON, JSON.stringify({ date: new Date().toISOString(), scales, figures }, null, 2));
 }
