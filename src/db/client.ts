@@ -5,7 +5,7 @@ import { drizzle } from 'drizzle-orm/libsql';
 import { config } from '../config';
 import * as schema from './schema';
 import { gateWrites } from './write-gate';
-import { cacheReadStatements } from './statement-cache';
+import { cacheStatements } from './statement-cache';
 import { configureConnections } from './connection-settings';
 
 function openClient(url: string): Client {
@@ -13,7 +13,7 @@ function openClient(url: string): Client {
     const path = url.slice('file:'.length);
     if (path && path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
   }
-  cacheReadStatements();
+  cacheStatements();
   // Per-connection settings for a local file: no fsync at commit, checkpoints off the main thread.
   if (url.startsWith('file:')) configureConnections();
   // `timeout` is SQLite's busy timeout in ms: writers in other processes wait instead of failing with SQLITE_BUSY.

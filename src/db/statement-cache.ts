@@ -1,7 +1,6 @@
 import Database from 'libsql';
-import { isReadSql } from './read-sql';
 
-/** How many read statements each connection keeps prepared. */
+/** How many statements each connection keeps prepared. */
 export const STATEMENT_CACHE_SIZE = 256;
 
 // Only handed back to the client, never used here.
@@ -11,22 +10,24 @@ let installed = false;
 
 
 /**
- * Keeps each local connection's read statements prepared, least recently used dropped first.
+ * Keeps each local connection's statements prepared, least recently used dropped first.
  *
- * `@libsql/client` prepares every statement afresh on every call; for the vault's larger reads
- * (the device page, the session lookup) compiling the SQL took a fifth of the request's time.
- * SQLite statements are reusable by design: the client binds, runs every row out and so resets
- * the statement each time, and SQLite re-prepares a cached statement by itself after a schema
- * change. Writes are left alone. Each connection (the client's and each transaction's) has a
- * cache of its own, dropped with the connection.
+ * `@libsql/client` prepares every statement afresh on every call. For the vault's larger reads (the device page,
+ * the session lookup) compiling the SQL took a fifth of the request's time; for an import's multi-row inserts
+ * (a hundred rows of a table with a dozen indexes and a search trigger, one program for all of them) it took
+ * longer than SQLite's writing of the rows. SQLite statements are reusable by design: the client binds and runs
+ * every row out (a write runs to its end, a read returns all its rows), which resets the statement each time;
+ * a statement that failed is reset by its next run; and SQLite re-prepares a cached statement by itself after a
+ * schema change. Each connection (the client's and each transaction's) has a cache of its own, dropped with the
+ * connection. SQLite keeps the values last bound to a statement until its next run, so a cached import insert
+ * holds one batch of rows (under a megabyte) until the text is used again or dropped.
  */
-export function cacheReadStatements(): void {
+export function cacheStatements(): void {
   if (installed) return;
   installed = true;
   const proto = Database.prototype as unknown as { prepare(this: object, sql: string): Statement };
   const prepare = proto.prepare;
   proto.prepare = function cachedPrepare(this: object, sql: string): Statement {
-    if (!isReadSql(sql)) return prepare.call(this, sql);
     let cache = caches.get(this);
     if (!cache) caches.set(this, (cache = new Map()));
     const hit = cache.get(sql);

@@ -5,9 +5,9 @@ import { join } from 'node:path';
 import { afterEach, beforeAll, expect, it } from 'vitest';
 import Database from 'libsql';
 import { createClient, type Client } from '@libsql/client';
-import { cacheReadStatements, STATEMENT_CACHE_SIZE } from '../../src/db/statement-cache';
+import { cacheStatements, STATEMENT_CACHE_SIZE } from '../../src/db/statement-cache';
 
-beforeAll(() => cacheReadStatements());
+beforeAll(() => cacheStatements());
 
 const dirs: string[] = [];
 const opened: Client[] = [];
@@ -32,12 +32,13 @@ afterEach(() => {
 
 const count = async (c: Client) => Number((await c.execute('SELECT count(*) AS n FROM t')).rows[0]!.n);
 
-it('hands back one prepared statement per read and connection, and never caches writes', () => {
+it('hands back one prepared statement per text and connection, reads and writes alike', () => {
   const db = new Database(tempPath());
   db.exec('CREATE TABLE t (n INTEGER)');
   expect(db.prepare('SELECT n FROM t')).toBe(db.prepare('SELECT n FROM t'));
   expect(db.prepare('WITH x AS (SELECT 1 AS v) SELECT count(*), v FROM x')).toBe(db.prepare('WITH x AS (SELECT 1 AS v) SELECT count(*), v FROM x'));
-  expect(db.prepare('INSERT INTO t VALUES (1)')).not.toBe(db.prepare('INSERT INTO t VALUES (1)'));
+  expect(db.prepare('INSERT INTO t VALUES (?)')).toBe(db.prepare('INSERT INTO t VALUES (?)'));
+  expect(db.prepare('INSERT INTO t VALUES (?)')).not.toBe(db.prepare('INSERT INTO t VALUES (?), (?)'));
   const other = new Database(tempPath());
   other.exec('CREATE TABLE t (n INTEGER)');
   expect(other.prepare('SELECT n FROM t')).not.toBe(db.prepare('SELECT n FROM t'));
@@ -100,4 +101,30 @@ it('a cached read keeps working after another connection changes the schema', as
   expect(named.rows[0]!.n).toBe(7);
   const both = await a.execute('SELECT n, label FROM t WHERE n > ?', [0]);
   expect(both.rows[0]!.label).toBe('x');
+});
+
+it('a cached write runs again with new values, and one that failed runs again too', async () => {
+  const [a, b] = await twoClients();
+  await a.execute('CREATE UNIQUE INDEX t_n ON t (n)');
+  const put = (n: number) => a.execute({ sql: 'INSERT INTO t (n) VALUES (?)', args: [n] });
+  await put(1);
+  await put(2);
+  await expect(put(1)).rejects.toThrow(/UNIQUE/);
+  await put(3);
+  expect(await count(b)).toBe(3);
+  const back = (n: number) => a.execute({ sql: 'INSERT INTO t (n) VALUES (?) RETURNING n * 10 AS x', args: [n] });
+  expect((await back(4)).rows[0]!.x).toBe(40);
+  expect((await back(5)).rows[0]!.x).toBe(50);
+  expect(await count(b)).toBe(5);
+});
+
+it('a cached write in a batch leaves no lock behind: the other connection writes and checkpoints after it', async () => {
+  const [a, b] = await twoClients();
+  for (let i = 0; i < 10; i++) {
+    await a.batch([{ sql: 'INSERT INTO t (n) VALUES (?), (?)', args: [2 * i, 2 * i + 1] }, { sql: 'UPDATE t SET n = n WHERE n = ?', args: [i] }], 'write');
+    await b.execute({ sql: 'INSERT INTO t (n) VALUES (?)', args: [100 + i] }); // timeout 50 ms: fails if a holds the write lock
+  }
+  const ck = await b.execute('PRAGMA wal_checkpoint(TRUNCATE)');
+  expect(Number(ck.rows[0]![0])).toBe(0);
+  expect(await count(a)).toBe(30);
 });

@@ -7,6 +7,11 @@ export interface TeamContext {
   role: Role;
 }
 
+/** What team-scoped reads need: the team's id. A share link's page has this and no session (nor the team's name). */
+export interface TeamScope {
+  team: Pick<TeamContext['team'], 'id'>;
+}
+
 /**
  * The one guard for API routes and pages (pages through `loadPage`, ./page.ts): 401 without a session, 404
  * without a team (nothing to act on), 403 when the role lacks the permission.

@@ -7,7 +7,7 @@ import type { DbOrTx } from '../../../db/client';
 import { command } from '../../../db/schema';
 import { describeSteps, referencedIds, type SavedSequence, type StepCommand, type StepInfo } from '../../composer/saved-sequence';
 import type { Template } from '../../frame/template';
-import type { TeamContext } from '../guard';
+import type { TeamContext, TeamScope } from '../guard';
 import { Invalid } from '../errors';
 import type { CommandRow } from './records';
 
@@ -16,7 +16,7 @@ export const EMPTY_TEMPLATE: Template = { version: 1, segments: [] };
 type Owner = { deviceId: string | null; profileId: string | null };
 
 /** The commands the ids name in the caller's team, in any state (live or in the trash); purged ones are absent. */
-export async function stepCommands(q: DbOrTx, ctx: Pick<TeamContext, 'team'>, ids: readonly string[]): Promise<Map<string, StepCommand & Owner>> {
+export async function stepCommands(q: DbOrTx, ctx: TeamScope, ids: readonly string[]): Promise<Map<string, StepCommand & Owner>> {
   const unique = [...new Set(ids)];
   if (!unique.length) return new Map();
   const rows = await q

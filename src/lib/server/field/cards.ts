@@ -4,13 +4,13 @@ import { db } from '../../../db/client';
 import { command, device, link, linkMember, machine, port } from '../../../db/schema';
 import { loadMembers } from '../vault/link-members';
 import { portRoutes, type ChainLink } from '../../field/chains';
-import type { TeamContext } from '../guard';
+import type { TeamScope } from '../guard';
 import { cardCommand, cardPort, type CardCommand, type CardPort } from '../../field/card';
 import { liveDevice, liveMachine, liveSite } from './scope';
 import { referencedIds } from '../../composer/saved-sequence';
 import { stepCommands } from '../commands/sequences';
 
-type TeamRef = Pick<TeamContext, 'team'>;
+type TeamRef = TeamScope;
 type DeviceRow = typeof device.$inferSelect;
 
 export interface DeviceCard {

@@ -6,7 +6,7 @@
 import { and, desc, eq, inArray, isNull, type SQL } from 'drizzle-orm';
 import { db, type DbOrTx } from '../../../db/client';
 import { device, fieldLogEntry, fieldProposal, membership, port, user, type ProposalStatus } from '../../../db/schema';
-import type { TeamContext } from '../guard';
+import type { TeamContext, TeamScope } from '../guard';
 import { newId } from '../ids';
 import { portSettingsSchema, type PortSettings } from '../../frame/port-settings';
 import type { FieldLogCreate, FoundPortSettings } from '../../schemas/field';
@@ -131,7 +131,7 @@ export async function notifyReviewers(ctx: TeamContext, entryId: string): Promis
   return sent;
 }
 
-async function proposalRows(ctx: Pick<TeamContext, 'team'>, where: SQL | undefined, q: DbOrTx = db, limit = 200): Promise<ProposalView[]> {
+async function proposalRows(ctx: TeamScope, where: SQL | undefined, q: DbOrTx = db, limit = 200): Promise<ProposalView[]> {
   const rows = await q
     .select({ p: fieldProposal, e: fieldLogEntry, d: { tag: device.tag, name: device.name, serialNumber: device.serialNumber, firmware: device.firmware, version: device.version } })
     .from(fieldProposal)
@@ -160,7 +160,7 @@ async function proposalRows(ctx: Pick<TeamContext, 'team'>, where: SQL | undefin
 }
 
 /** The team's proposals (of live devices), newest first: all pending ones by default, or one device's. */
-export async function listProposals(ctx: Pick<TeamContext, 'team'>, opts: { deviceId?: string; status?: ProposalStatus | 'all' } = {}): Promise<ProposalView[]> {
+export async function listProposals(ctx: TeamScope, opts: { deviceId?: string; status?: ProposalStatus | 'all' } = {}): Promise<ProposalView[]> {
   if (opts.deviceId) await findInTeam(db, ctx, deviceEntity, opts.deviceId);
   const status = opts.status ?? 'pending';
   return proposalRows(ctx, and(
@@ -170,13 +170,13 @@ export async function listProposals(ctx: Pick<TeamContext, 'team'>, opts: { devi
 }
 
 /** The proposals of these field-log entries, by entry id (what the log shows of each outcome). */
-export async function proposalsOfEntries(ctx: Pick<TeamContext, 'team'>, entryIds: string[]): Promise<Map<string, ProposalView>> {
+export async function proposalsOfEntries(ctx: TeamScope, entryIds: string[]): Promise<Map<string, ProposalView>> {
   if (!entryIds.length) return new Map();
   const rows = await proposalRows(ctx, inArray(fieldProposal.entryId, entryIds), db, entryIds.length);
   return new Map(rows.map((r) => [r.entryId, r]));
 }
 
-export async function getProposal(ctx: Pick<TeamContext, 'team'>, id: string, q: DbOrTx = db): Promise<ProposalView> {
+export async function getProposal(ctx: TeamScope, id: string, q: DbOrTx = db): Promise<ProposalView> {
   const [row] = await proposalRows(ctx, eq(fieldProposal.id, id), q, 1);
   if (!row) throw notFound('proposal');
   return row;

@@ -1,10 +1,10 @@
 /** Team-scoped lookups of the vault records field work hangs off (404 for other teams and the trash). */
 import { db, type DbOrTx } from '../../../db/client';
-import type { TeamContext } from '../guard';
+import type { TeamScope } from '../guard';
 import { findInTeam } from '../records/engine';
 import { deviceEntity, machineEntity, siteEntity } from '../records/entities';
 
-type TeamRef = Pick<TeamContext, 'team'>;
+type TeamRef = TeamScope;
 
 export function liveDevice(ctx: TeamRef, id: string, q: DbOrTx = db) {
   return findInTeam(q, ctx, deviceEntity, id);

@@ -7,7 +7,7 @@ import { and, eq, inArray, isNotNull, isNull, type InferSelectModel, type SQL } 
 import type { SQLiteUpdateSetSource } from 'drizzle-orm/sqlite-core';
 import type { DbOrTx } from '../../../db/client';
 import { revision, type FieldChange, type RecordType } from '../../../db/schema';
-import type { TeamContext } from '../guard';
+import type { TeamContext, TeamScope } from '../guard';
 import { Conflict, Stale, notFound } from '../errors';
 import { newId } from '../ids';
 import { changesFromNothing, diffSnapshots } from './diff';
@@ -37,7 +37,7 @@ export type RecordState = 'live' | 'any' | 'trash';
  */
 export async function findInTeam<T extends VersionedTable, Row extends VersionedRow>(
   q: DbOrTx,
-  ctx: Pick<TeamContext, 'team'>,
+  ctx: TeamScope,
   entity: Entity<T, Row>,
   id: string,
   state: RecordState = 'live',

@@ -17,7 +17,7 @@ export async function seedFieldWork(ids: Record<Role, string>): Promise<void> {
   const [dev] = await db.select().from(device).where(eq(device.id, DEVICE_ID));
   if (!dev) return;
   const at = new Date('2026-11-24T09:40:00Z');
-  const rev = await cardRevision({ team: { id: DEMO_TEAM_ID, name: '' } }, DEVICE_ID);
+  const rev = await cardRevision({ team: { id: DEMO_TEAM_ID } }, DEVICE_ID);
   await db.insert(fieldLogEntry).values({
     id: 'flog_demo_drv203_swap', teamId: DEMO_TEAM_ID, deviceId: DEVICE_ID, kind: 'replacement',
     note: 'Old unit tripped on a fault at every start. Fitted the spare from stores and loaded the settings from the card.',

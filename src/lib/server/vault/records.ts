@@ -3,7 +3,7 @@ import { asc, desc, sql, type SQL } from 'drizzle-orm';
 import type { SQLiteColumn, SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { z } from 'zod';
 import { db, type DbOrTx } from '../../../db/client';
-import type { TeamContext } from '../guard';
+import type { TeamScope } from '../guard';
 import { validate } from '../http';
 import { listQuerySchema } from '../../schemas/vault';
 import { Invalid, notFound } from '../errors';
@@ -15,7 +15,7 @@ export { findInTeam, now, recordCreated, staleError, summarize, updateVersioned,
 export { notFound };
 
 /** The record if it belongs to the caller's team and is not in the trash; NotFound otherwise. */
-export function findLive<T extends VersionedTable, Row extends VersionedRow>(q: DbOrTx, ctx: Pick<TeamContext, 'team'>, entity: Entity<T, Row>, id: string): Promise<Row> {
+export function findLive<T extends VersionedTable, Row extends VersionedRow>(q: DbOrTx, ctx: TeamScope, entity: Entity<T, Row>, id: string): Promise<Row> {
   return findInTeam(q, ctx, entity, id);
 }
 
