@@ -1,6 +1,6 @@
 /**
- * Which SQL text only reads: the one rule shared by the write gate (reads skip it) and the statement
- * cache (reads stay prepared).
+ * Which SQL text only reads: the rule the write gate goes by (reads skip it). The statement cache once
+ * used it too; it now keeps every statement prepared (src/db/statement-cache.ts).
  *
  * A read is a single `SELECT` (or `VALUES`), possibly behind `WITH [RECURSIVE]` common table
  * expressions, after any leading whitespace and comments. `WITH … INSERT/UPDATE/DELETE/REPLACE` is a

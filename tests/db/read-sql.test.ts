@@ -1,4 +1,4 @@
-/** The one rule for which SQL only reads, shared by the write gate and the statement cache. */
+/** The one rule for which SQL only reads, which the write gate goes by. */
 import { expect, it } from 'vitest';
 import { isReadSql } from '../../src/db/read-sql';
 

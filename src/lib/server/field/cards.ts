@@ -10,7 +10,6 @@ import { liveDevice, liveMachine, liveSite } from './scope';
 import { referencedIds } from '../../composer/saved-sequence';
 import { stepCommands } from '../commands/sequences';
 
-type TeamRef = TeamScope;
 type DeviceRow = typeof device.$inferSelect;
 
 export interface DeviceCard {
@@ -41,7 +40,7 @@ async function revisions(teamId: string, deviceIds: string[]): Promise<Map<strin
   return new Map(rows.map((r) => [r.deviceId, { number: Number(r.n), date: r.last === null ? null : new Date(Number(r.last)) }]));
 }
 
-async function buildCards(ctx: TeamRef, devices: DeviceRow[], heading: (d: DeviceRow) => string): Promise<DeviceCard[]> {
+async function buildCards(ctx: TeamScope, devices: DeviceRow[], heading: (d: DeviceRow) => string): Promise<DeviceCard[]> {
   if (!devices.length) return [];
   const ids = devices.map((d) => d.id);
   const profileIds = devices.map((d) => d.profileId).filter((p): p is string => !!p);
@@ -85,7 +84,7 @@ async function linksOfDevices(deviceIds: string[]): Promise<ChainLink[]> {
 
 const label = (d: DeviceRow) => (d.name ? `${d.tag} ${d.name}` : d.tag);
 
-export async function deviceCard(ctx: TeamRef, deviceId: string): Promise<DeviceCard & { machine: MachineCards['machine']; site: MachineCards['site'] }> {
+export async function deviceCard(ctx: TeamScope, deviceId: string): Promise<DeviceCard & { machine: MachineCards['machine']; site: MachineCards['site'] }> {
   const d = await liveDevice(ctx, deviceId);
   const m = await liveMachine(ctx, d.machineId);
   const s = await liveSite(ctx, m.siteId);
@@ -93,7 +92,7 @@ export async function deviceCard(ctx: TeamRef, deviceId: string): Promise<Device
   return { ...card!, machine: { id: m.id, name: m.name, code: m.code, siteId: m.siteId }, site: { id: s.id, name: s.name, customer: s.customer } };
 }
 
-export async function machineCards(ctx: TeamRef, machineId: string): Promise<MachineCards> {
+export async function machineCards(ctx: TeamScope, machineId: string): Promise<MachineCards> {
   const m = await liveMachine(ctx, machineId);
   const s = await liveSite(ctx, m.siteId);
   const devices = await db.select().from(device).where(and(eq(device.machineId, m.id), eq(device.teamId, ctx.team.id), isNull(device.deletedAt))).orderBy(asc(device.tag));
@@ -105,7 +104,7 @@ export async function machineCards(ctx: TeamRef, machineId: string): Promise<Mac
 }
 
 /** Every live machine of a site with its cards, in name order. */
-export async function siteCards(ctx: TeamRef, siteId: string): Promise<{ site: MachineCards['site']; machines: MachineCards[] }> {
+export async function siteCards(ctx: TeamScope, siteId: string): Promise<{ site: MachineCards['site']; machines: MachineCards[] }> {
   const s = await liveSite(ctx, siteId);
   const machines = await db.select({ id: machine.id }).from(machine).where(and(eq(machine.siteId, s.id), eq(machine.teamId, ctx.team.id), isNull(machine.deletedAt))).orderBy(asc(machine.name));
   const out: MachineCards[] = [];
@@ -114,6 +113,6 @@ export async function siteCards(ctx: TeamRef, siteId: string): Promise<{ site: M
 }
 
 /** The current card revision of one device (for validating "settings applied from revision N"). */
-export async function cardRevision(ctx: TeamRef, deviceId: string) {
+export async function cardRevision(ctx: TeamScope, deviceId: string) {
   return (await revisions(ctx.team.id, [deviceId])).get(deviceId) ?? { number: 0, date: null };
 }

@@ -4,20 +4,18 @@ import type { TeamScope } from '../guard';
 import { findInTeam } from '../records/engine';
 import { deviceEntity, machineEntity, siteEntity } from '../records/entities';
 
-type TeamRef = TeamScope;
-
-export function liveDevice(ctx: TeamRef, id: string, q: DbOrTx = db) {
+export function liveDevice(ctx: TeamScope, id: string, q: DbOrTx = db) {
   return findInTeam(q, ctx, deviceEntity, id);
 }
 
-export function liveMachine(ctx: TeamRef, id: string, q: DbOrTx = db) {
+export function liveMachine(ctx: TeamScope, id: string, q: DbOrTx = db) {
   return findInTeam(q, ctx, machineEntity, id);
 }
 
-export function liveSite(ctx: TeamRef, id: string, q: DbOrTx = db) {
+export function liveSite(ctx: TeamScope, id: string, q: DbOrTx = db) {
   return findInTeam(q, ctx, siteEntity, id);
 }
 
-export function liveOwner(ctx: TeamRef, ownerType: 'device' | 'machine', id: string, q: DbOrTx = db) {
+export function liveOwner(ctx: TeamScope, ownerType: 'device' | 'machine', id: string, q: DbOrTx = db) {
   return ownerType === 'device' ? liveDevice(ctx, id, q) : liveMachine(ctx, id, q);
 }
