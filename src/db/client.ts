@@ -7,6 +7,7 @@ import * as schema from './schema';
 import { gateWrites } from './write-gate';
 import { cacheStatements } from './statement-cache';
 import { configureConnections } from './connection-settings';
+import { startBackgroundWriter, type BackgroundWriter } from './background-writer';
 
 function openClient(url: string): Client {
   if (url.startsWith('file:')) {
@@ -29,3 +30,14 @@ export type Db = typeof db;
 /** A transaction handle, accepted wherever `db` is. */
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type DbOrTx = Db | Tx;
+
+/**
+ * For a SQLite file: a connection on a worker thread for the long jobs' staged batches (src/db/background-writer.ts),
+ * its worker started on the first write. None for a libSQL server or an in-memory database, whose batches go
+ * through `client`.
+ */
+export const backgroundWriter: BackgroundWriter | null = (() => {
+  if (!databaseUrl.startsWith('file:')) return null;
+  const path = databaseUrl.slice('file:'.length);
+  return path && path !== ':memory:' ? startBackgroundWriter(resolve(path)) : null;
+})();

@@ -31,7 +31,7 @@ export function gateWrites(client: Client): Client {
   }
   const isRead = (stmt: InStatement | string) => isReadSql(typeof stmt === 'string' ? stmt : stmt.sql);
 
-  return new Proxy(client, {
+  const gatedClient = new Proxy(client, {
     get(target, prop, receiver) {
       switch (prop) {
         case 'execute':
@@ -59,6 +59,20 @@ export function gateWrites(client: Client): Client {
       }
     },
   });
+  gates.set(gatedClient, gated);
+  return gatedClient;
+}
+
+const gates = new WeakMap<Client, <T>(run: () => Promise<T>) => Promise<T>>();
+
+/**
+ * Runs a write made some other way than through the client (e.g. on a worker thread's connection) in its turn
+ * at the client's write gate, so it never meets one of this process's other writes at SQLite's lock. A client
+ * without a gate (a libSQL server) runs it at once.
+ */
+export function inWriteTurn<T>(client: Client, run: () => Promise<T>): Promise<T> {
+  const gated = gates.get(client);
+  return gated ? gated(run) : run();
 }
 
 function releaseOnEnd(tx: Transaction, release: () => void): Transaction {

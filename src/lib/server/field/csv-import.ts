@@ -117,7 +117,7 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
 }
 
 /** Devices staged per short write, with their ports and creation revisions (each write is one stretch that other requests wait for). */
-const STAGE_DEVICES = 100;
+const STAGE_DEVICES = 500;
 
 /**
  * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.

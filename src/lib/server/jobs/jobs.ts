@@ -64,6 +64,7 @@ export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: Sta
   };
   try {
     await work.stage(stage, progress);
+    await stage.flush();
     await db.update(job).set({ state: 'applying', updatedAt: new Date() }).where(eq(job.id, id));
     await db.transaction(async (tx) => {
       try {

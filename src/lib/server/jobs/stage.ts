@@ -13,7 +13,8 @@
 import { eq, getTableColumns, getTableName, is, sql, SQL, type Column } from 'drizzle-orm';
 import { SQLiteAsyncDialect, type SQLiteTable } from 'drizzle-orm/sqlite-core';
 import type { InArgs, InStatement } from '@libsql/client';
-import { client, db, type Tx } from '../../../db/client';
+import { backgroundWriter, client, db, type Tx } from '../../../db/client';
+import { inWriteTurn } from '../../../db/write-gate';
 import { CONNECTION_CACHE_KIB } from '../../../db/connection-settings';
 import { device, job, jobRow, revision } from '../../../db/schema';
 import { Conflict } from '../errors';
@@ -67,7 +68,7 @@ function driverValue(col: Column, value: unknown): unknown {
     else if (col.onUpdateFn !== undefined) v = col.onUpdateFn();
   }
   if (v === undefined || v === null) return null;
-  if (is(v, SQL)) throw new Error(`staged column ${col.name}: SQL defaults are not supported`);
+  if (typeof v === 'object' && is(v, SQL)) throw new Error(`staged column ${col.name}: SQL defaults are not supported`);
   return col.mapToDriverValue(v);
 }
 
@@ -76,12 +77,32 @@ const toStatement = (q: SQL): InStatement => {
   const built = dialect.sqlToQuery(q);
   return { sql: built.sql, args: built.params as InArgs };
 };
+/**
+ * One staged batch in one transaction: on the background writer's connection for a file, so SQLite's work on it runs
+ * on another core (taking this process's write gate like any write), else through the client.
+ */
+function writeBatch(statements: InStatement[]): Promise<void> {
+  const writer = backgroundWriter;
+  if (!writer) return client.batch(statements).then(() => undefined);
+  return inWriteTurn(client, () => writer.write(statements));
+}
+
 const quoteName = (name: string) => `"${name.replaceAll('"', '""')}"`;
 
-/** `INSERT INTO table (columns) VALUES (?, …), …` with its values, for rows already in driver values. */
-function rawInsert(table: string, columns: string[], rows: unknown[][]): InStatement {
-  const one = `(${columns.map(() => '?').join(', ')})`;
-  return { sql: `INSERT INTO ${quoteName(table)} (${columns.map(quoteName).join(', ')}) VALUES ${rows.map(() => one).join(', ')}`, args: rows.flat() as InArgs };
+/** The last insert text per table, with its row count. */
+const insertTexts = new Map<string, { rows: number; text: string }>();
+/**
+ * `INSERT INTO table (columns) VALUES (?, …), …` for `rows` rows, its values given flat. The last text per table
+ * is kept: a job writes hundreds of batches alike.
+ */
+function rawInsert(table: string, columns: string[], rows: number, args: unknown[]): InStatement {
+  let text = insertTexts.get(table)?.rows === rows ? insertTexts.get(table)!.text : undefined;
+  if (text === undefined) {
+    const one = `(${columns.map(() => '?').join(', ')})`;
+    text = `INSERT INTO ${quoteName(table)} (${columns.map(quoteName).join(', ')}) VALUES ${Array(rows).fill(one).join(', ')}`;
+    insertTexts.set(table, { rows, text });
+  }
+  return { sql: text, args: args as InArgs };
 }
 
 const columnList = (t: Target) => sql.join(t.columns.map(([, col]) => sql.identifier(col.name)), sql`, `);
@@ -104,6 +125,9 @@ export class Stage {
   private readonly hidden: { deletedAt: Date; deletedBy: string };
   /** Ids of the records this job wrote (parents are written before their children). */
   private readonly own = new Set<string>();
+
+  /** The last batch handed to the writer (`addTogether` returns before it lands). */
+  private inFlight: Promise<void> = Promise.resolve();
 
   constructor(readonly jobId: string, userId: string) {
     this.hidden = { deletedAt: new Date(), deletedBy: userId };
@@ -151,11 +175,21 @@ export class Stage {
       for (let i = 0; i < rows.length; i += STAGE_BATCH) writes.push(...this.writesOf(t, rows.slice(i, i + STAGE_BATCH)));
     }
     if (this.expected !== null) this.progress = { done: this.staged, total: this.expected };
-    await client.batch([
+    const statements = [
       ...writes,
       toStatement(sql`UPDATE job SET done = ${this.progress.done}, total = ${this.progress.total}, updated_at = ${Date.now()} WHERE id = ${this.jobId}`),
-    ]);
+    ];
+    // One batch in flight: it is written (on the worker's connection, for a file) while the caller builds the next.
+    await this.inFlight;
+    const landed = writeBatch(statements);
+    landed.catch(() => undefined); // seen by the next write, `flush` or `discard`
+    this.inFlight = landed;
     await nextTurn();
+  }
+
+  /** Waits for the batch still being written; throws if it failed. Called before the final transaction. */
+  async flush(): Promise<void> {
+    await this.inFlight;
   }
 
   /** The statements that write one batch of a target's rows (counted as staged). */
@@ -170,13 +204,17 @@ export class Stage {
     }
     // The insert's text and values are written directly: building it from drizzle's `sql` pieces, a piece per
     // value, cost more than SQLite's own work on it (1.2 s of a 10,000-row import).
-    const write: InStatement = t.record
-      ? rawInsert(t.name, t.columns.map(([, col]) => col.name), slice.map((row) => {
-        const values: Record<string, unknown> = { ...row, ...this.hidden, trashId: this.jobId };
-        return t.columns.map(([key, col]) => driverValue(col, values[key]));
-      }))
-      : rawInsert('job_row', ['job_id', 'target', 'seq', 'data'], slice.map((row, k) =>
-        [this.jobId, t.name, t.count + k, JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key])))]));
+    // Values go straight into one flat list (a copy of each row with the stamp, then a list per row, cost as much again).
+    const args: unknown[] = [];
+    if (t.record) {
+      const stamped: Record<string, unknown> = { ...this.hidden, trashId: this.jobId };
+      for (const row of slice) for (const [key, col] of t.columns) args.push(driverValue(col, key in stamped ? stamped[key] : row[key]));
+    } else {
+      slice.forEach((row, k) => args.push(this.jobId, t.name, t.count + k, JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key])))));
+    }
+    const write = t.record
+      ? rawInsert(t.name, t.columns.map(([, col]) => col.name), slice.length, args)
+      : rawInsert('job_row', ['job_id', 'target', 'seq', 'data'], slice.length, args);
     t.count += slice.length;
     // A device's search row goes in with it, so the final transaction need not write 50,000 of them.
     return t.table === device ? [write, toStatement(searchRowsOf(slice.map((row) => String(row.id))))] : [write];
@@ -234,6 +272,7 @@ export class Stage {
 
   /** After a failure: what the job wrote out of sight, and its stage, removed a batch per statement. */
   async discard(): Promise<void> {
+    await this.inFlight.catch(() => undefined);
     await discardJob(this.jobId);
   }
 }
