@@ -112,7 +112,17 @@ async function readWhileStaging(eng: TestClient, viewer: TestClient, machineId: 
     const inTrash = expectOk(await eng.get('/api/trash')).items.some((i: { label: string }) => i.label.startsWith(`${prefix}-`));
     const portsCsv = String((await eng.get(`/api/export/csv?table=ports&machineId=${machineId}`)).body);
     const inExport = expectOk(await eng.get(`/api/export`)).devices.some((d: { tag: string }) => d.tag.startsWith(`${prefix}-`));
-    return { prefix, hiddenDevices, hiddenPorts, searchRows, listTotal, filteredTotal, searchItems, searchTotal, inTrash, portsCsv, inExport, answeredBy: Date.now() };
+    // Their history is written with them, stamped with the job: the team's history shows none of it yet.
+    // (The newest page first: whatever of the job's history it could show was written before the stamped rows are read.)
+    const historyPage = expectOk(await viewer.get('/api/revisions?pageSize=100')).items as { id: string }[];
+    const staged = new Set((await db.execute({ sql: 'SELECT id FROM revision WHERE job_id = ?', args: [jobId] })).rows.map((r) => String(r.id)));
+    const historyShowsStaged = historyPage.some((r) => staged.has(r.id));
+    const oneStaged = [...staged][0];
+    const stagedRevisionStatus = oneStaged ? (await viewer.get(`/api/revisions/${oneStaged}`)).status : null;
+    return {
+      prefix, hiddenDevices, hiddenPorts, searchRows, listTotal, filteredTotal, searchItems, searchTotal, inTrash, portsCsv, inExport,
+      stagedHistory: staged.size, historyShowsStaged, oneStaged, stagedRevisionStatus, answeredBy: Date.now(),
+    };
   } finally {
     db.close();
   }
@@ -160,14 +170,14 @@ describe('all rows or none', () => {
       const m = expectOk(await owner.post('/api/machines', { siteId: site.id, name: 'Line 1' }), 201);
       const importing = owner.post('/api/import/csv', { machineId: m.id, csv: bigCsv(ROWS, 'IN'), mapping, apply: true }).catch((err: Error) => err);
       const job = await untilStaging(owner, ROWS, []);
-      // Stopped once both kinds of writing have begun: records out of sight and their history in the stage.
-      while ((await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])) === 0) await new Promise((r) => setTimeout(r, 10));
+      // Stopped once writing has begun: records out of sight, and their history stamped with the job.
+      while ((await count(db, 'SELECT count(*) AS n FROM revision WHERE job_id = ?', [job.id])) === 0) await new Promise((r) => setTimeout(r, 10));
       await first.stop();
       expect(await importing).toBeInstanceOf(Error);
 
-      // Written so far: devices out of sight (the job's stamp) and their staged history; none of it shown.
+      // Written so far: devices out of sight (the job's stamp) and their history (stamped too); none of it shown.
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND trash_id = ? AND deleted_at IS NOT NULL', [m.id, job.id])).toBeGreaterThan(0);
-      expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
+      expect(await count(db, 'SELECT count(*) AS n FROM revision WHERE job_id = ?', [job.id])).toBeGreaterThan(0);
       expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ? AND deleted_at IS NULL', [m.id])).toBe(0);
       expect(await count(db, "SELECT count(*) AS n FROM device_search WHERE tag LIKE 'IN-%'", [])).toBeGreaterThan(0);
       // Silent for longer than a running job ever is (every batch touches the job).
@@ -176,6 +186,7 @@ describe('all rows or none', () => {
       const second = await startServer({ DATABASE_URL: databaseUrl });
       try {
         expect(await count(db, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [job.id])).toBe(0);
+        expect(await count(db, 'SELECT count(*) AS n FROM revision WHERE job_id = ?', [job.id])).toBe(0);
         expect(await count(db, 'SELECT count(*) AS n FROM device WHERE machine_id = ?', [m.id])).toBe(0);
         expect(await count(db, 'SELECT count(*) AS n FROM port WHERE trash_id = ?', [job.id])).toBe(0);
         // Their search rows went with them.
@@ -236,13 +247,20 @@ describe('records written before the final transaction', () => {
     expect(seen.inTrash).toBe(false);
     expect(seen.inExport).toBe(false);
     expect(seen.portsCsv).not.toMatch(new RegExp(`${prefix}-0`));
+    // Their history: written (a device's and its port's creation revisions with them), listed nowhere, not found by id.
+    expect(seen.stagedHistory).toBeGreaterThanOrEqual(rows / 2);
+    expect(seen.historyShowsStaged).toBe(false);
+    expect(seen.stagedRevisionStatus).toBe(404);
 
     expect(expectOk(await viewer.get(`/api/devices?machineId=${m.id}&pageSize=5`))).toMatchObject({ total: 1000, totalCapped: true });
+    // The commit that marked the job done shows its history: the revision read by id before is there now.
+    expect(expectOk(await viewer.get(`/api/revisions/${seen.oneStaged}`))).toMatchObject({ id: seen.oneStaged, summary: 'Imported from CSV', version: 1 });
+    expect(expectOk(await viewer.get(`/api/revisions/${seen.oneStaged}`))).not.toHaveProperty('jobId');
     expect(expectOk(await viewer.get(`/api/devices?q=${prefix}-000001&pageSize=5`)).total).toBe(1);
     const after = testDb();
     try {
       expect(await count(after, 'SELECT count(*) AS n FROM device WHERE trash_id = ? OR (machine_id = ? AND deleted_at IS NOT NULL)', [jobId, m.id])).toBe(0);
-      // Every device and port has its creation revision by the time the request is answered; the stage is empty.
+      // Every device and port has its creation revision, committed with it; the stage is empty.
       expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN device d ON d.id = r.entity_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(rows);
       expect(await count(after, "SELECT count(*) AS n FROM revision r JOIN port p ON p.id = r.entity_id JOIN device d ON d.id = p.device_id WHERE d.machine_id = ? AND r.summary = 'Imported from CSV'", [m.id])).toBe(rows);
       expect(await count(after, 'SELECT count(*) AS n FROM job_row WHERE job_id = ?', [jobId])).toBe(0);
@@ -253,7 +271,7 @@ describe('records written before the final transaction', () => {
     }
   }, 180_000);
 
-  it('a committed import whose server stopped before its history was recorded gets it at the next start', async () => {
+  it('history an earlier version left staged for a committed import (its server stopped mid-move) is moved at the next start', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'long-jobs-history-'));
     const databaseUrl = `file:${join(dir, 'shared.db')}`;
     const first = await startServer({ DATABASE_URL: databaseUrl });
@@ -268,7 +286,8 @@ describe('records written before the final transaction', () => {
       const [job] = (await db.execute("SELECT id FROM job WHERE kind = 'csv-import' AND state = 'done'")).rows;
       const imported = "SELECT count(*) AS n FROM revision WHERE summary = 'Imported from CSV'";
       expect(await count(db, imported, [])).toBe(2400);
-      // As the server leaves it when it stops right after the commit: the history still staged, part of it moved.
+      // As an earlier version, which moved a job's history out of the stage after the commit, left it when its
+      // server stopped during the move: part of it moved, the rest staged.
       const columns = (await db.execute('PRAGMA table_info(revision)')).rows.map((r) => String(r.name));
       await db.execute({
         sql: `INSERT INTO job_row (job_id, target, seq, data) SELECT ?, 'revision', (SELECT count(*) FROM revision r2 WHERE r2.rowid < revision.rowid), json_array(${columns.join(', ')}) FROM revision WHERE summary = 'Imported from CSV' AND rowid > (SELECT min(rowid) + 499 FROM revision WHERE summary = 'Imported from CSV')`,

@@ -256,8 +256,17 @@ export const revision = sqliteTable(
     changes: text('changes', { mode: 'json' }).$type<FieldChange[]>().notNull(),
     snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
     createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull().$defaultFn(() => new Date()),
+    /**
+     * The long job that wrote it with its new records, before its final transaction: out of sight while that job
+     * is not done, shown by its commit (docs/decisions/008-long-jobs-in-batches.md). Null for every other revision.
+     */
+    jobId: text('job_id'),
   },
-  (t) => [index('revision_entity_idx').on(t.teamId, t.entityId, t.version), index('revision_team_idx').on(t.teamId, t.createdAt)],
+  (t) => [
+    index('revision_entity_idx').on(t.teamId, t.entityId, t.version),
+    index('revision_team_idx').on(t.teamId, t.createdAt),
+    index('revision_job_idx').on(t.jobId).where(sql`job_id IS NOT NULL`),
+  ],
 );
 
 export interface FieldChange {

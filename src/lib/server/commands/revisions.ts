@@ -4,21 +4,21 @@ import { db, type DbOrTx } from '../../../db/client';
 import { revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { NotFound } from '../errors';
-import { findInTeam } from '../records/engine';
+import { findInTeam, revisionColumns, shownRevision, type ShownRevision } from '../records/engine';
 import { commandEntity, entityOf, type CommandRow } from '../records/entities';
 import { snapshotValues } from '../records/entity';
 import { referencesOf, refuseMissing } from '../records/references';
 import { findCommand, updateCommandVersioned } from './records';
 
 /** A revision of a command as the API has always answered it: `commandId` for the entity. */
-export type CommandRevisionRow = Omit<typeof revision.$inferSelect, 'entityType' | 'entityId'> & { commandId: string };
+export type CommandRevisionRow = Omit<ShownRevision, 'entityType' | 'entityId'> & { commandId: string };
 
-const ofCommand = (teamId: string, id: string) => and(eq(revision.teamId, teamId), eq(revision.entityType, 'command'), eq(revision.entityId, id));
+const ofCommand = (teamId: string, id: string) => and(eq(revision.teamId, teamId), eq(revision.entityType, 'command'), eq(revision.entityId, id), shownRevision);
 
 /** Newest first; also for a command in the trash, so it can be brought back. */
 export async function listCommandRevisions(ctx: TeamContext, id: string): Promise<{ commandId: string; version: number; trashed: boolean; items: CommandRevisionRow[] }> {
   const row = await findCommand(db, ctx, id, { trashed: true });
-  const rows = await db.select().from(revision).where(ofCommand(ctx.team.id, id)).orderBy(desc(revision.version), desc(revision.createdAt));
+  const rows = await db.select(revisionColumns).from(revision).where(ofCommand(ctx.team.id, id)).orderBy(desc(revision.version), desc(revision.createdAt));
   const items = rows.map(({ entityType: _t, entityId, ...r }) => ({ ...r, commandId: entityId }));
   return { commandId: id, version: row.version, trashed: row.deletedAt !== null, items };
 }
@@ -32,7 +32,7 @@ export async function restoreCommandRevision(ctx: TeamContext, id: string, revis
   return db.transaction(async (tx) => {
     const current = await findCommand(tx, ctx, id, { trashed: true });
     await refuseMissingOwner(tx, ctx, current);
-    const [rev] = await tx.select().from(revision).where(and(eq(revision.id, revisionId), ofCommand(ctx.team.id, id)));
+    const [rev] = await tx.select(revisionColumns).from(revision).where(and(eq(revision.id, revisionId), ofCommand(ctx.team.id, id)));
     if (!rev) throw new NotFound('No revision with that id for this command.');
     const values = snapshotValues(commandEntity, rev.snapshot);
     const { row, changes } = await updateCommandVersioned(tx, ctx, id, version, values, {

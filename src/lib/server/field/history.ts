@@ -5,6 +5,7 @@ import { fieldLogEntry, port, revision } from '../../../db/schema';
 import type { TeamContext } from '../guard';
 import { FIELD_LOG_LABELS } from '../../schemas/field';
 import { liveDevice } from './scope';
+import { revisionColumns, shownRevision } from '../records/engine';
 
 export interface TimelineItem {
   at: Date;
@@ -19,7 +20,7 @@ export async function deviceTimeline(ctx: TeamContext, deviceId: string, limit =
   const ports = await db.select({ id: port.id, name: port.name }).from(port).where(and(eq(port.deviceId, deviceId), eq(port.teamId, ctx.team.id)));
   const portName = new Map(ports.map((p) => [p.id, p.name]));
   const [revs, log] = await Promise.all([
-    db.select().from(revision).where(and(eq(revision.teamId, ctx.team.id), or(
+    db.select(revisionColumns).from(revision).where(and(eq(revision.teamId, ctx.team.id), shownRevision, or(
       and(eq(revision.entityType, 'device'), eq(revision.entityId, deviceId)),
       ports.length ? and(eq(revision.entityType, 'port'), inArray(revision.entityId, ports.map((p) => p.id))) : undefined,
     ))).orderBy(desc(revision.createdAt)).limit(limit),

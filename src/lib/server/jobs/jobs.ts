@@ -81,9 +81,9 @@ export async function runStagedJob<T>(ctx: TeamContext, kind: JobKind, work: Sta
     await stage.discard();
     throw err;
   }
-  // Committed: the records are in. Their history follows in short batches; should this stop (the server going
-  // down), the next sweep carries on from where it was.
-  await stage.afterCommit().catch((err) => console.error(`job ${id}: history not yet recorded, the next sweep finishes it:`, err));
+  // Committed: the records are in, with their history. What is left in the stage goes; should this stop (the
+  // server going down), the next sweep clears it.
+  await stage.afterCommit().catch((err) => console.error(`job ${id}: stage not yet cleared, the next sweep clears it:`, err));
   return work.result();
 }
 

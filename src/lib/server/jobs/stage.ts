@@ -5,10 +5,14 @@
  *   `trash_id`, so no list, search, export or trash page shows them and no unique name rule counts them. The
  *   final transaction shows them all at once, a stamp cleared per row (`show`), after checking their parents.
  *   A device's search row is written with it (searches read live devices only), not when it is shown.
- * - **Other rows** are staged in `job_row` as JSON and moved with `INSERT … SELECT`: link members and the
- *   import map inside the final transaction, creation revisions after it (`afterCommit`), a batch per short
- *   transaction that also removes what it moved, so an interrupted move carries on where it stopped.
- * A failed job removes what it wrote out of sight (`discardJob`); so does the sweep for a job whose server stopped.
+ * - **Their history** (creation revisions) goes straight into `revision` too, stamped with the job's id
+ *   (`job_id`): every reader of revisions leaves out those of a job that is not done, so the commit that marks
+ *   the job done shows them with their records, and nothing is written for them after it.
+ * - **Other rows** are staged in `job_row` as JSON and moved with `INSERT … SELECT` inside the final transaction:
+ *   link members and the import map.
+ * Batches are written on the background writer's connection (src/db/background-writer.ts), one in flight while
+ * the caller builds the next. A failed job removes what it wrote out of sight (`discardJob`); so does the sweep for
+ * a job whose server stopped.
  */
 import { eq, getTableColumns, getTableName, is, sql, SQL, type Column } from 'drizzle-orm';
 import { SQLiteAsyncDialect, type SQLiteTable } from 'drizzle-orm/sqlite-core';
@@ -42,8 +46,13 @@ const CLEAR_BATCH = 500;
 /** The versioned records a job may write out of sight, parents first. */
 const RECORDS: AnyEntity[] = [...(Object.keys(ENTITIES) as (keyof typeof ENTITIES)[]).map(entityOf), entityOf('command')];
 const recordOf = (table: SQLiteTable) => RECORDS.find((e) => e.table === table);
-/** Tables whose staged rows are moved after the commit: a job's own history, which only its new records have. */
-const AFTER_COMMIT: SQLiteTable[] = [revision];
+/** Tables whose rows a job writes in place, stamped with its id in `job_id` and shown by its state: its history. */
+const JOB_STAMPED: SQLiteTable[] = [revision];
+/**
+ * History an earlier version staged in `job_row` and moved after the commit; a committed job's leftovers (its server
+ * stopped during the move) are still moved by the sweep.
+ */
+const STAGED_AFTER_COMMIT: SQLiteTable[] = [revision];
 
 interface Target {
   table: SQLiteTable;
@@ -54,7 +63,8 @@ interface Target {
   record?: AnyEntity;
   /** Parents its rows live under that this job did not write itself (checked again in the final transaction). */
   outsideParents: Set<string>;
-  afterCommit: boolean;
+  /** Written in place with the job's id in `job_id` (its history), rather than staged. */
+  jobStamped: boolean;
   /** Raw SQL appended to the INSERT, e.g. an ON CONFLICT clause. */
   onConflict?: SQL;
 }
@@ -112,7 +122,7 @@ function targetOf(table: SQLiteTable, opts: { onConflict?: SQL } = {}): Target {
   const record = recordOf(table);
   return {
     table, name: getTableName(table), columns: Object.entries(getTableColumns(table)) as [string, Column][], count: 0,
-    record, afterCommit: AFTER_COMMIT.includes(table), onConflict: opts.onConflict, outsideParents: new Set(),
+    record, jobStamped: JOB_STAMPED.includes(table), onConflict: opts.onConflict, outsideParents: new Set(),
   };
 }
 
@@ -206,13 +216,13 @@ export class Stage {
     // value, cost more than SQLite's own work on it (1.2 s of a 10,000-row import).
     // Values go straight into one flat list (a copy of each row with the stamp, then a list per row, cost as much again).
     const args: unknown[] = [];
-    if (t.record) {
-      const stamped: Record<string, unknown> = { ...this.hidden, trashId: this.jobId };
+    if (t.record || t.jobStamped) {
+      const stamped: Record<string, unknown> = t.record ? { ...this.hidden, trashId: this.jobId } : { jobId: this.jobId };
       for (const row of slice) for (const [key, col] of t.columns) args.push(driverValue(col, key in stamped ? stamped[key] : row[key]));
     } else {
       slice.forEach((row, k) => args.push(this.jobId, t.name, t.count + k, JSON.stringify(t.columns.map(([key, col]) => driverValue(col, row[key])))));
     }
-    const write = t.record
+    const write = t.record || t.jobStamped
       ? rawInsert(t.name, t.columns.map(([, col]) => col.name), slice.length, args)
       : rawInsert('job_row', ['job_id', 'target', 'seq', 'data'], slice.length, args);
     t.count += slice.length;
@@ -243,7 +253,7 @@ export class Stage {
       }
     }
     for (const t of this.targets.values()) {
-      if (!t.record && !t.afterCommit) await moveStaged(tx, this.jobId, t);
+      if (!t.record && !t.jobStamped) await moveStaged(tx, this.jobId, t);
     }
   }
 
@@ -265,7 +275,7 @@ export class Stage {
     await tx.run(sql.raw(`PRAGMA cache_size = -${CONNECTION_CACHE_KIB}`)).catch(() => undefined);
   }
 
-  /** After the commit: the rows that follow it (the job's history), then whatever is left in the stage. */
+  /** After the commit: the stage's rows (moved in the final transaction) are removed. */
   async afterCommit(): Promise<void> {
     await finishAfterCommit(this.jobId);
   }
@@ -304,14 +314,22 @@ async function moveStagedAfterCommit(jobId: string, t: Target): Promise<void> {
   }
 }
 
-/** A committed job's rows that follow the commit are moved (resuming where a stopped server left off); the rest of its stage goes. */
+/** A committed job's stage goes; history an earlier version left staged there (its server stopped) is moved first. */
 export async function finishAfterCommit(jobId: string): Promise<void> {
-  for (const table of AFTER_COMMIT) await moveStagedAfterCommit(jobId, targetOf(table));
+  for (const table of STAGED_AFTER_COMMIT) await moveStagedAfterCommit(jobId, targetOf(table));
   await clearStaged(jobId);
 }
 
-/** Removes what a job that did not commit wrote out of sight, children first, and its stage. */
+/** Removes what a job that did not commit wrote out of sight (its history, its records, children first) and its stage. */
 export async function discardJob(jobId: string): Promise<void> {
+  for (const table of JOB_STAMPED) {
+    const name = sql.identifier(getTableName(table));
+    for (;;) {
+      const res = await db.run(sql`DELETE FROM ${name} WHERE rowid IN (SELECT rowid FROM ${name} WHERE job_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
+      if (res.rowsAffected < CLEAR_BATCH) break;
+      await nextTurn();
+    }
+  }
   // The search rows of its devices first (found while the devices are still there).
   const searchRows = await hiddenSearchRows(jobId);
   for (let lo = 0; lo < searchRows.length; lo += CLEAR_BATCH) {
@@ -329,9 +347,14 @@ export async function discardJob(jobId: string): Promise<void> {
   await clearStaged(jobId);
 }
 
-/** Ids of jobs that still have records out of sight (a job's id is its records' trash stamp). */
+/** Ids of jobs that still have records (or history) out of sight: a job's id is their trash stamp (or job stamp). */
 export async function jobsWithHiddenRecords(): Promise<string[]> {
   const ids = new Set<string>();
+  for (const table of JOB_STAMPED) {
+    const name = sql.identifier(getTableName(table));
+    const rows = await db.all<{ id: string }>(sql`SELECT DISTINCT job_id AS id FROM ${name} WHERE job_id IN (SELECT id FROM job WHERE state <> 'done')`);
+    rows.forEach((r) => ids.add(r.id));
+  }
   for (const e of RECORDS) {
     const name = sql.identifier(getTableName(e.table));
     const rows = await db.all<{ id: string }>(sql`SELECT DISTINCT trash_id AS id FROM ${name} WHERE trash_id IS NOT NULL AND trash_id LIKE 'job\\_%' ESCAPE '\\'`);

@@ -3,7 +3,7 @@
  * restore and purge for every declared entity (./entities.ts), over the one `revision` table and the one
  * trash (`deleted_at` / `trash_id`).
  */
-import { and, eq, inArray, isNotNull, isNull, type InferSelectModel, type SQL } from 'drizzle-orm';
+import { and, eq, getTableColumns, inArray, isNotNull, isNull, sql, type InferSelectModel, type SQL } from 'drizzle-orm';
 import type { SQLiteUpdateSetSource } from 'drizzle-orm/sqlite-core';
 import type { DbOrTx } from '../../../db/client';
 import { revision, type FieldChange, type RecordType } from '../../../db/schema';
@@ -77,6 +77,17 @@ export interface RevisionInput {
   snapshot: Record<string, unknown>;
   summary?: string;
 }
+
+/** A revision's columns as the app reads and answers them (its job stamp is the long jobs' bookkeeping). */
+const { jobId: _jobStamp, ...shownColumns } = getTableColumns(revision);
+export const revisionColumns = shownColumns;
+export type ShownRevision = Omit<typeof revision.$inferSelect, 'jobId'>;
+
+/**
+ * The revisions anyone may see: not those a long job wrote with its new records while that job is not done
+ * (still staging, or failed and being removed); its commit, which marks it done, shows them all at once.
+ */
+export const shownRevision: SQL = sql`(${revision.jobId} IS NULL OR ${revision.jobId} NOT IN (SELECT id FROM job WHERE state <> 'done'))`;
 
 /** A revision row as written (also built in bulk by imports). */
 export function revisionRow(ctx: { team: { id: string }; user: { id: string; name: string } }, r: RevisionInput, id = newId('rev')) {

@@ -5,7 +5,7 @@ import { ENTITY_TYPES, revision, type EntityType, type RecordType } from '../../
 import type { TeamContext } from '../guard';
 import { countWhere, notFound, updateVersioned, type Page } from './records';
 import { entityOf } from '../records/entities';
-import { findInTeam, hydrated, refuseTrashed } from '../records/engine';
+import { findInTeam, hydrated, refuseTrashed, revisionColumns, shownRevision, type ShownRevision } from '../records/engine';
 import { snapshotValues } from '../records/entity';
 import { uniqueName, uniqueTag } from './devices';
 import type { DeviceRow } from '../records/entities';
@@ -13,7 +13,7 @@ import { formerSerialsAfter } from '../../field/serials';
 import { referencesOf, refuseMissing } from '../records/references';
 import { Invalid } from '../errors';
 
-export type RevisionRow = typeof revision.$inferSelect;
+export type RevisionRow = ShownRevision;
 
 /** The record in any state (live or in the trash) if it belongs to the team. */
 export async function findAny(q: DbOrTx, ctx: TeamContext, type: RecordType, id: string) {
@@ -33,17 +33,18 @@ export async function listRevisions(
     // The vault's history: commands keep theirs in the same table, listed with each command.
     opts.entityType ? eq(revision.entityType, opts.entityType) : inArray(revision.entityType, ENTITY_TYPES),
     opts.entityId ? eq(revision.entityId, opts.entityId) : undefined,
+    shownRevision,
   );
   const order = opts.dir === 'asc' ? [revision.createdAt, revision.version] : [desc(revision.createdAt), desc(revision.version)];
   const [items, total] = await Promise.all([
-    db.select().from(revision).where(where).orderBy(...order).limit(opts.pageSize).offset((opts.page - 1) * opts.pageSize),
+    db.select(revisionColumns).from(revision).where(where).orderBy(...order).limit(opts.pageSize).offset((opts.page - 1) * opts.pageSize),
     countWhere(revision, where),
   ]);
   return { items, page: opts.page, pageSize: opts.pageSize, total, sort: 'createdAt', dir: opts.dir };
 }
 
 export async function getRevision(ctx: TeamContext, id: string, q: DbOrTx = db): Promise<RevisionRow> {
-  const [row] = await q.select().from(revision).where(and(eq(revision.id, id), eq(revision.teamId, ctx.team.id), inArray(revision.entityType, ENTITY_TYPES)));
+  const [row] = await q.select(revisionColumns).from(revision).where(and(eq(revision.id, id), eq(revision.teamId, ctx.team.id), inArray(revision.entityType, ENTITY_TYPES), shownRevision));
   if (!row) throw notFound('revision');
   return row;
 }
