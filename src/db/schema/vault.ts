@@ -265,7 +265,6 @@ export const revision = sqliteTable(
   (t) => [
     index('revision_entity_idx').on(t.teamId, t.entityId, t.version),
     index('revision_team_idx').on(t.teamId, t.createdAt),
-    index('revision_job_idx').on(t.jobId).where(sql`job_id IS NOT NULL`),
   ],
 );
 

@@ -322,10 +322,12 @@ export async function finishAfterCommit(jobId: string): Promise<void> {
 
 /** Removes what a job that did not commit wrote out of sight (its history, its records, children first) and its stage. */
 export async function discardJob(jobId: string): Promise<void> {
-  for (const table of JOB_STAMPED) {
-    const name = sql.identifier(getTableName(table));
+  // Their history first, found through them (a batch wrote both or neither, so none is left without its record).
+  for (const e of RECORDS) {
+    const name = sql.identifier(getTableName(e.table));
     for (;;) {
-      const res = await db.run(sql`DELETE FROM ${name} WHERE rowid IN (SELECT rowid FROM ${name} WHERE job_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
+      const res = await db.run(sql`DELETE FROM revision WHERE rowid IN (SELECT r.rowid FROM ${name} x
+        JOIN revision r ON r.team_id = x.team_id AND r.entity_id = x.id AND r.job_id = ${jobId} WHERE x.trash_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
       if (res.rowsAffected < CLEAR_BATCH) break;
       await nextTurn();
     }
@@ -347,14 +349,9 @@ export async function discardJob(jobId: string): Promise<void> {
   await clearStaged(jobId);
 }
 
-/** Ids of jobs that still have records (or history) out of sight: a job's id is their trash stamp (or job stamp). */
+/** Ids of jobs that still have records out of sight (a job's id is their trash stamp; their history goes with them). */
 export async function jobsWithHiddenRecords(): Promise<string[]> {
   const ids = new Set<string>();
-  for (const table of JOB_STAMPED) {
-    const name = sql.identifier(getTableName(table));
-    const rows = await db.all<{ id: string }>(sql`SELECT DISTINCT job_id AS id FROM ${name} WHERE job_id IN (SELECT id FROM job WHERE state <> 'done')`);
-    rows.forEach((r) => ids.add(r.id));
-  }
   for (const e of RECORDS) {
     const name = sql.identifier(getTableName(e.table));
     const rows = await db.all<{ id: string }>(sql`SELECT DISTINCT trash_id AS id FROM ${name} WHERE trash_id IS NOT NULL AND trash_id LIKE 'job\\_%' ESCAPE '\\'`);
