@@ -7,7 +7,6 @@
 import { CSV_FIELDS, readCsvRow, type CsvMapping, type SettingsChecks } from '../../field/csv';
 import type { CsvImportRequest } from '../../schemas/field';
 import { Invalid, TooLarge } from '../errors';
-import { sha256 } from '../ids';
 import { inSlices } from '../jobs/turns';
 import type { Progress } from '../jobs/jobs';
 import { parseCsvInSlices, type ParsedCsv } from './csv-parse';
@@ -48,11 +47,15 @@ export async function checkFile(req: CsvImportRequest, progress?: Progress): Pro
   return { parseErrors: parsed.errors, rows };
 }
 
-const kept = new Map<string, { file: CheckedFile; at: number }>();
+/** Each kept reading with the text it read: it is reused only for that very text (compared whole, not hashed). */
+const kept = new Map<string, { file: CheckedFile; csv: string; at: number }>();
 
-/** Whose file, which mapping, which text: a reading is reused only for the same person's same body. */
+/**
+ * Whose file, which mapping, how long a text: one reading kept per key. Hashing the text instead cost tens of ms
+ * of one stretch for a large file (other requests waited), twice per import; comparing it costs a memory compare.
+ */
 function keyOf(teamId: string, userId: string, req: CsvImportRequest): string {
-  return sha256(`${teamId}\n${userId}\n${JSON.stringify(req.mapping)}\n${req.csv}`);
+  return `${teamId}\n${userId}\n${JSON.stringify(req.mapping)}\n${req.csv.length}`;
 }
 
 /** Keeps a preview's reading for the apply (replacing any older one of the same body). */
@@ -68,7 +71,7 @@ export function keepChecked(teamId: string, userId: string, req: CsvImportReques
     kept.delete(k);
     rows -= v.file.rows.length;
   }
-  kept.set(key, { file, at: now });
+  kept.set(key, { file, csv: req.csv, at: now });
 }
 
 /** The reading a preview kept for this body, taken (each is used once), or undefined. */
@@ -76,8 +79,9 @@ export function takeChecked(teamId: string, userId: string, req: CsvImportReques
   dropExpired(now);
   const key = keyOf(teamId, userId, req);
   const hit = kept.get(key);
+  if (!hit || hit.csv !== req.csv) return undefined;
   kept.delete(key);
-  return hit?.file;
+  return hit.file;
 }
 
 function dropExpired(now: number): void {

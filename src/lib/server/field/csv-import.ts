@@ -10,7 +10,7 @@ import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
 import { creationRevisions } from './import-write';
 import { checkFile, keepChecked, takeChecked, type CheckedFile } from './csv-file-check';
-import { inSlices } from '../jobs/turns';
+import { inSlices, nextTurn } from '../jobs/turns';
 import { runStagedJob, type Progress } from '../jobs/jobs';
 import { Conflict, Invalid } from '../errors';
 
@@ -116,8 +116,10 @@ export async function previewCsvImport(ctx: TeamContext, req: CsvImportRequest):
   return preview(p, false);
 }
 
-/** Devices staged per short write, with their ports and creation revisions (each write is one stretch that other requests wait for). */
+/** Devices staged per write (one transaction on the background writer: its commit writes each changed page once). */
 const STAGE_DEVICES = 500;
+/** Devices whose rows are built in one stretch of this thread, between which other requests get their turn. */
+const BUILD_DEVICES = 100;
 
 /**
  * Writes every valid device and port (and their creation revisions); with errors, only when skipInvalid.
@@ -135,12 +137,22 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
       stage.target(port);
       stage.target(revision);
       for (let lo = 0; lo < p.devices.length; lo += STAGE_DEVICES) {
-        const slice = p.devices.slice(lo, lo + STAGE_DEVICES);
-        const portIds = slice.map((d) => d.ports.map(() => newId('port')));
-        const devices = slice.map((d, i) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds[i]!) }));
-        const ports = slice.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: portIds[i]![position]!, deviceId: devices[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
-        stage.report(p.rows + Math.round((p.rows * (lo + slice.length)) / p.devices.length), p.rows * 2);
-        await stage.addTogether([[device, devices], [port, ports], [revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]]]);
+        const hi = Math.min(p.devices.length, lo + STAGE_DEVICES);
+        const devices: Record<string, unknown>[] = [];
+        const ports: Record<string, unknown>[] = [];
+        const revisions: Record<string, unknown>[] = [];
+        for (let a = lo; a < hi; a += BUILD_DEVICES) {
+          if (a > lo) await nextTurn();
+          const part = p.devices.slice(a, Math.min(hi, a + BUILD_DEVICES));
+          const portIds = part.map((d) => d.ports.map(() => newId('port')));
+          const ds = part.map((d, i) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds[i]!) }));
+          const ps = part.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: portIds[i]![position]!, deviceId: ds[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
+          devices.push(...ds);
+          ports.push(...ps);
+          revisions.push(...creationRevisions(ctx, 'device', ds, summary), ...creationRevisions(ctx, 'port', ps, summary));
+        }
+        stage.report(p.rows + Math.round((p.rows * hi) / p.devices.length), p.rows * 2);
+        await stage.addTogether([[device, devices], [port, ports], [revision, revisions]]);
       }
     },
     async verify(tx) {
