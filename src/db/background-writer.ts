@@ -5,7 +5,7 @@ import { CONNECTION_PRAGMAS } from './connection-settings';
 
 /**
  * The worker: its own connection to the file, with the app's connection settings. Each message is a list of
- * statements run in one transaction (all or none); the statements are prepared once per text. It may wait on
+ * statements run in one transaction (all or none); the statements are prepared once per text (the last 32 kept). It may wait on
  * SQLite's busy timeout: it is not the thread that answers requests. (Eval'd as CommonJS: the driver's path is given.)
  */
 const WORKER = `
@@ -20,10 +20,11 @@ parentPort.on('message', ({ id, statements }) => {
     db.exec('BEGIN IMMEDIATE');
     for (const s of statements) {
       let st = prepared.get(s.sql);
-      if (!st) {
-        st = db.prepare(s.sql);
-        prepared.set(s.sql, st);
-      }
+      if (st) prepared.delete(s.sql);
+      else st = db.prepare(s.sql);
+      // The most recently used texts only (a batch's last insert has a row count of its own).
+      prepared.set(s.sql, st);
+      if (prepared.size > workerData.keep) prepared.delete(prepared.keys().next().value);
       st.run((s.args || []).map(bound));
     }
     db.exec('COMMIT');
@@ -34,6 +35,9 @@ parentPort.on('message', ({ id, statements }) => {
   }
 });
 `;
+
+/** Prepared statements the worker keeps (least recently used go first). */
+const KEPT_STATEMENTS = 32;
 
 export interface BackgroundWriter {
   /** Runs the statements in one transaction on the worker's connection; settles when it has committed (or failed, all undone). */
@@ -65,7 +69,7 @@ export function startBackgroundWriter(path: string, busyMs = 5000): BackgroundWr
   };
   const started = () => {
     if (worker) return worker;
-    const w = new Worker(WORKER, { eval: true, workerData: { driver, path, busyMs, pragmas: [...CONNECTION_PRAGMAS] } });
+    const w = new Worker(WORKER, { eval: true, workerData: { driver, path, busyMs, keep: KEPT_STATEMENTS, pragmas: [...CONNECTION_PRAGMAS] } });
     w.unref();
     w.on('message', (m: { id: number; error?: { message: string; code?: string } }) => {
       const entry = waiting.get(m.id);

@@ -31,3 +31,14 @@ it('forgets a reading after ten minutes', () => {
   keepChecked('team_1', 'user_1', req('Tag\nC-1'), file(1), 0);
   expect(takeChecked('team_1', 'user_1', req('Tag\nC-1'), 10 * 60_000 + 1)).toBeUndefined();
 });
+
+it('keeps at most about two of the largest files\' text: the oldest goes first', () => {
+  const big = (n: number) => `Tag\n${'x'.repeat(8 * 1024 * 1024 + n)}`;
+  const [a, b, c] = [file(1), file(1), file(1)];
+  keepChecked('team_2', 'user_1', req(big(1)), a, 1_000);
+  keepChecked('team_2', 'user_1', req(big(2)), b, 1_001);
+  keepChecked('team_2', 'user_1', req(big(3)), c, 1_002);
+  expect(takeChecked('team_2', 'user_1', req(big(1)), 1_003)).toBeUndefined();
+  expect(takeChecked('team_2', 'user_1', req(big(2)), 1_003)).toBe(b);
+  expect(takeChecked('team_2', 'user_1', req(big(3)), 1_003)).toBe(c);
+});

@@ -9,6 +9,7 @@ import { cardCommand, cardPort, type CardCommand, type CardPort } from '../../fi
 import { liveDevice, liveMachine, liveSite } from './scope';
 import { referencedIds } from '../../composer/saved-sequence';
 import { stepCommands } from '../commands/sequences';
+import { shownRevisionAs } from '../records/engine';
 
 type DeviceRow = typeof device.$inferSelect;
 
@@ -35,7 +36,7 @@ async function revisions(teamId: string, deviceIds: string[]): Promise<Map<strin
     SELECT x.device_id AS deviceId, count(*) AS n, max(r.created_at) AS last FROM (
       SELECT id AS entity_id, id AS device_id, 'device' AS t FROM device WHERE id IN (${list})
       UNION ALL SELECT id, device_id, 'port' FROM port WHERE device_id IN (${list})
-    ) x JOIN revision r ON r.team_id = ${teamId} AND r.entity_id = x.entity_id AND r.entity_type = x.t
+    ) x JOIN revision r ON r.team_id = ${teamId} AND r.entity_id = x.entity_id AND r.entity_type = x.t AND ${shownRevisionAs('r')}
     GROUP BY x.device_id`);
   return new Map(rows.map((r) => [r.deviceId, { number: Number(r.n), date: r.last === null ? null : new Date(Number(r.last)) }]));
 }

@@ -18,6 +18,8 @@ const CHECK_SLICE = 250;
 export const CHECKED_KEPT_MS = 10 * 60_000;
 /** At most this many rows are kept, over all previews of this process (the oldest go first). */
 const CHECKED_MAX_ROWS = CSV_MAX_ROWS;
+/** At most this many characters of the files read are kept with them (two of the largest files a request takes). */
+const CHECKED_MAX_CHARS = 20 * 1024 * 1024;
 
 export interface CheckedFile {
   /** Errors of the parser; `row` counts data rows from 0. */
@@ -65,11 +67,16 @@ export function keepChecked(teamId: string, userId: string, req: CsvImportReques
   const key = keyOf(teamId, userId, req);
   kept.delete(key);
   let rows = file.rows.length;
-  for (const v of kept.values()) rows += v.file.rows.length;
+  let chars = req.csv.length;
+  for (const v of kept.values()) {
+    rows += v.file.rows.length;
+    chars += v.csv.length;
+  }
   for (const [k, v] of kept) {
-    if (rows <= CHECKED_MAX_ROWS) break;
+    if (rows <= CHECKED_MAX_ROWS && chars <= CHECKED_MAX_CHARS) break;
     kept.delete(k);
     rows -= v.file.rows.length;
+    chars -= v.csv.length;
   }
   kept.set(key, { file, csv: req.csv, at: now });
 }

@@ -322,17 +322,19 @@ export async function finishAfterCommit(jobId: string): Promise<void> {
 
 /** Removes what a job that did not commit wrote out of sight (its history, its records, children first) and its stage. */
 export async function discardJob(jobId: string): Promise<void> {
-  // Their history first, found through them (a batch wrote both or neither, so none is left without its record).
-  for (const e of RECORDS) {
-    const name = sql.identifier(getTableName(e.table));
+  // Its history first. It was written after the job began, so it is found on the team's history index from the
+  // job's start: bounded by what the team wrote since, and found even where its records are gone already (a purge
+  // of their parent during the import cascades to them).
+  const [started] = await db.all<{ teamId: string; createdAt: number }>(sql`SELECT team_id AS teamId, created_at AS createdAt FROM job WHERE id = ${jobId}`);
+  if (started) {
     for (;;) {
-      const res = await db.run(sql`DELETE FROM revision WHERE rowid IN (SELECT r.rowid FROM ${name} x
-        JOIN revision r ON r.team_id = x.team_id AND r.entity_id = x.id AND r.job_id = ${jobId} WHERE x.trash_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
+      const res = await db.run(sql`DELETE FROM revision WHERE rowid IN (SELECT rowid FROM revision
+        WHERE team_id = ${started.teamId} AND created_at >= ${Number(started.createdAt)} AND job_id = ${jobId} LIMIT ${CLEAR_BATCH})`);
       if (res.rowsAffected < CLEAR_BATCH) break;
       await nextTurn();
     }
   }
-  // The search rows of its devices first (found while the devices are still there).
+  // Then the search rows of its devices (found while the devices are still there).
   const searchRows = await hiddenSearchRows(jobId);
   for (let lo = 0; lo < searchRows.length; lo += CLEAR_BATCH) {
     await db.run(removeSearchRows(searchRows.slice(lo, lo + CLEAR_BATCH)));

@@ -88,6 +88,8 @@ export type ShownRevision = Omit<typeof revision.$inferSelect, 'jobId'>;
  * (still staging, or failed and being removed); its commit, which marks it done, shows them all at once.
  */
 export const shownRevision: SQL = sql`(${revision.jobId} IS NULL OR ${revision.jobId} NOT IN (SELECT id FROM job WHERE state <> 'done'))`;
+/** `shownRevision` for raw SQL that names the revision table `alias`. */
+export const shownRevisionAs = (alias: 'r'): SQL => sql.raw(`(${alias}.job_id IS NULL OR ${alias}.job_id NOT IN (SELECT id FROM job WHERE state <> 'done'))`);
 
 /** A revision row as written (also built in bulk by imports). */
 export function revisionRow(ctx: { team: { id: string }; user: { id: string; name: string } }, r: RevisionInput, id = newId('rev')) {
