@@ -10,7 +10,7 @@ import type { CsvImportRequest } from '../../schemas/field';
 import { liveMachine } from './scope';
 import { creationRevisions } from './import-write';
 import { checkFile, keepChecked, takeChecked, type CheckedFile } from './csv-file-check';
-import { inSlices, nextTurn } from '../jobs/turns';
+import { inSlices } from '../jobs/turns';
 import { runStagedJob, type Progress } from '../jobs/jobs';
 import { Conflict, Invalid } from '../errors';
 
@@ -137,22 +137,17 @@ export async function applyCsvImport(ctx: TeamContext, req: CsvImportRequest): P
       stage.target(port);
       stage.target(revision);
       for (let lo = 0; lo < p.devices.length; lo += STAGE_DEVICES) {
-        const hi = Math.min(p.devices.length, lo + STAGE_DEVICES);
-        const devices: Record<string, unknown>[] = [];
-        const ports: Record<string, unknown>[] = [];
-        const revisions: Record<string, unknown>[] = [];
-        for (let a = lo; a < hi; a += BUILD_DEVICES) {
-          if (a > lo) await nextTurn();
-          const part = p.devices.slice(a, Math.min(hi, a + BUILD_DEVICES));
-          const portIds = part.map((d) => d.ports.map(() => newId('port')));
-          const ds = part.map((d, i) => ({ ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds[i]!) }));
-          const ps = part.flatMap((d, i) => d.ports.map((x, position) => ({ ...stamp, id: portIds[i]![position]!, deviceId: ds[i]!.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' })));
-          devices.push(...ds);
-          ports.push(...ps);
-          revisions.push(...creationRevisions(ctx, 'device', ds, summary), ...creationRevisions(ctx, 'port', ps, summary));
-        }
-        stage.report(p.rows + Math.round((p.rows * hi) / p.devices.length), p.rows * 2);
-        await stage.addTogether([[device, devices], [port, ports], [revision, revisions]]);
+        const slice = p.devices.slice(lo, lo + STAGE_DEVICES);
+        const devices: ({ id: string } & Record<string, unknown>)[] = [];
+        const ports: ({ id: string } & Record<string, unknown>)[] = [];
+        await inSlices(slice, BUILD_DEVICES, (d) => {
+          const portIds = d.ports.map(() => newId('port'));
+          const row = { ...d.device, ...stamp, id: newId('dev'), machineId: p.machine.id, profileId: null, notes: '', bridges: bridgesOf(d, portIds) };
+          devices.push(row);
+          d.ports.forEach((x, position) => ports.push({ ...stamp, id: portIds[position]!, deviceId: row.id, name: x.name, position, settings: x.settings, wiring: [], notes: '' }));
+        });
+        stage.report(p.rows + Math.round((p.rows * (lo + slice.length)) / p.devices.length), p.rows * 2);
+        await stage.addTogether([[device, devices], [port, ports], [revision, [...creationRevisions(ctx, 'device', devices, summary), ...creationRevisions(ctx, 'port', ports, summary)]]]);
       }
     },
     async verify(tx) {

@@ -105,9 +105,10 @@ export async function sweepAbandoned(now = Date.now()): Promise<void> {
   const unfinished = new Set((await db.all<{ id: string }>(running)).map((r) => r.id));
   for (const jobId of await jobsWithHiddenRecords()) if (!unfinished.has(jobId)) await discardJob(jobId);
   // A failed job's history is hidden by its row: what a clean-up cut short left of it goes before the row does.
-  const forgotten = await db.select({ id: job.id }).from(job).where(and(eq(job.state, 'failed'), lt(job.createdAt, new Date(now - KEPT_MS))));
+  const old = lt(job.createdAt, new Date(now - KEPT_MS));
+  const forgotten = await db.select({ id: job.id }).from(job).where(and(eq(job.state, 'failed'), old));
   for (const { id } of forgotten) await discardJob(id);
-  await db.delete(job).where(and(inArray(job.state, ['done', 'failed']), lt(job.createdAt, new Date(now - KEPT_MS))));
+  await db.delete(job).where(and(inArray(job.state, ['done', 'failed']), old));
 }
 
 /** The team's jobs, newest first. */

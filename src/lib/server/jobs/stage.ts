@@ -106,7 +106,8 @@ const insertTexts = new Map<string, { rows: number; text: string }>();
  * is kept: a job writes hundreds of batches alike.
  */
 function rawInsert(table: string, columns: string[], rows: number, args: unknown[]): InStatement {
-  let text = insertTexts.get(table)?.rows === rows ? insertTexts.get(table)!.text : undefined;
+  const last = insertTexts.get(table);
+  let text = last?.rows === rows ? last.text : undefined;
   if (text === undefined) {
     const one = `(${columns.map(() => '?').join(', ')})`;
     text = `INSERT INTO ${quoteName(table)} (${columns.map(quoteName).join(', ')}) VALUES ${Array(rows).fill(one).join(', ')}`;

@@ -84,12 +84,12 @@ export const revisionColumns = shownColumns;
 export type ShownRevision = Omit<typeof revision.$inferSelect, 'jobId'>;
 
 /**
- * The revisions anyone may see: not those a long job wrote with its new records while that job is not done
+ * The revisions anyone may see (in SQL naming the revision table `table`): not those a long job wrote with its new records while that job is not done
  * (still staging, or failed and being removed); its commit, which marks it done, shows them all at once.
  */
-export const shownRevision: SQL = sql`(${revision.jobId} IS NULL OR ${revision.jobId} NOT IN (SELECT id FROM job WHERE state <> 'done'))`;
-/** `shownRevision` for raw SQL that names the revision table `alias`. */
-export const shownRevisionAs = (alias: 'r'): SQL => sql.raw(`(${alias}.job_id IS NULL OR ${alias}.job_id NOT IN (SELECT id FROM job WHERE state <> 'done'))`);
+export const shownRevisionAs = (table: 'revision' | 'r'): SQL => sql.raw(`(${table}.job_id IS NULL OR ${table}.job_id NOT IN (SELECT id FROM job WHERE state <> 'done'))`);
+/** The same, for queries built on the `revision` table itself. */
+export const shownRevision: SQL = shownRevisionAs('revision');
 
 /** A revision row as written (also built in bulk by imports). */
 export function revisionRow(ctx: { team: { id: string }; user: { id: string; name: string } }, r: RevisionInput, id = newId('rev')) {
